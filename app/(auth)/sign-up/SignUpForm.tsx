@@ -1,0 +1,93 @@
+"use client";
+
+import { zodResolver } from "@hookform/resolvers/zod";
+import Link from "next/link";
+import { signIn } from "next-auth/react";
+import { useRouter } from "next/navigation";
+import { useState } from "react";
+import { useForm } from "react-hook-form";
+import { z } from "zod";
+import { signUpAction } from "./actions";
+
+const schema = z.object({
+  shopName: z.string().trim().min(2, "Give your shop a name of at least 2 characters."),
+  name: z.string().trim().min(1, "Tell us your name."),
+  email: z.string().trim().email("Enter a valid e-mail address."),
+  password: z.string().min(10, "Use at least 10 characters."),
+});
+type Values = z.infer<typeof schema>;
+
+export function SignUpForm() {
+  const router = useRouter();
+  const [error, setError] = useState<string>();
+  const {
+    register,
+    handleSubmit,
+    setError: setFieldError,
+    formState: { errors, isSubmitting },
+  } = useForm<Values>({ resolver: zodResolver(schema) });
+
+  const onSubmit = handleSubmit(async (values) => {
+    setError(undefined);
+    const result = await signUpAction(values);
+    if (!result.ok) {
+      setError(result.error);
+      for (const [field, messages] of Object.entries(result.fieldErrors ?? {})) {
+        if (messages?.[0]) setFieldError(field as keyof Values, { message: messages[0] });
+      }
+      return;
+    }
+    const signedIn = await signIn("credentials", { email: values.email, password: values.password, redirect: false });
+    router.replace(signedIn?.ok ? `/shops/${result.data.shopSlug}` : "/sign-in");
+    router.refresh();
+  });
+
+  const field = (name: keyof Values, label: string, type = "text", autoComplete?: string) => (
+    <div>
+      <label htmlFor={name} className="field-label">
+        {label}
+      </label>
+      <input
+        id={name}
+        type={type}
+        autoComplete={autoComplete}
+        aria-invalid={errors[name] ? true : undefined}
+        aria-describedby={errors[name] ? `${name}-error` : undefined}
+        className="field-input"
+        {...register(name)}
+      />
+      {errors[name] ? (
+        <p id={`${name}-error`} className="field-error">
+          {errors[name]?.message}
+        </p>
+      ) : null}
+    </div>
+  );
+
+  return (
+    <div className="card p-6 sm:p-8">
+      <h1 className="text-2xl">Start a shop</h1>
+      <p className="mt-1 text-sm text-ink-600">You will be its owner, and can invite your team after.</p>
+      {error ? (
+        <p role="alert" className="mt-4 rounded-lg border border-brick-300 bg-brick-100 px-3 py-2 text-sm text-brick-800">
+          {error}
+        </p>
+      ) : null}
+      <form onSubmit={onSubmit} className="mt-5 space-y-4" noValidate>
+        {field("shopName", "Shop name", "text", "organization")}
+        {field("name", "Your name", "text", "name")}
+        {field("email", "E-mail", "email", "email")}
+        {field("password", "Password", "password", "new-password")}
+        <button type="submit" className="btn-primary w-full" disabled={isSubmitting}>
+          {isSubmitting ? "Creating your shop…" : "Create shop"}
+        </button>
+      </form>
+      <p className="mt-6 text-center text-sm text-ink-600">
+        Already have an account?{" "}
+        <Link href="/sign-in" className="font-medium text-patina-700 hover:underline">
+          Sign in
+        </Link>
+      </p>
+    </div>
+  );
+}

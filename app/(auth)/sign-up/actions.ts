@@ -1,0 +1,35 @@
+"use server";
+
+import bcrypt from "bcryptjs";
+import { z } from "zod";
+import type { ActionResult } from "@/app/_server/access";
+import { takeToken } from "@/app/_server/rate-limit";
+import { createShopWithOwner, EmailTakenError } from "@/db/queries/shops";
+
+const signUpSchema = z.object({
+  shopName: z.string().trim().min(2, "Give your shop a name of at least 2 characters.").max(80, "Keep the shop name under 80 characters."),
+  name: z.string().trim().min(1, "Tell us your name.").max(80, "Keep your name under 80 characters."),
+  email: z.string().trim().toLowerCase().email("Enter a valid e-mail address."),
+  password: z.string().min(10, "Use at least 10 characters.").max(200, "Use at most 200 characters."),
+});
+
+export type SignUpInput = z.input<typeof signUpSchema>;
+
+export async function signUpAction(input: SignUpInput): Promise<ActionResult<{ shopSlug: string }>> {
+  const parsed = signUpSchema.safeParse(input);
+  if (!parsed.success) {
+    return { ok: false, error: "Check the highlighted fields.", fieldErrors: z.flattenError(parsed.error).fieldErrors };
+  }
+  if (!takeToken(`sign-up:${parsed.data.email}`, { capacity: 5, refillPerMinute: 1 })) {
+    return { ok: false, error: "Too many attempts. Wait a minute and try again.", status: 429 };
+  }
+  try {
+    const passwordHash = await bcrypt.hash(parsed.data.password, 10);
+    const { shopSlug } = await createShopWithOwner({ ...parsed.data, passwordHash });
+    return { ok: true, data: { shopSlug } };
+  } catch (error) {
+    if (error instanceof EmailTakenError) return { ok: false, error: error.message, fieldErrors: { email: [error.message] } };
+    console.error("[sign-up]", error);
+    return { ok: false, error: "We could not create your shop just now. Nothing was saved; try again in a moment." };
+  }
+}

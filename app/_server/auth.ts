@@ -1,0 +1,114 @@
+import "server-only";
+import { DrizzleAdapter } from "@auth/drizzle-adapter";
+import bcrypt from "bcryptjs";
+import type { NextAuthOptions } from "next-auth";
+import { getServerSession } from "next-auth";
+import type { Adapter } from "next-auth/adapters";
+import CredentialsProvider from "next-auth/providers/credentials";
+import EmailProvider from "next-auth/providers/email";
+import { z } from "zod";
+import { getDb } from "@/db/client";
+import { linkContactsToUser } from "@/db/queries/access";
+import { findUserByEmail, normalizeEmail } from "@/db/queries/users";
+import { accounts, sessions, users, verificationTokens } from "@/db/schema";
+import { takeToken } from "./rate-limit";
+import { composeMail } from "./emails";
+import { sendMail } from "./mail";
+import { findContactByEmail } from "@/db/queries/contacts";
+
+const credentialsSchema = z.object({
+  email: z.string().trim().email(),
+  password: z.string().min(1).max(200),
+});
+
+let options: NextAuthOptions | undefined;
+
+export function getAuthOptions(): NextAuthOptions {
+  if (options) return options;
+  const secure = (process.env.NEXTAUTH_URL ?? "").startsWith("https://");
+  options = {
+    adapter: DrizzleAdapter(getDb(), {
+      usersTable: users,
+      accountsTable: accounts,
+      sessionsTable: sessions,
+      verificationTokensTable: verificationTokens,
+    }) as unknown as Adapter,
+    secret: process.env.NEXTAUTH_SECRET ?? process.env.AUTH_SECRET,
+    session: { strategy: "jwt", maxAge: 30 * 24 * 3600 },
+    useSecureCookies: secure,
+    pages: { signIn: "/sign-in", verifyRequest: "/sign-in/check-email", error: "/sign-in" },
+    providers: [
+      CredentialsProvider({
+        id: "credentials",
+        name: "E-mail and password",
+        credentials: { email: { label: "E-mail", type: "email" }, password: { label: "Password", type: "password" } },
+        async authorize(raw) {
+          const parsed = credentialsSchema.safeParse(raw);
+          if (!parsed.success) return null;
+          const email = normalizeEmail(parsed.data.email);
+          if (!takeToken(`sign-in:${email}`, { capacity: 10, refillPerMinute: 5 })) {
+            throw new Error("Too many sign-in attempts. Wait a minute and try again.");
+          }
+          const user = await findUserByEmail({ email });
+          if (!user?.passwordHash) return null;
+          const ok = await bcrypt.compare(parsed.data.password, user.passwordHash);
+          if (!ok) return null;
+          return { id: user.id, email: user.email, name: user.name };
+        },
+      }),
+      EmailProvider({
+        from: process.env.MAIL_FROM ?? "Chalkline <proofs@chalkline.test>",
+        // The transport is ours (see mail.ts); the provider only needs a value here.
+        server: process.env.SMTP_URL ?? { host: "127.0.0.1", port: Number(process.env.MAIL_FAKE_SMTP_PORT ?? 25) },
+        maxAge: 30 * 60,
+        async sendVerificationRequest({ identifier, url }) {
+          await sendMail(
+            composeMail({
+              to: identifier,
+              subject: "Your Chalkline sign-in link",
+              heading: "Sign in to Chalkline",
+              paragraphs: ["Use the button below to sign in. The link works once and expires in 30 minutes."],
+              action: { label: "Sign in", url },
+              footnote: "If you did not ask for this, you can ignore this e-mail.",
+            }),
+          );
+        },
+      }),
+    ],
+    callbacks: {
+      async signIn({ user, account }) {
+        if (account?.provider !== "email") return true;
+        const email = normalizeEmail(user.email ?? "");
+        // Links go only to people the product knows: members, or contacts a shop has added.
+        if (await findUserByEmail({ email })) return true;
+        if (await findContactByEmail({ email })) return true;
+        return "/sign-in?error=NoAccount";
+      },
+      async jwt({ token, user }) {
+        if (user?.id) token.uid = user.id;
+        return token;
+      },
+      async session({ session, token }) {
+        if (session.user && typeof token.uid === "string") {
+          (session.user as { id?: string }).id = token.uid;
+        }
+        return session;
+      },
+    },
+    events: {
+      async signIn({ user }) {
+        if (user.id && user.email) await linkContactsToUser({ userId: user.id, email: user.email });
+      },
+    },
+  };
+  return options;
+}
+
+export type SessionUser = { id: string; email: string; name: string | null };
+
+export async function getSessionUser(): Promise<SessionUser | null> {
+  const session = await getServerSession(getAuthOptions());
+  const user = session?.user as { id?: string; email?: string | null; name?: string | null } | undefined;
+  if (!user?.id || !user.email) return null;
+  return { id: user.id, email: user.email, name: user.name ?? null };
+}

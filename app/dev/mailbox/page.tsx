@@ -1,0 +1,33 @@
+import { notFound } from "next/navigation";
+import { mailFakeApi } from "@/app/_server/config";
+import { Logo } from "@/components/ui/Logo";
+import { MailboxView, type CaughtMessage } from "./MailboxView";
+
+export const dynamic = "force-dynamic";
+export const metadata = { title: "Dev mailbox" };
+
+/** Lists what the local mail catcher received. Exists only while the catcher is in use. */
+export default async function MailboxPage() {
+  const api = mailFakeApi();
+  if (!api) notFound();
+  let messages: CaughtMessage[] = [];
+  let error: string | undefined;
+  try {
+    const response = await fetch(`${api}/messages`, { cache: "no-store" });
+    messages = (await response.json()) as CaughtMessage[];
+  } catch {
+    error = "The local mail catcher is not answering. Restart with `npm start`.";
+  }
+  return (
+    <main className="mx-auto max-w-5xl px-gutter py-8">
+      <div className="mb-6 flex items-center justify-between">
+        <Logo />
+        <span className="rounded-full bg-ochre-100 px-3 py-1 text-xs font-medium text-ochre-800">Development only</span>
+      </div>
+      <h1 className="text-2xl">Dev mailbox</h1>
+      <p className="mt-1 text-ink-600">Every e-mail the app sent while running with the local mail catcher.</p>
+      {error ? <p className="mt-4 rounded-lg bg-brick-100 px-3 py-2 text-sm text-brick-800">{error}</p> : null}
+      <MailboxView messages={messages} />
+    </main>
+  );
+}

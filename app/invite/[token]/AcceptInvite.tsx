@@ -1,0 +1,67 @@
+"use client";
+
+import { signIn } from "next-auth/react";
+import { useRouter } from "next/navigation";
+import { useState, type FormEvent } from "react";
+import { acceptInvitationAction } from "./actions";
+
+export function AcceptInvite({ token, email, needsAccount }: { token: string; email: string; needsAccount: boolean }) {
+  const router = useRouter();
+  const [error, setError] = useState<string>();
+  const [fieldErrors, setFieldErrors] = useState<Record<string, string[] | undefined>>({});
+  const [busy, setBusy] = useState(false);
+
+  async function onSubmit(event: FormEvent<HTMLFormElement>) {
+    event.preventDefault();
+    const form = new FormData(event.currentTarget);
+    const password = needsAccount ? String(form.get("password") ?? "") : undefined;
+    setBusy(true);
+    const result = await acceptInvitationAction({ token, name: needsAccount ? String(form.get("name") ?? "") : undefined, password });
+    setBusy(false);
+    if (!result.ok) {
+      setError(result.error);
+      setFieldErrors(result.fieldErrors ?? {});
+      return;
+    }
+    if (password) {
+      await signIn("credentials", { email, password, redirect: false });
+      router.replace(`/shops/${result.data.shopSlug}`);
+    } else {
+      router.replace(`/sign-in?callbackUrl=${encodeURIComponent(`/shops/${result.data.shopSlug}`)}`);
+    }
+    router.refresh();
+  }
+
+  return (
+    <form onSubmit={onSubmit} className="mt-6 space-y-4" noValidate>
+      {error ? (
+        <p role="alert" className="rounded-lg bg-brick-100 px-3 py-2 text-sm text-brick-800">
+          {error}
+        </p>
+      ) : null}
+      {needsAccount ? (
+        <>
+          <div>
+            <label htmlFor="name" className="field-label">
+              Your name
+            </label>
+            <input id="name" name="name" className="field-input" autoComplete="name" />
+            {fieldErrors.name?.[0] ? <p className="field-error">{fieldErrors.name[0]}</p> : null}
+          </div>
+          <div>
+            <label htmlFor="password" className="field-label">
+              Choose a password
+            </label>
+            <input id="password" name="password" type="password" className="field-input" autoComplete="new-password" />
+            {fieldErrors.password?.[0] ? <p className="field-error">{fieldErrors.password[0]}</p> : null}
+          </div>
+        </>
+      ) : (
+        <p className="text-sm text-ink-600">You already have an account. Accept, then sign in as usual.</p>
+      )}
+      <button type="submit" className="btn-primary w-full" disabled={busy}>
+        {busy ? "Joining…" : "Accept and join"}
+      </button>
+    </form>
+  );
+}

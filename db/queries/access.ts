@@ -1,0 +1,42 @@
+import "server-only";
+import { and, eq } from "drizzle-orm";
+import { db } from "../client";
+import { clientContacts, clients, memberships, shops } from "../schema";
+
+export type ActorMembership = { shopId: string; shopSlug: string; shopName: string; role: "owner" | "designer" | "production" };
+export type ActorContact = { contactId: string; clientId: string; clientName: string; shopId: string; shopSlug: string; shopName: string };
+
+export async function listMemberships({ userId }: { userId: string }): Promise<ActorMembership[]> {
+  return db
+    .select({ shopId: shops.id, shopSlug: shops.slug, shopName: shops.name, role: memberships.role })
+    .from(memberships)
+    .innerJoin(shops, eq(shops.id, memberships.shopId))
+    .where(eq(memberships.userId, userId))
+    .orderBy(shops.name);
+}
+
+export async function listClientContacts({ userId }: { userId: string }): Promise<ActorContact[]> {
+  return db
+    .select({
+      contactId: clientContacts.id,
+      clientId: clients.id,
+      clientName: clients.name,
+      shopId: shops.id,
+      shopSlug: shops.slug,
+      shopName: shops.name,
+    })
+    .from(clientContacts)
+    .innerJoin(clients, eq(clients.id, clientContacts.clientId))
+    .innerJoin(shops, eq(shops.id, clients.shopId))
+    .where(and(eq(clientContacts.userId, userId), eq(clients.archived, false)));
+}
+
+/** Links client contacts with this e-mail to the user, so a contact who signs in sees their jobs. */
+export async function linkContactsToUser({ userId, email }: { userId: string; email: string }): Promise<void> {
+  await db.update(clientContacts).set({ userId }).where(eq(clientContacts.email, email.trim().toLowerCase()));
+}
+
+export async function findShopBySlug({ slug }: { slug: string }) {
+  const [row] = await db.select().from(shops).where(eq(shops.slug, slug)).limit(1);
+  return row;
+}

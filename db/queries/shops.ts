@@ -1,0 +1,170 @@
+import "server-only";
+import { createHash, randomBytes } from "node:crypto";
+import { and, count, eq, gt, inArray, isNull } from "drizzle-orm";
+import { db } from "../client";
+import { clients, invitations, jobs, memberships, shops, users } from "../schema";
+import { recordAudit } from "./audit";
+import { normalizeEmail } from "./users";
+
+export function hashToken(token: string): string {
+  return createHash("sha256").update(token).digest("hex");
+}
+
+export function slugify(name: string): string {
+  const base = name
+    .toLowerCase()
+    .normalize("NFKD")
+    .replace(/[^a-z0-9]+/g, "-")
+    .replace(/^-+|-+$/g, "")
+    .slice(0, 40);
+  return base || "shop";
+}
+
+async function uniqueSlug(name: string): Promise<string> {
+  const base = slugify(name);
+  for (let attempt = 0; attempt < 20; attempt += 1) {
+    const candidate = attempt === 0 ? base : `${base}-${attempt + 1}`;
+    const [taken] = await db.select({ id: shops.id }).from(shops).where(eq(shops.slug, candidate)).limit(1);
+    if (!taken) return candidate;
+  }
+  return `${base}-${randomBytes(3).toString("hex")}`;
+}
+
+export class EmailTakenError extends Error {
+  constructor() {
+    super("An account with this e-mail already exists. Sign in instead.");
+  }
+}
+
+/** Sign-up: a new user and a new shop, with the user as its owner, in one transaction. */
+export async function createShopWithOwner(input: {
+  shopName: string;
+  name: string;
+  email: string;
+  passwordHash: string;
+}): Promise<{ userId: string; shopSlug: string }> {
+  const email = normalizeEmail(input.email);
+  const slug = await uniqueSlug(input.shopName);
+  return db.transaction(async (tx) => {
+    const [existing] = await tx.select({ id: users.id }).from(users).where(eq(users.email, email)).limit(1);
+    if (existing) throw new EmailTakenError();
+    const [user] = await tx
+      .insert(users)
+      .values({ email, name: input.name, passwordHash: input.passwordHash })
+      .returning({ id: users.id });
+    const [shop] = await tx.insert(shops).values({ name: input.shopName, slug }).returning({ id: shops.id });
+    await tx.insert(memberships).values({ shopId: shop!.id, userId: user!.id, role: "owner" });
+    await recordAudit({ shopId: shop!.id, actorUserId: user!.id, action: "shop.created", subjectType: "shop", subjectId: shop!.id }, tx);
+    return { userId: user!.id, shopSlug: slug };
+  });
+}
+
+export async function shopOverview({ shopId }: { shopId: string }) {
+  const [clientCount] = await db
+    .select({ n: count() })
+    .from(clients)
+    .where(and(eq(clients.shopId, shopId), eq(clients.archived, false)));
+  const [memberCount] = await db.select({ n: count() }).from(memberships).where(eq(memberships.shopId, shopId));
+  const [openJobs] = await db
+    .select({ n: count() })
+    .from(jobs)
+    .where(and(eq(jobs.shopId, shopId), inArray(jobs.status, ["drafting", "with-client", "cleared", "on-press"])));
+  return { clients: clientCount?.n ?? 0, members: memberCount?.n ?? 0, openJobs: openJobs?.n ?? 0 };
+}
+
+export async function listMembers({ shopId }: { shopId: string }) {
+  return db
+    .select({ id: memberships.id, role: memberships.role, userId: users.id, name: users.name, email: users.email, since: memberships.createdAt })
+    .from(memberships)
+    .innerJoin(users, eq(users.id, memberships.userId))
+    .where(eq(memberships.shopId, shopId))
+    .orderBy(users.name);
+}
+
+export async function listOpenInvitations({ shopId }: { shopId: string }) {
+  return db
+    .select({ id: invitations.id, email: invitations.email, role: invitations.role, expiresAt: invitations.expiresAt, createdAt: invitations.createdAt })
+    .from(invitations)
+    .where(and(eq(invitations.shopId, shopId), isNull(invitations.acceptedAt), gt(invitations.expiresAt, new Date())))
+    .orderBy(invitations.createdAt);
+}
+
+export async function createInvitation(input: {
+  shopId: string;
+  email: string;
+  role: "owner" | "designer" | "production";
+  invitedBy: string;
+}): Promise<{ token: string; invitationId: string }> {
+  const token = randomBytes(32).toString("base64url");
+  const [row] = await db
+    .insert(invitations)
+    .values({
+      shopId: input.shopId,
+      email: normalizeEmail(input.email),
+      role: input.role,
+      invitedBy: input.invitedBy,
+      tokenHash: hashToken(token),
+      expiresAt: new Date(Date.now() + 7 * 24 * 3600 * 1000),
+    })
+    .returning({ id: invitations.id });
+  await recordAudit({
+    shopId: input.shopId,
+    actorUserId: input.invitedBy,
+    action: "member.invited",
+    subjectType: "invitation",
+    subjectId: row!.id,
+    detail: { email: normalizeEmail(input.email), role: input.role },
+  });
+  return { token, invitationId: row!.id };
+}
+
+export async function findInvitation({ token }: { token: string }) {
+  const [row] = await db
+    .select({
+      id: invitations.id,
+      email: invitations.email,
+      role: invitations.role,
+      expiresAt: invitations.expiresAt,
+      acceptedAt: invitations.acceptedAt,
+      shopId: shops.id,
+      shopName: shops.name,
+      shopSlug: shops.slug,
+    })
+    .from(invitations)
+    .innerJoin(shops, eq(shops.id, invitations.shopId))
+    .where(eq(invitations.tokenHash, hashToken(token)))
+    .limit(1);
+  return row;
+}
+
+/** Accepts an invitation: creates the user when needed and adds the membership. */
+export async function acceptInvitation(input: {
+  token: string;
+  name?: string;
+  passwordHash?: string;
+}): Promise<{ ok: true; shopSlug: string; email: string } | { ok: false; message: string }> {
+  const invite = await findInvitation({ token: input.token });
+  if (!invite) return { ok: false, message: "This invitation link is not valid." };
+  if (invite.acceptedAt) return { ok: false, message: "This invitation has already been used." };
+  if (invite.expiresAt < new Date()) return { ok: false, message: "This invitation has expired. Ask the shop owner for a new one." };
+  return db.transaction(async (tx) => {
+    let [user] = await tx.select({ id: users.id }).from(users).where(eq(users.email, invite.email)).limit(1);
+    if (!user) {
+      if (!input.passwordHash || !input.name) return { ok: false as const, message: "Choose a name and a password to join." };
+      [user] = await tx
+        .insert(users)
+        .values({ email: invite.email, name: input.name, passwordHash: input.passwordHash, emailVerified: new Date() })
+        .returning({ id: users.id });
+    }
+    await tx
+      .insert(memberships)
+      .values({ shopId: invite.shopId, userId: user!.id, role: invite.role })
+      .onConflictDoUpdate({ target: [memberships.shopId, memberships.userId], set: { role: invite.role } });
+    await tx.update(invitations).set({ acceptedAt: new Date() }).where(eq(invitations.id, invite.id));
+    await recordAudit(
+      { shopId: invite.shopId, actorUserId: user!.id, action: "member.joined", subjectType: "invitation", subjectId: invite.id, detail: { role: invite.role } },
+      tx,
+    );
+    return { ok: true as const, shopSlug: invite.shopSlug, email: invite.email };
+  });
+}

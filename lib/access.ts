@@ -1,0 +1,76 @@
+/**
+ * Who may do what. Pure data and functions: the server resolves the actor and asks here.
+ * A shop member has one role per shop; a client contact acts as "client" and sees only their own jobs.
+ */
+export const SHOP_ROLES = ["owner", "designer", "production"] as const;
+export type ShopRole = (typeof SHOP_ROLES)[number];
+export type ActorRole = ShopRole | "client";
+
+export const PERMISSIONS = [
+  "shop.view",
+  "shop.settings",
+  "members.invite",
+  "clients.view",
+  "clients.edit",
+  "jobs.view",
+  "jobs.edit",
+  "proofs.edit",
+  "blanks.view",
+  "blanks.edit",
+  "production.view",
+  "prices.view",
+  "prices.edit",
+  "audit.view",
+] as const;
+export type Permission = (typeof PERMISSIONS)[number];
+
+const GRANTS: Record<ActorRole, readonly Permission[]> = {
+  owner: PERMISSIONS,
+  designer: [
+    "shop.view",
+    "clients.view",
+    "clients.edit",
+    "jobs.view",
+    "jobs.edit",
+    "proofs.edit",
+    "blanks.view",
+    "blanks.edit",
+    "production.view",
+    "prices.view",
+  ],
+  production: ["shop.view", "jobs.view", "blanks.view", "production.view"],
+  // Clients never hold shop permissions; their own jobs are checked by ownership, not by role.
+  client: [],
+};
+
+export function can(role: ActorRole, permission: Permission): boolean {
+  return GRANTS[role].includes(permission);
+}
+
+export const ROLE_LABELS: Record<ActorRole, string> = {
+  owner: "Owner",
+  designer: "Designer",
+  production: "Production",
+  client: "Client",
+};
+
+export const ROLE_DESCRIPTIONS: Record<ShopRole, string> = {
+  owner: "Runs the shop: prices, members, settings and everything else.",
+  designer: "Builds proofs, places art and talks with clients. Sees prices, cannot change them.",
+  production: "Sees jobs, quantities and production specs. No prices.",
+};
+
+export type NavItem = { key: string; label: string; href: string };
+
+/** Navigation for a shop member, built from the same permission table the server enforces. */
+export function shopNav(role: ShopRole, shopSlug: string): NavItem[] {
+  const base = `/shops/${shopSlug}`;
+  const items: Array<NavItem & { needs: Permission }> = [
+    { key: "overview", label: "Overview", href: base, needs: "shop.view" },
+    { key: "jobs", label: "Jobs", href: `${base}/jobs`, needs: "jobs.view" },
+    { key: "clients", label: "Clients", href: `${base}/clients`, needs: "clients.view" },
+    { key: "blanks", label: "Blanks", href: `${base}/blanks`, needs: "blanks.view" },
+    { key: "settings", label: "Shop settings", href: `${base}/settings`, needs: "shop.settings" },
+  ];
+  return items.filter((item) => can(role, item.needs)).map(({ key, label, href }) => ({ key, label, href }));
+}

@@ -1,0 +1,21 @@
+/** Labels for job states and decoration methods. The state names are our own. */
+export const JOB_STATUS_LABELS = {
+  drafting: "Drafting",
+  "with-client": "With client",
+  cleared: "Cleared to print",
+  "on-press": "On press",
+  packed: "Packed",
+  collected: "Collected",
+} as const;
+
+export type JobStatus = keyof typeof JOB_STATUS_LABELS;
+
+export const DECORATION_LABELS = {
+  "screen-print": "Screen print",
+  dtf: "DTF",
+  dtg: "DTG",
+  htv: "HTV",
+  sublimation: "Sublimation",
+} as const;
+
+export type DecorationMethod = keyof typeof DECORATION_LABELS;

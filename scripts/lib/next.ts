@@ -1,0 +1,72 @@
+import { spawn, type ChildProcess } from "node:child_process";
+import { existsSync, readdirSync, statSync } from "node:fs";
+import path from "node:path";
+import { repoRoot, run, sleep } from "./proc";
+
+const NEXT_BIN = path.join(repoRoot, "node_modules", "next", "dist", "bin", "next");
+const SOURCES = ["app", "components", "canvas", "db", "lib", "public", "fonts", "next.config.ts", "tailwind.config.ts", "postcss.config.mjs", "package-lock.json", "tsconfig.json"];
+
+function newestMtime(entry: string): number {
+  const full = path.join(repoRoot, entry);
+  if (!existsSync(full)) return 0;
+  const stat = statSync(full);
+  if (!stat.isDirectory()) return stat.mtimeMs;
+  let newest = stat.mtimeMs;
+  for (const child of readdirSync(full)) newest = Math.max(newest, newestMtime(path.join(entry, child)));
+  return newest;
+}
+
+/** True when .next holds a production build newer than every source file. */
+export function buildIsFresh(): boolean {
+  const buildId = path.join(repoRoot, ".next", "BUILD_ID");
+  if (!existsSync(buildId)) return false;
+  const built = statSync(buildId).mtimeMs;
+  return SOURCES.every((entry) => newestMtime(entry) <= built);
+}
+
+export async function buildApp(env: Record<string, string>, log: (line: string) => void): Promise<void> {
+  log("building the app (next build)…");
+  await run(process.execPath, [NEXT_BIN, "build"], {
+    cwd: repoRoot,
+    env: { ...process.env, ...env, NEXT_TELEMETRY_DISABLED: "1" },
+    onLine: (line) => log(`  ${line}`),
+  });
+}
+
+export function startNext(opts: { dev: boolean; port: number; env: Record<string, string>; quiet?: boolean }): ChildProcess {
+  const args = [NEXT_BIN, opts.dev ? "dev" : "start", "-p", String(opts.port), "-H", process.env.HOST ?? "127.0.0.1"];
+  return spawn(process.execPath, args, {
+    cwd: repoRoot,
+    env: { ...process.env, ...opts.env, NEXT_TELEMETRY_DISABLED: "1" },
+    stdio: opts.quiet ? ["ignore", "ignore", "inherit"] : "inherit",
+  });
+}
+
+export async function waitForHealth(url: string, timeoutMs: number, child?: ChildProcess): Promise<void> {
+  const deadline = Date.now() + timeoutMs;
+  while (Date.now() < deadline) {
+    if (child && child.exitCode !== null) throw new Error(`the app exited with code ${child.exitCode} before it was ready`);
+    try {
+      const response = await fetch(`${url}/api/health`);
+      if (response.ok) return;
+    } catch {
+      // not listening yet
+    }
+    await sleep(500);
+  }
+  throw new Error(`the app did not answer ${url}/api/health within ${Math.round(timeoutMs / 1000)} s`);
+}
+
+export async function stopChild(child: ChildProcess): Promise<void> {
+  if (child.exitCode !== null || child.signalCode !== null) return;
+  await new Promise<void>((resolve) => {
+    const timer = setTimeout(() => {
+      child.kill("SIGKILL");
+    }, 8_000);
+    child.once("exit", () => {
+      clearTimeout(timer);
+      resolve();
+    });
+    child.kill("SIGTERM");
+  });
+}

@@ -1,0 +1,104 @@
+/**
+ * Brings up what the app needs on this machine: PostgreSQL on loopback, migrations, demo data,
+ * and the local fakes of hosted services. Used by `npm start`, `npm run dev` and `npm test`.
+ */
+import { randomBytes } from "node:crypto";
+import { existsSync, mkdirSync, readFileSync, writeFileSync } from "node:fs";
+import path from "node:path";
+import { DEV_DB, ensurePostgres, migrate, stopPostgres, TEST_DB } from "../db";
+import { DEV_MAIL, startSmtpFake, TEST_MAIL } from "../fakes/smtp";
+import { runSeed } from "../seed";
+import { repoRoot } from "./proc";
+
+export type StackMode = "dev" | "test";
+
+export type Stack = {
+  env: Record<string, string>;
+  databaseUrl: string;
+  shutdown: () => Promise<void>;
+};
+
+function log(line: string) {
+  console.log(`[chalkline] ${line}`);
+}
+
+/** AUTH_SECRET: taken from the environment, or generated once into .data/ (never committed). */
+export function authSecret(): string {
+  if (process.env.AUTH_SECRET) return process.env.AUTH_SECRET;
+  const dir = path.join(repoRoot, ".data");
+  mkdirSync(dir, { recursive: true, mode: 0o755 });
+  const file = path.join(dir, "auth-secret");
+  if (existsSync(file)) return readFileSync(file, "utf8").trim();
+  const secret = randomBytes(32).toString("base64url");
+  writeFileSync(file, `${secret}\n`, { mode: 0o600 });
+  return secret;
+}
+
+export async function bringUpStack({ mode, port }: { mode: StackMode; port: number }): Promise<Stack> {
+  const closers: Array<() => Promise<void>> = [];
+  const target = mode === "test" ? TEST_DB : DEV_DB;
+  const dbLog = (line: string) => log(`db: ${line}`);
+
+  const external = mode === "test" ? process.env.TEST_DATABASE_URL : process.env.DATABASE_URL;
+  const pg = await ensurePostgres({
+    ...target,
+    fast: mode === "test",
+    log: dbLog,
+    envVar: mode === "test" ? "TEST_DATABASE_URL" : "DATABASE_URL",
+  });
+  if (pg.startedHere) closers.push(async () => void (await stopPostgres({ dataDir: target.dataDir, log: dbLog })));
+  if (external) log("using the database server from the environment; none started");
+
+  if (mode === "test") await resetDatabase(pg.url);
+  const migrated = await migrate(pg.url);
+  log(`migrations: ${migrated.applied} applied, ${migrated.total} in all`);
+  const seeded = await runSeed(pg.url);
+  log(seeded.seeded ? "demo data seeded into the empty database" : "database already has data; demo seed skipped");
+
+  const baseUrl = `http://localhost:${port}`;
+  const env: Record<string, string> = {
+    DATABASE_URL: pg.url,
+    NEXTAUTH_URL: process.env.NEXTAUTH_URL ?? baseUrl,
+    APP_URL: process.env.APP_URL ?? baseUrl,
+    NEXTAUTH_SECRET: authSecret(),
+    AUTH_SECRET: authSecret(),
+    PORT: String(port),
+  };
+
+  if (process.env.SMTP_URL) {
+    log("e-mail: sending through SMTP_URL");
+  } else {
+    const mail = mode === "test" ? TEST_MAIL : DEV_MAIL;
+    const fake = await startSmtpFake({ ...mail, log: (line) => log(`mail: ${line}`) });
+    closers.push(() => fake.close());
+    env.MAIL_FAKE_SMTP_PORT = String(mail.smtpPort);
+    env.MAIL_FAKE_API = `http://127.0.0.1:${mail.httpPort}`;
+    log(`e-mail: local catcher on 127.0.0.1:${mail.smtpPort}; read it at ${baseUrl}/dev/mailbox`);
+  }
+
+  return {
+    env,
+    databaseUrl: pg.url,
+    shutdown: async () => {
+      for (const close of closers.reverse()) {
+        try {
+          await close();
+        } catch (error) {
+          log(`shutdown: ${error instanceof Error ? error.message : String(error)}`);
+        }
+      }
+    },
+  };
+}
+
+/** Test runs start from an empty schema, so every run sees the same demo data. */
+async function resetDatabase(url: string): Promise<void> {
+  const { Client } = await import("pg");
+  const client = new Client({ connectionString: url });
+  await client.connect();
+  try {
+    await client.query("drop schema if exists public cascade; drop schema if exists drizzle cascade; create schema public;");
+  } finally {
+    await client.end();
+  }
+}

@@ -1,0 +1,92 @@
+/**
+ * `npm test`: its own PostgreSQL database and fakes, vitest unit + component + integration tests,
+ * a production build, then end-to-end tests in Debian's Chromium against that build. Stops what it started.
+ */
+import { existsSync, mkdirSync, readFileSync, rmSync } from "node:fs";
+import path from "node:path";
+import { buildApp, startNext, stopChild, waitForHealth } from "./lib/next";
+import { isRoot, repoRoot, run } from "./lib/proc";
+import { bringUpStack } from "./lib/stack";
+
+const log = (line: string) => console.log(`[test] ${line}`);
+const PORT = Number(process.env.TEST_PORT ?? 3100);
+const CHROMIUM = process.env.CHROMIUM_PATH ?? "/usr/bin/chromium";
+const reportDir = path.join(repoRoot, ".data", "test-reports");
+const only = process.argv.slice(2).filter((a) => !a.startsWith("-"));
+const skipE2e = process.argv.includes("--no-e2e");
+
+type Totals = { passed: number; failed: number; skipped: number };
+const totals: Totals = { passed: 0, failed: 0, skipped: 0 };
+
+async function ensureChromium(): Promise<void> {
+  if (existsSync(CHROMIUM)) return;
+  if (!isRoot()) {
+    throw new Error(`Chromium is missing at ${CHROMIUM}. Install it with: sudo apt-get install -y chromium`);
+  }
+  log("installing Debian's chromium for the end-to-end tests…");
+  await run("apt-get", ["update"], { onLine: () => {} });
+  await run("apt-get", ["install", "-y", "--no-install-recommends", "chromium", "fonts-liberation"], {
+    env: { ...process.env, DEBIAN_FRONTEND: "noninteractive" },
+    onLine: () => {},
+  });
+}
+
+async function vitest(projects: string[], env: Record<string, string>, label: string): Promise<boolean> {
+  const out = path.join(reportDir, `${label}.json`);
+  rmSync(out, { force: true });
+  const args = [
+    path.join(repoRoot, "node_modules", "vitest", "vitest.mjs"),
+    "run",
+    ...projects.flatMap((p) => ["--project", p]),
+    "--passWithNoTests",
+    "--reporter=default",
+    "--reporter=json",
+    `--outputFile.json=${out}`,
+    ...only,
+  ];
+  const result = await run(process.execPath, args, {
+    cwd: repoRoot,
+    env: { ...process.env, ...env },
+    allowFailure: true,
+    onLine: (line) => console.log(line),
+  });
+  if (existsSync(out)) {
+    const report = JSON.parse(readFileSync(out, "utf8")) as { numPassedTests: number; numFailedTests: number; numPendingTests: number; numTodoTests: number };
+    totals.passed += report.numPassedTests;
+    totals.failed += report.numFailedTests;
+    totals.skipped += report.numPendingTests + report.numTodoTests;
+  } else if (result.code !== 0) {
+    totals.failed += 1;
+  }
+  return result.code === 0;
+}
+
+mkdirSync(reportDir, { recursive: true });
+let ok = true;
+const stack = await bringUpStack({ mode: "test", port: PORT });
+let app: ReturnType<typeof startNext> | undefined;
+try {
+  const testEnv = { ...stack.env, CHALKLINE_TEST: "1" };
+  log("unit, component and integration tests");
+  ok = (await vitest(["unit", "component", "integration"], testEnv, "vitest")) && ok;
+
+  if (!skipE2e) {
+    await ensureChromium();
+    await buildApp(testEnv, log);
+    app = startNext({ dev: false, port: PORT, env: testEnv, quiet: true });
+    await waitForHealth(`http://localhost:${PORT}`, 90_000, app);
+    log(`end-to-end tests in ${CHROMIUM} against http://localhost:${PORT}`);
+    ok = (await vitest(["e2e"], { ...testEnv, E2E_BASE_URL: `http://localhost:${PORT}`, CHROMIUM_PATH: CHROMIUM }, "e2e")) && ok;
+  }
+} catch (error) {
+  ok = false;
+  totals.failed += 1;
+  console.error(`[test] ${error instanceof Error ? error.message : String(error)}`);
+} finally {
+  if (app) await stopChild(app);
+  await stack.shutdown();
+}
+
+console.log(`\nAll suites: ${totals.passed} passed, ${totals.failed} failed${totals.skipped ? `, ${totals.skipped} skipped` : ""}`);
+console.log(`${totals.passed} passed, ${totals.failed} failed`);
+process.exit(ok && totals.failed === 0 ? 0 : 1);

@@ -1,0 +1,59 @@
+import { chromium, type Browser, type BrowserContext, type Page } from "playwright-core";
+import { expect } from "vitest";
+
+export const BASE_URL = process.env.E2E_BASE_URL ?? "http://localhost:3100";
+export const MAIL_API = process.env.MAIL_FAKE_API ?? "http://127.0.0.1:2590";
+export const DEMO_PASSWORD = "chalkline-demo";
+export const DEMO_SHOP = "quarry-street";
+
+export async function launch(): Promise<Browser> {
+  return chromium.launch({
+    executablePath: process.env.CHROMIUM_PATH ?? "/usr/bin/chromium",
+    headless: true,
+    args: [
+      "--headless",
+      "--no-sandbox",
+      "--disable-gpu",
+      "--disable-background-networking",
+      "--disable-component-update",
+      "--disable-sync",
+      "--disable-quic",
+      "--no-first-run",
+    ],
+  });
+}
+
+export async function newContext(browser: Browser, options: Parameters<Browser["newContext"]>[0] = {}): Promise<BrowserContext> {
+  const context = await browser.newContext({ baseURL: BASE_URL, ...options });
+  context.setDefaultTimeout(20_000);
+  return context;
+}
+
+export async function signIn(page: Page, email: string, password = DEMO_PASSWORD): Promise<void> {
+  await page.goto("/sign-in");
+  await page.getByLabel("E-mail").fill(email);
+  await page.getByLabel("Password").fill(password);
+  await page.getByRole("button", { name: "Sign in", exact: true }).click();
+  await page.waitForURL((url) => !url.pathname.startsWith("/sign-in"));
+}
+
+export type CaughtMail = { id: string; to: string[]; subject: string; text: string; html: string | null; date: string };
+
+/** Waits for the newest message to an address whose subject matches, from the local mail catcher. */
+export async function waitForMail(to: string, subject: RegExp, since = 0, timeoutMs = 15_000): Promise<CaughtMail> {
+  const deadline = Date.now() + timeoutMs;
+  while (Date.now() < deadline) {
+    const response = await fetch(`${MAIL_API}/messages?to=${encodeURIComponent(to)}`);
+    const messages = (await response.json()) as CaughtMail[];
+    const match = messages.find((m) => subject.test(m.subject) && Date.parse(m.date) >= since);
+    if (match) return match;
+    await new Promise((resolve) => setTimeout(resolve, 300));
+  }
+  throw new Error(`no e-mail to ${to} matching ${subject} within ${timeoutMs} ms`);
+}
+
+export function firstLink(text: string, pathPart: string): string {
+  const link = text.match(/https?:\/\/\S+/g)?.find((url) => url.includes(pathPart));
+  expect(link, `a link containing ${pathPart}`).toBeTruthy();
+  return link!;
+}

@@ -1,0 +1,2 @@
+// Stand-in for the `server-only` marker package when server modules are imported by Node tests.
+export {};
