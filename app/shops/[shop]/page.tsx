@@ -19,7 +19,7 @@ export default async function ShopOverviewPage({ params }: { params: Promise<{ s
   const firstName = access.actor.name?.split(" ")[0];
   return (
     <>
-      <PageHeader title={firstName ? `Good to see you, ${firstName}` : "Overview"} lead={`Here is what is moving at ${access.shop.name}.`} />
+      <PageHeader title={firstName ? `Good to see you, ${firstName}` : "Overview"} lead={`Here is what is moving at ${access.shop.name.replace(/\.$/, "")}.`} />
       <section className="grid gap-4 sm:grid-cols-3" aria-label="Shop at a glance">
         <Stat label="Active clients" value={overview.clients} href={can(access.role, "clients.view") ? `/shops/${shop}/clients` : undefined} />
         <Stat label="People on the team" value={overview.members} href={can(access.role, "shop.settings") ? `/shops/${shop}/settings` : undefined} />
