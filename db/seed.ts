@@ -5,6 +5,8 @@
 import bcrypt from "bcryptjs";
 import { count } from "drizzle-orm";
 import type { NodePgDatabase } from "drizzle-orm/node-postgres";
+import { DEMO_ART } from "@/lib/demo-art";
+import { ensureLibraryBlanks, libraryBlankId } from "./library";
 import * as schema from "./schema";
 
 export const DEMO_PASSWORD = "chalkline-demo";
@@ -26,6 +28,7 @@ export async function isEmpty(db: Db): Promise<boolean> {
 }
 
 export async function seedDemo(db: Db): Promise<{ seeded: boolean }> {
+  await ensureLibraryBlanks(db);
   if (!(await isEmpty(db))) return { seeded: false };
   const passwordHash = await bcrypt.hash(DEMO_PASSWORD, 10);
   await db.transaction(async (tx) => {
@@ -64,10 +67,35 @@ export async function seedDemo(db: Db): Promise<{ seeded: boolean }> {
       { clientId: robotics!.id, name: "Ilse Moreau", email: "coach@northgate-robotics.test" },
     ]);
 
-    await tx.insert(schema.jobs).values([
-      { shopId, clientId: soccer!.id, title: "Spring season team tees", status: "drafting", method: "screen-print", dueDate: "2027-03-12", createdBy: userIds["designer@chalkline.test"] },
-      { shopId, clientId: bakery!.id, title: "Market stall totes", status: "with-client", method: "dtf", dueDate: "2027-02-20", createdBy: userIds["owner@chalkline.test"] },
-      { shopId, clientId: robotics!.id, title: "Competition hoodies", status: "cleared", method: "dtf", dueDate: "2027-01-30", createdBy: userIds["owner@chalkline.test"] },
+    const [teesJob, totesJob, hoodiesJob] = await tx
+      .insert(schema.jobs)
+      .values([
+        { shopId, clientId: soccer!.id, title: "Spring season team tees", status: "drafting", method: "screen-print", dueDate: "2027-03-12", createdBy: userIds["designer@chalkline.test"] },
+        { shopId, clientId: bakery!.id, title: "Market stall totes", status: "with-client", method: "dtf", dueDate: "2027-02-20", createdBy: userIds["owner@chalkline.test"] },
+        { shopId, clientId: robotics!.id, title: "Competition hoodies", status: "drafting", method: "dtf", dueDate: "2027-01-30", createdBy: userIds["owner@chalkline.test"] },
+      ])
+      .returning({ id: schema.jobs.id });
+
+    const clientOf: Record<string, string> = { "eastfield-emblem": soccer!.id, "larkspur-wordmark": bakery!.id, "northgate-badge": robotics!.id };
+    const art = await tx
+      .insert(schema.artworks)
+      .values(DEMO_ART.map((a) => ({ shopId, clientId: clientOf[a.key] ?? null, name: a.name, kind: "generated" as const, svg: a.svg, inkWidthPx: a.widthPx, inkHeightPx: a.heightPx })))
+      .returning({ id: schema.artworks.id, name: schema.artworks.name });
+    const artId = (name: string) => art.find((a) => a.name === name)!.id;
+
+    const [teeProof, toteProof, hoodieProof] = await tx
+      .insert(schema.proofs)
+      .values([
+        { shopId, jobId: teesJob!.id, name: "Team tee", blankId: libraryBlankId("everyday-crew-tee"), colourName: "Deep Harbor", colourHex: "#243247", size: "M", updatedBy: userIds["designer@chalkline.test"] },
+        { shopId, jobId: totesJob!.id, name: "Market tote", blankId: libraryBlankId("market-canvas-tote"), colourName: "Raw Canvas", colourHex: "#E8DDC7", size: "One size", updatedBy: userIds["owner@chalkline.test"] },
+        { shopId, jobId: hoodiesJob!.id, name: "Team hoodie", blankId: libraryBlankId("campfire-pullover-hoodie"), colourName: "Carbon", colourHex: "#1F2023", size: "L", updatedBy: userIds["owner@chalkline.test"] },
+      ])
+      .returning({ id: schema.proofs.id });
+
+    await tx.insert(schema.placements).values([
+      { id: "demo-tee-front", proofId: teeProof!.id, location: "full-front", artworkId: artId("Eastfield club emblem"), widthIn: 10, heightIn: 10, offsetFromCenterIn: 0, belowCollarIn: 3, rotationDeg: 0, sortOrder: 0 },
+      { id: "demo-tote-front", proofId: toteProof!.id, location: "tote-front", artworkId: artId("Larkspur Lane wordmark"), widthIn: 10, heightIn: 10 / 3, offsetFromCenterIn: 0, belowCollarIn: 5, rotationDeg: 0, sortOrder: 0 },
+      { id: "demo-hoodie-front", proofId: hoodieProof!.id, location: "full-front", artworkId: artId("Northgate robotics badge"), widthIn: 9, heightIn: 12, offsetFromCenterIn: 0, belowCollarIn: 3, rotationDeg: 0, sortOrder: 0 },
     ]);
 
     await tx.insert(schema.auditLog).values({ shopId, actorUserId: userIds["owner@chalkline.test"], action: "shop.created", subjectType: "shop", subjectId: shopId });

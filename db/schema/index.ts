@@ -3,3 +3,5 @@ export * from "./shops";
 export * from "./clients";
 export * from "./audit";
 export * from "./jobs";
+export * from "./blanks";
+export * from "./proofs";

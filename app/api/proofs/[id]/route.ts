@@ -1,0 +1,27 @@
+import { NextResponse } from "next/server";
+import { z } from "zod";
+import { getActor } from "@/app/_server/access";
+import { findProofShop, getProofDocument } from "@/db/queries/proofs";
+import { can } from "@/lib/access";
+import { proofToJson } from "@/lib/editor/proof-view";
+
+export const dynamic = "force-dynamic";
+
+const idSchema = z.string().min(1).max(80);
+const notFound = () => NextResponse.json({ error: "Not found." }, { status: 404 });
+
+/** A proof with garment, size, version and placements (each with computed warnings). */
+export async function GET(_request: Request, { params }: { params: Promise<{ id: string }> }) {
+  const parsed = idSchema.safeParse((await params).id);
+  if (!parsed.success) return notFound();
+  const actor = await getActor();
+  if (!actor) return NextResponse.json({ error: "Sign in to continue." }, { status: 401 });
+  const owner = await findProofShop({ proofId: parsed.data });
+  if (!owner) return notFound();
+  const membership = actor.memberships.find((m) => m.shopId === owner.shopId);
+  const isOwnClient = actor.contacts.some((c) => c.shopId === owner.shopId && c.clientId === owner.clientId);
+  if (!(membership && can(membership.role, "jobs.view")) && !isOwnClient) return notFound();
+  const document = await getProofDocument({ shopId: owner.shopId, proofId: parsed.data });
+  if (!document) return notFound();
+  return NextResponse.json(proofToJson(document), { headers: { "Cache-Control": "no-store" } });
+}

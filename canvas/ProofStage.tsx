@@ -1,0 +1,317 @@
+"use client";
+
+import type Konva from "konva";
+import { useEffect, useMemo, useRef } from "react";
+import { Group, Image as KonvaImage, Layer, Line, Rect, Stage, Text, Transformer } from "react-konva";
+import type { LocationSpec } from "@/lib/garments/locations";
+import type { Point } from "@/lib/garments/types";
+import type { Silhouette } from "@/lib/garments/silhouette";
+import type { Placement } from "@/lib/placement/model";
+import { rulerTicks, rulerTicksCm, scaleOf, snapArtPosition, toStage, type View } from "@/lib/editor/view";
+import type { LengthUnit } from "@/lib/units";
+import { inkOn, shade } from "./colour";
+
+export type ArtImage = { id: string; image: HTMLImageElement | null };
+
+export type PlacementCommit = Partial<Pick<Placement, "widthIn" | "heightIn" | "offsetFromCenterIn" | "belowCollarIn" | "rotationDeg">>;
+
+type Props = {
+  width: number;
+  height: number;
+  view: View;
+  silhouette: Silhouette;
+  colourHex: string;
+  specs: LocationSpec[];
+  placements: Placement[];
+  images: Record<string, HTMLImageElement | undefined>;
+  selectedId: string | null;
+  unit: LengthUnit;
+  editable: boolean;
+  keepAspect: boolean;
+  onSelect: (id: string | null) => void;
+  onCommit: (id: string, patch: PlacementCommit) => void;
+  onPan: (dx: number, dy: number) => void;
+  onLiveChange?: (id: string, patch: PlacementCommit) => void;
+};
+
+export const RULER_PX = 26;
+const SNAP_PX = 8;
+
+function flat(points: readonly Point[], view: View): number[] {
+  const out: number[] = [];
+  for (const p of points) {
+    const s = toStage(view, p);
+    out.push(s.x, s.y);
+  }
+  return out;
+}
+
+/** The garment at true scale, its guides, the art, and rulers. A projection of the placement model. */
+export default function ProofStage(props: Props) {
+  const { view, silhouette, colourHex, width, height } = props;
+  const s = scaleOf(view);
+  const ink = inkOn(colourHex);
+  const transformer = useRef<Konva.Transformer>(null);
+  const nodes = useRef<Record<string, Konva.Image | null>>({});
+  const panning = useRef<{ x: number; y: number } | null>(null);
+
+  useEffect(() => {
+    const tr = transformer.current;
+    if (!tr) return;
+    const node = props.selectedId ? nodes.current[props.selectedId] : null;
+    tr.nodes(node && props.editable ? [node] : []);
+    tr.getLayer()?.batchDraw();
+  }, [props.selectedId, props.editable, props.placements, view]);
+
+  const garment = useMemo(() => {
+    const body = flat(silhouette.outline, view);
+    const neck = flat(silhouette.neckline, view);
+    return {
+      body,
+      neck,
+      hood: silhouette.hood ? flat(silhouette.hood, view) : null,
+      pocket: silhouette.pocket ? flat(silhouette.pocket, view) : null,
+      sleeves: (silhouette.sleeves ?? []).map((p) => flat(p, view)),
+      handles: (silhouette.handles ?? []).map((p) => flat(p, view)),
+      rightEdge: flat(silhouette.bodyEdge, view),
+      leftEdge: flat(silhouette.bodyEdge.map((p) => ({ x: -p.x, y: p.y })), view),
+    };
+  }, [silhouette, view]);
+
+  const top = toStage(view, { x: 0, y: silhouette.hps.left.y - (silhouette.hood && silhouette.hoodLayer === "behind" ? 12 : 2) });
+  const bottom = toStage(view, { x: 0, y: silhouette.hemY + 2 });
+  const bodyBottomY = silhouette.lowerBoundaryY;
+
+  const collarLines: number[] = [];
+  for (let inch = 1; inch <= Math.min(16, Math.floor(bodyBottomY)); inch += 1) collarLines.push(inch);
+
+  function commitNode(id: string, node: Konva.Image) {
+    const scaleX = node.scaleX();
+    const scaleY = node.scaleY();
+    const widthPx = node.width() * scaleX;
+    const heightPx = node.height() * scaleY;
+    node.scaleX(1);
+    node.scaleY(1);
+    node.width(widthPx);
+    node.height(heightPx);
+    node.offsetX(widthPx / 2);
+    node.offsetY(heightPx / 2);
+    const widthIn = widthPx / s;
+    const heightIn = heightPx / s;
+    const centreX = (node.x() - view.originX) / s;
+    const centreY = (node.y() - view.originY) / s;
+    props.onCommit(id, {
+      widthIn,
+      heightIn,
+      offsetFromCenterIn: centreX,
+      belowCollarIn: centreY - heightIn / 2,
+      rotationDeg: Math.round(node.rotation() * 100) / 100,
+    });
+  }
+
+  return (
+    <Stage
+      width={width}
+      height={height}
+      onMouseDown={(e) => {
+        const target = e.target;
+        const onArt = target.getClassName() === "Image" || target.getParent()?.getClassName() === "Transformer";
+        if (!onArt) {
+          props.onSelect(null);
+          const pos = e.target.getStage()?.getPointerPosition();
+          if (pos) panning.current = pos;
+        }
+      }}
+      onMouseMove={(e) => {
+        if (!panning.current) return;
+        const pos = e.target.getStage()?.getPointerPosition();
+        if (!pos) return;
+        props.onPan(pos.x - panning.current.x, pos.y - panning.current.y);
+        panning.current = pos;
+      }}
+      onMouseUp={() => (panning.current = null)}
+      onMouseLeave={() => (panning.current = null)}
+      onWheel={(e) => {
+        e.evt.preventDefault();
+        props.onPan(-e.evt.deltaX, -e.evt.deltaY);
+      }}
+    >
+      <Layer listening={false}>
+        <Rect x={0} y={0} width={width} height={height} fill="#ece6d9" />
+        {garment.handles.slice(1).map((h, i) => (
+          <Line key={`hb${i}`} points={h} closed fill={shade(colourHex, -0.12)} stroke={ink.seam} strokeWidth={1} />
+        ))}
+        {garment.hood && silhouette.hoodLayer === "behind" ? (
+          <Line points={garment.hood} closed fill={shade(colourHex, -0.1)} stroke={ink.seam} strokeWidth={1.2} />
+        ) : null}
+        <Line points={garment.body} closed fill={colourHex} stroke={ink.seam} strokeWidth={1.5} shadowColor="#181a1e" shadowBlur={18} shadowOpacity={0.18} shadowOffsetY={6} />
+        {garment.sleeves.map((sl, i) => (
+          <Line key={`sl${i}`} points={sl} closed stroke={ink.seam} strokeWidth={1} dash={[4, 3]} />
+        ))}
+        {garment.neck.length ? <Line points={garment.neck} stroke={ink.seam} strokeWidth={2.5} lineCap="round" /> : null}
+        {garment.pocket ? <Line points={garment.pocket} closed stroke={ink.seam} strokeWidth={1.2} dash={[5, 3]} /> : null}
+        {garment.hood && silhouette.hoodLayer === "over" ? (
+          <Line points={garment.hood} closed fill={shade(colourHex, 0.05)} stroke={ink.seam} strokeWidth={1.2} />
+        ) : null}
+        {garment.handles.slice(0, 1).map((h, i) => (
+          <Line key={`hf${i}`} points={h} closed fill={shade(colourHex, -0.05)} stroke={ink.seam} strokeWidth={1} />
+        ))}
+      </Layer>
+
+      <Layer listening={false}>
+        {/* Side seams and armhole seams: art must keep clear of these. */}
+        <Line points={garment.rightEdge} stroke="#b7791f" strokeWidth={2} opacity={0.9} />
+        <Line points={garment.leftEdge} stroke="#b7791f" strokeWidth={2} opacity={0.9} />
+        {/* Center line. */}
+        <Line points={[top.x, top.y, bottom.x, bottom.y]} stroke={ink.guide} strokeWidth={1} dash={[6, 4]} opacity={0.8} />
+        {/* Whole inches below the collar, across the center. */}
+        {silhouette.neckline.length
+          ? collarLines.map((inch) => {
+              const a = toStage(view, { x: -1.5, y: inch });
+              const b = toStage(view, { x: 1.5, y: inch });
+              return (
+                <Group key={`c${inch}`}>
+                  <Line points={[a.x, a.y, b.x, b.y]} stroke={ink.guide} strokeWidth={1} opacity={0.55} />
+                  {s >= 10 ? <Text x={b.x + 4} y={b.y - 6} text={`${inch}″`} fontSize={10} fill={ink.label} opacity={0.8} /> : null}
+                </Group>
+              );
+            })
+          : null}
+        {props.specs.map((spec) => {
+          const a = toStage(view, { x: spec.printArea.x, y: spec.printArea.y });
+          const area = spec.printArea;
+          const centre = toStage(view, { x: area.x + area.width / 2, y: area.y + area.height / 2 });
+          return (
+            <Group key={spec.location} x={centre.x} y={centre.y} rotation={spec.axisRotationDeg}>
+              <Rect
+                x={-(area.width * s) / 2}
+                y={-(area.height * s) / 2}
+                width={area.width * s}
+                height={area.height * s}
+                stroke={ink.guide}
+                strokeWidth={1.5}
+                dash={[8, 5]}
+              />
+              <Text x={-(area.width * s) / 2} y={-(area.height * s) / 2 - 14} text={`${spec.label} print area`} fontSize={11} fill={ink.label} visible={a.y > RULER_PX} />
+            </Group>
+          );
+        })}
+      </Layer>
+
+      <Layer>
+        {props.placements.map((p) => {
+          const centre = toStage(view, { x: p.offsetFromCenterIn, y: p.belowCollarIn + p.heightIn / 2 });
+          const w = p.widthIn * s;
+          const h = p.heightIn * s;
+          return (
+            <KonvaImage
+              key={p.id}
+              name="art"
+              id={`art-${p.id}`}
+              ref={(node) => {
+                nodes.current[p.id] = node;
+              }}
+              image={props.images[p.artworkId ?? ""]}
+              x={centre.x}
+              y={centre.y}
+              width={w}
+              height={h}
+              offsetX={w / 2}
+              offsetY={h / 2}
+              rotation={p.rotationDeg}
+              draggable={props.editable}
+              stroke={props.images[p.artworkId ?? ""] ? undefined : ink.guide}
+              strokeWidth={1}
+              onMouseDown={() => props.onSelect(p.id)}
+              onTap={() => props.onSelect(p.id)}
+              dragBoundFunc={(pos) => {
+                const snapped = snapArtPosition({
+                  centreXIn: (pos.x - view.originX) / s,
+                  topIn: (pos.y - view.originY) / s - p.heightIn / 2,
+                  snapPx: SNAP_PX,
+                  scale: s,
+                  snapToCentre: true,
+                });
+                return {
+                  x: view.originX + snapped.offsetFromCenterIn * s,
+                  y: view.originY + (snapped.belowCollarIn + p.heightIn / 2) * s,
+                };
+              }}
+              onDragMove={(e) => {
+                const node = e.target;
+                props.onLiveChange?.(p.id, {
+                  offsetFromCenterIn: (node.x() - view.originX) / s,
+                  belowCollarIn: (node.y() - view.originY) / s - p.heightIn / 2,
+                });
+              }}
+              onDragEnd={(e) => commitNode(p.id, e.target as Konva.Image)}
+              onTransformEnd={(e) => commitNode(p.id, e.target as Konva.Image)}
+            />
+          );
+        })}
+        <Transformer
+          ref={transformer}
+          keepRatio={props.keepAspect}
+          enabledAnchors={props.keepAspect ? ["top-left", "top-right", "bottom-left", "bottom-right"] : undefined}
+          rotationSnaps={[0, 90, 180, 270]}
+          rotationSnapTolerance={2}
+          flipEnabled={false}
+          anchorSize={9}
+          anchorStroke="#2f6f66"
+          borderStroke="#2f6f66"
+          anchorCornerRadius={2}
+          boundBoxFunc={(oldBox, newBox) => {
+            const minPx = 0.25 * s;
+            if (Math.abs(newBox.width) < minPx || Math.abs(newBox.height) < minPx) {
+              // Clamp proportionally rather than returning the old box, which would stick.
+              const k = Math.max(minPx / Math.abs(newBox.width || minPx), minPx / Math.abs(newBox.height || minPx));
+              return { ...newBox, width: newBox.width * k, height: newBox.height * k };
+            }
+            return newBox;
+          }}
+        />
+      </Layer>
+
+      <Rulers width={width} height={height} view={view} unit={props.unit} />
+    </Stage>
+  );
+}
+
+function Rulers({ width, height, view, unit }: { width: number; height: number; view: View; unit: LengthUnit }) {
+  const s = scaleOf(view);
+  const fromX = (RULER_PX - view.originX) / s;
+  const toX = (width - view.originX) / s;
+  const fromY = (RULER_PX - view.originY) / s;
+  const toY = (height - view.originY) / s;
+  const marks: Array<{ pos: number; len: number; label?: string; horizontal: boolean }> = [];
+  if (unit === "in") {
+    const len = { inch: 12, half: 8, quarter: 6, eighth: 4 } as const;
+    for (const t of rulerTicks(fromX, toX, s)) marks.push({ pos: view.originX + t.at * s, len: len[t.kind], label: t.kind === "inch" && (s >= 14 || t.at % 2 === 0) ? String(Math.abs(t.at)) : undefined, horizontal: true });
+    for (const t of rulerTicks(fromY, toY, s)) marks.push({ pos: view.originY + t.at * s, len: len[t.kind], label: t.kind === "inch" && (s >= 14 || t.at % 2 === 0) ? String(t.at) : undefined, horizontal: false });
+  } else {
+    const len = { cm: 12, half: 8, mm: 4 } as const;
+    for (const t of rulerTicksCm(fromX, toX, s)) marks.push({ pos: view.originX + t.atIn * s, len: len[t.kind], label: t.kind === "cm" && (s / 2.54 >= 14 || t.cm % 2 === 0) ? String(Math.abs(t.cm)) : undefined, horizontal: true });
+    for (const t of rulerTicksCm(fromY, toY, s)) marks.push({ pos: view.originY + t.atIn * s, len: len[t.kind], label: t.kind === "cm" && (s / 2.54 >= 14 || t.cm % 2 === 0) ? String(t.cm) : undefined, horizontal: false });
+  }
+  return (
+    <Layer listening={false}>
+      <Rect x={0} y={0} width={width} height={RULER_PX} fill="#fbfaf6" stroke="#ddd4c1" strokeWidth={1} />
+      <Rect x={0} y={0} width={RULER_PX} height={height} fill="#fbfaf6" stroke="#ddd4c1" strokeWidth={1} />
+      {marks.map((m, i) =>
+        m.horizontal ? (
+          <Group key={i}>
+            <Line points={[m.pos, RULER_PX, m.pos, RULER_PX - m.len]} stroke="#4c515a" strokeWidth={1} />
+            {m.label ? <Text x={m.pos + 2} y={3} text={m.label} fontSize={10} fill="#363a41" /> : null}
+          </Group>
+        ) : (
+          <Group key={i}>
+            <Line points={[RULER_PX, m.pos, RULER_PX - m.len, m.pos]} stroke="#4c515a" strokeWidth={1} />
+            {m.label ? <Text x={2} y={m.pos + 2} text={m.label} fontSize={10} fill="#363a41" /> : null}
+          </Group>
+        ),
+      )}
+      <Rect x={0} y={0} width={RULER_PX} height={RULER_PX} fill="#f6f3ec" />
+      <Text x={4} y={8} text={unit} fontSize={10} fill="#686e78" />
+    </Layer>
+  );
+}

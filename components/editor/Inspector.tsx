@@ -1,0 +1,256 @@
+"use client";
+
+import { useMemo, useState } from "react";
+import { LOCATION_LABELS, sideOf, type PrintLocation } from "@/lib/garments/locations";
+import type { GarmentSide } from "@/lib/garments/types";
+import type { ProofDoc, PlacementPatch } from "@/lib/editor/document";
+import { checkPlacement, type PlacementWarning } from "@/lib/placement/checks";
+import type { Placement } from "@/lib/placement/model";
+import { formatLength, type LengthUnit } from "@/lib/units";
+import { LengthField } from "./LengthField";
+import type { EditorArtwork, EditorBlank } from "./ProofEditor";
+
+type Props = {
+  blank: EditorBlank;
+  doc: ProofDoc;
+  side: GarmentSide;
+  unit: LengthUnit;
+  selected: Placement | null;
+  keepAspect: boolean;
+  editable: boolean;
+  artworks: EditorArtwork[];
+  locations: Array<{ value: PrintLocation; label: string }>;
+  previousSize: string | null;
+  calibrated: boolean;
+  onCalibrate: () => void;
+  onSelect: (id: string) => void;
+  onSize: (size: string) => void;
+  onColour: (c: { name: string; hex: string }) => void;
+  onKeepAspect: (keep: boolean) => void;
+  onPatch: (id: string, patch: PlacementPatch) => void;
+  onResize: (id: string, change: { widthIn?: number; heightIn?: number }) => void;
+  onRemove: (id: string) => void;
+  onAdd: (artworkId: string, location: PrintLocation) => void;
+};
+
+const TONE: Record<PlacementWarning["severity"], string> = {
+  error: "border-brick-300 bg-brick-100 text-brick-800",
+  warning: "border-ochre-300 bg-ochre-100 text-ochre-800",
+  info: "border-ink-200 bg-paper-100 text-ink-700",
+};
+
+export function Inspector(props: Props) {
+  const { blank, doc, unit, selected } = props;
+  const row = blank.sizeChart.find((r) => r.size === doc.size) ?? blank.sizeChart[0]!;
+  const previous = props.previousSize ? blank.sizeChart.find((r) => r.size === props.previousSize) : undefined;
+
+  const warningsById = useMemo(() => {
+    const out: Record<string, PlacementWarning[]> = {};
+    for (const p of doc.placements) {
+      out[p.id] = checkPlacement({
+        placement: p,
+        category: blank.category,
+        group: row.group,
+        measurements: row.measurements,
+        size: row.size,
+        unit,
+        previousSize: previous ? { size: previous.size, group: previous.group, measurements: previous.measurements } : undefined,
+      });
+    }
+    return out;
+  }, [doc.placements, blank.category, row, unit, previous]);
+
+  const artName = (id: string | null) => props.artworks.find((a) => a.id === id)?.name ?? "No art";
+  const [newArt, setNewArt] = useState(props.artworks[0]?.id ?? "");
+  const [newLocation, setNewLocation] = useState<PrintLocation>(props.locations[0]?.value ?? "full-front");
+
+  return (
+    <div className="space-y-6 p-4">
+      <section aria-labelledby="garment-h">
+        <h2 id="garment-h" className="text-sm font-semibold uppercase tracking-wider text-ink-500">
+          Garment
+        </h2>
+        <p className="mt-1 text-sm text-ink-800">{blank.name}</p>
+        <div className="mt-3 grid grid-cols-2 gap-3">
+          <div>
+            <label htmlFor="size" className="mb-1 block text-xs font-medium text-ink-600">
+              Size
+            </label>
+            <select id="size" className="field-input py-1.5 text-sm" value={doc.size} disabled={!props.editable} onChange={(e) => props.onSize(e.target.value)}>
+              {blank.sizeChart.map((r) => (
+                <option key={r.size} value={r.size}>
+                  {r.size}
+                </option>
+              ))}
+            </select>
+          </div>
+          <div>
+            <span className="mb-1 block text-xs font-medium text-ink-600">Colour: {doc.colourName}</span>
+            <div className="flex flex-wrap gap-1.5" role="radiogroup" aria-label="Garment colour">
+              {blank.colours.map((c) => (
+                <button
+                  key={c.hex + c.name}
+                  type="button"
+                  role="radio"
+                  aria-checked={c.hex.toLowerCase() === doc.colourHex.toLowerCase()}
+                  aria-label={c.name}
+                  title={c.name}
+                  disabled={!props.editable}
+                  onClick={() => props.onColour(c)}
+                  className={`h-6 w-6 rounded-full border ${c.hex.toLowerCase() === doc.colourHex.toLowerCase() ? "ring-2 ring-patina-500 ring-offset-1" : "border-ink-200"}`}
+                  style={{ background: c.hex }}
+                />
+              ))}
+            </div>
+          </div>
+        </div>
+        <p className="mt-2 text-xs text-ink-500">
+          Chest {formatLength("chestWidth" in row.measurements ? row.measurements.chestWidth : row.measurements.width, unit)} · length{" "}
+          {formatLength("bodyLength" in row.measurements ? row.measurements.bodyLength : row.measurements.height, unit)}. Chart values are approximate until you edit
+          them to the supplier&apos;s chart.
+        </p>
+      </section>
+
+      <section aria-labelledby="placements-h">
+        <h2 id="placements-h" className="text-sm font-semibold uppercase tracking-wider text-ink-500">
+          Prints on this proof
+        </h2>
+        <ul className="mt-2 space-y-1">
+          {doc.placements.map((p) => {
+            const count = (warningsById[p.id] ?? []).filter((w) => w.severity !== "info").length;
+            return (
+              <li key={p.id}>
+                <button
+                  type="button"
+                  onClick={() => props.onSelect(p.id)}
+                  aria-current={selected?.id === p.id ? "true" : undefined}
+                  className={`flex w-full items-center justify-between gap-2 rounded-lg px-3 py-2 text-left text-sm ${selected?.id === p.id ? "bg-patina-100 text-patina-900" : "hover:bg-paper-200"}`}
+                >
+                  <span className="min-w-0">
+                    <span className="block font-medium">{LOCATION_LABELS[p.location]}</span>
+                    <span className="block truncate text-xs text-ink-500">
+                      {artName(p.artworkId)} · {sideOf(p.location)}
+                    </span>
+                  </span>
+                  {count ? <span className="rounded-full bg-ochre-100 px-2 text-xs font-medium text-ochre-800">{count}</span> : <span className="text-xs text-patina-700">fits</span>}
+                </button>
+              </li>
+            );
+          })}
+        </ul>
+        {props.editable && props.artworks.length ? (
+          <form
+            className="mt-3 grid grid-cols-[1fr_1fr_auto] items-end gap-2"
+            onSubmit={(e) => {
+              e.preventDefault();
+              if (newArt) props.onAdd(newArt, newLocation);
+            }}
+          >
+            <div>
+              <label htmlFor="new-art" className="mb-1 block text-xs font-medium text-ink-600">
+                Art
+              </label>
+              <select id="new-art" className="field-input py-1.5 text-sm" value={newArt} onChange={(e) => setNewArt(e.target.value)}>
+                {props.artworks.map((a) => (
+                  <option key={a.id} value={a.id}>
+                    {a.name}
+                  </option>
+                ))}
+              </select>
+            </div>
+            <div>
+              <label htmlFor="new-loc" className="mb-1 block text-xs font-medium text-ink-600">
+                Location
+              </label>
+              <select id="new-loc" className="field-input py-1.5 text-sm" value={newLocation} onChange={(e) => setNewLocation(e.target.value as PrintLocation)}>
+                {props.locations.map((l) => (
+                  <option key={l.value} value={l.value}>
+                    {l.label}
+                  </option>
+                ))}
+              </select>
+            </div>
+            <button type="submit" className="btn-quiet px-3 py-1.5">
+              Place
+            </button>
+          </form>
+        ) : null}
+      </section>
+
+      {selected ? (
+        <section aria-labelledby="sel-h" data-testid="inspector-selected">
+          <div className="flex items-baseline justify-between">
+            <h2 id="sel-h" className="text-sm font-semibold uppercase tracking-wider text-ink-500">
+              {LOCATION_LABELS[selected.location]}
+            </h2>
+            {props.editable ? (
+              <button type="button" className="text-xs text-brick-700 hover:underline" onClick={() => props.onRemove(selected.id)}>
+                Remove print
+              </button>
+            ) : null}
+          </div>
+          <div className="mt-3 grid grid-cols-2 gap-3">
+            <LengthField label="Width" valueIn={selected.widthIn} unit={unit} disabled={!props.editable} onCommit={(v) => props.onResize(selected.id, { widthIn: v })} />
+            <LengthField label="Height" valueIn={selected.heightIn} unit={unit} disabled={!props.editable} onCommit={(v) => props.onResize(selected.id, { heightIn: v })} />
+            <LengthField
+              label="From center"
+              valueIn={selected.offsetFromCenterIn}
+              unit={unit}
+              allowNegative
+              disabled={!props.editable}
+              hint={selected.offsetFromCenterIn === 0 ? "Centered" : selected.offsetFromCenterIn > 0 ? "Toward viewer's right" : "Toward viewer's left"}
+              onCommit={(v) => props.onPatch(selected.id, { offsetFromCenterIn: v })}
+            />
+            <LengthField label="Below collar" valueIn={selected.belowCollarIn} unit={unit} allowNegative disabled={!props.editable} hint="Top of the print" onCommit={(v) => props.onPatch(selected.id, { belowCollarIn: v })} />
+            <div>
+              <label htmlFor="rotation" className="mb-1 block text-xs font-medium text-ink-600">
+                Rotation
+              </label>
+              <input
+                id="rotation"
+                type="number"
+                step={0.5}
+                min={-180}
+                max={180}
+                className="field-input measure py-1.5 text-sm"
+                value={Math.round(selected.rotationDeg * 100) / 100}
+                disabled={!props.editable}
+                onChange={(e) => {
+                  const v = Number(e.target.value);
+                  if (Number.isFinite(v) && v >= -180 && v <= 180) props.onPatch(selected.id, { rotationDeg: v });
+                }}
+              />
+            </div>
+            <label className="flex items-end gap-2 pb-2 text-sm">
+              <input type="checkbox" className="accent-patina-600" checked={props.keepAspect} onChange={(e) => props.onKeepAspect(e.target.checked)} />
+              Keep proportions
+            </label>
+          </div>
+          <div className="mt-4 space-y-2" aria-live="polite">
+            {(warningsById[selected.id] ?? []).length === 0 ? (
+              <p className="rounded-lg border border-patina-200 bg-patina-100 px-3 py-2 text-sm text-patina-800">Fits this size: clear of the seams and within the print area.</p>
+            ) : (
+              (warningsById[selected.id] ?? []).map((w, i) => (
+                <p key={`${w.code}-${i}`} data-code={w.code} className={`rounded-lg border px-3 py-2 text-sm ${TONE[w.severity]}`}>
+                  {w.message}
+                </p>
+              ))
+            )}
+          </div>
+        </section>
+      ) : (
+        <p className="text-sm text-ink-500">Select a print on the garment or in the list to size and place it.</p>
+      )}
+
+      <section className="border-t border-paper-300 pt-4 text-xs text-ink-500">
+        <p>
+          {props.calibrated ? "This screen is calibrated." : "This screen is not calibrated (96 px per inch assumed)."}{" "}
+          <button type="button" className="font-medium text-patina-700 underline" onClick={props.onCalibrate}>
+            {props.calibrated ? "Calibrate again" : "Calibrate"}
+          </button>
+        </p>
+        <p className="mt-1">Arrow keys nudge 1/8 in; Shift+arrow 1 in. Drag snaps to the center line and to 1/8 in.</p>
+      </section>
+    </div>
+  );
+}

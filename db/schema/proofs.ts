@@ -1,0 +1,97 @@
+import { doublePrecision, index, integer, pgTable, primaryKey, text, timestamp, uniqueIndex } from "drizzle-orm/pg-core";
+import { users } from "./auth";
+import { blanks } from "./blanks";
+import { jobs } from "./jobs";
+import { shops } from "./shops";
+
+/** Art the shop places on garments. Generated demo art carries its SVG; uploads come later. */
+export const artworks = pgTable(
+  "artworks",
+  {
+    id: text("id")
+      .primaryKey()
+      .$defaultFn(() => crypto.randomUUID()),
+    shopId: text("shop_id")
+      .notNull()
+      .references(() => shops.id, { onDelete: "cascade" }),
+    clientId: text("client_id"),
+    name: text("name").notNull(),
+    kind: text("kind", { enum: ["generated", "upload"] }).notNull(),
+    svg: text("svg"),
+    /** Size of the ink, in pixels of the original. */
+    inkWidthPx: integer("ink_width_px").notNull(),
+    inkHeightPx: integer("ink_height_px").notNull(),
+    createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [index("artworks_shop").on(t.shopId)],
+);
+
+export type Artwork = typeof artworks.$inferSelect;
+
+/** A job's mock-up: one garment, colour and size, at a revision letter. `version` guards concurrent saves. */
+export const proofs = pgTable(
+  "proofs",
+  {
+    id: text("id")
+      .primaryKey()
+      .$defaultFn(() => crypto.randomUUID()),
+    shopId: text("shop_id")
+      .notNull()
+      .references(() => shops.id, { onDelete: "cascade" }),
+    jobId: text("job_id")
+      .notNull()
+      .references(() => jobs.id, { onDelete: "cascade" }),
+    revision: text("revision").notNull().default("A"),
+    name: text("name").notNull(),
+    blankId: text("blank_id")
+      .notNull()
+      .references(() => blanks.id, { onDelete: "restrict" }),
+    colourName: text("colour_name").notNull(),
+    colourHex: text("colour_hex").notNull(),
+    size: text("size").notNull(),
+    version: integer("version").notNull().default(1),
+    updatedBy: text("updated_by").references(() => users.id, { onDelete: "set null" }),
+    createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
+    updatedAt: timestamp("updated_at", { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [index("proofs_job").on(t.jobId), uniqueIndex("proofs_job_revision_name").on(t.jobId, t.name, t.revision)],
+);
+
+export type Proof = typeof proofs.$inferSelect;
+
+/** Where art sits on the garment, in garment inches: the source of truth the canvas draws. */
+export const placements = pgTable(
+  "placements",
+  {
+    id: text("id").primaryKey(),
+    proofId: text("proof_id")
+      .notNull()
+      .references(() => proofs.id, { onDelete: "cascade" }),
+    location: text("location").notNull(),
+    artworkId: text("artwork_id").references(() => artworks.id, { onDelete: "set null" }),
+    widthIn: doublePrecision("width_in").notNull(),
+    heightIn: doublePrecision("height_in").notNull(),
+    offsetFromCenterIn: doublePrecision("offset_from_center_in").notNull(),
+    belowCollarIn: doublePrecision("below_collar_in").notNull(),
+    rotationDeg: doublePrecision("rotation_deg").notNull().default(0),
+    sortOrder: integer("sort_order").notNull().default(0),
+  },
+  (t) => [index("placements_proof").on(t.proofId)],
+);
+
+export type PlacementRow = typeof placements.$inferSelect;
+
+/** Screen calibration per person and device: CSS pixels per real inch at 100% zoom. */
+export const calibrations = pgTable(
+  "calibrations",
+  {
+    userId: text("user_id")
+      .notNull()
+      .references(() => users.id, { onDelete: "cascade" }),
+    deviceKey: text("device_key").notNull(),
+    deviceLabel: text("device_label"),
+    pxPerInch: doublePrecision("px_per_inch").notNull(),
+    updatedAt: timestamp("updated_at", { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [primaryKey({ columns: [t.userId, t.deviceKey] })],
+);
