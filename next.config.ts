@@ -3,7 +3,7 @@ import type { NextConfig } from "next";
 const nextConfig: NextConfig = {
   reactStrictMode: true,
   poweredByHeader: false,
-  serverExternalPackages: ["pg", "bcryptjs"],
+  serverExternalPackages: ["pg", "bcryptjs", "sharp", "@napi-rs/canvas", "pdfjs-dist", "jsdom", "dompurify", "file-type", "pg-boss"],
   experimental: {
     // forbidden() renders app/forbidden.tsx with a real 403 status.
     authInterrupts: true,

@@ -244,6 +244,10 @@ export default function ProofStage(props: Props) {
                   belowCollarIn: (node.y() - view.originY) / s - p.heightIn / 2,
                 });
               }}
+              onTransform={(e) => {
+                const node = e.target as Konva.Image;
+                props.onLiveChange?.(p.id, { widthIn: (node.width() * node.scaleX()) / s, heightIn: (node.height() * node.scaleY()) / s });
+              }}
               onDragEnd={(e) => commitNode(p.id, e.target as Konva.Image)}
               onTransformEnd={(e) => commitNode(p.id, e.target as Konva.Image)}
             />

@@ -79,7 +79,7 @@ export async function seedDemo(db: Db): Promise<{ seeded: boolean }> {
     const clientOf: Record<string, string> = { "eastfield-emblem": soccer!.id, "larkspur-wordmark": bakery!.id, "northgate-badge": robotics!.id };
     const art = await tx
       .insert(schema.artworks)
-      .values(DEMO_ART.map((a) => ({ shopId, clientId: clientOf[a.key] ?? null, name: a.name, kind: "generated" as const, svg: a.svg, inkWidthPx: a.widthPx, inkHeightPx: a.heightPx })))
+      .values(DEMO_ART.map((a) => ({ shopId, clientId: clientOf[a.key] ?? null, name: a.name, kind: "generated" as const, svg: a.svg, inkWidthPx: a.widthPx, inkHeightPx: a.heightPx, isVector: true, shape: a.shape, mime: "image/svg+xml" })))
       .returning({ id: schema.artworks.id, name: schema.artworks.name });
     const artId = (name: string) => art.find((a) => a.name === name)!.id;
 

@@ -68,6 +68,7 @@ export function shopNav(role: ShopRole, shopSlug: string): NavItem[] {
   const items: Array<NavItem & { needs: Permission }> = [
     { key: "overview", label: "Overview", href: base, needs: "shop.view" },
     { key: "jobs", label: "Jobs", href: `${base}/jobs`, needs: "jobs.view" },
+    { key: "art", label: "Art library", href: `${base}/art`, needs: "jobs.view" },
     { key: "clients", label: "Clients", href: `${base}/clients`, needs: "clients.view" },
     { key: "blanks", label: "Blanks", href: `${base}/blanks`, needs: "blanks.view" },
     { key: "settings", label: "Shop settings", href: `${base}/settings`, needs: "shop.settings" },

@@ -2,7 +2,7 @@
  * Demo artwork drawn in code for the invented demo clients. Each design is an SVG string whose
  * viewBox is its pixel size, as if it were a 300 ppi file of the stated print size.
  */
-export type DemoArt = { key: string; name: string; widthPx: number; heightPx: number; svg: string };
+export type DemoArt = { key: string; name: string; widthPx: number; heightPx: number; svg: string; shape: "wide" | "tall" | "square" | "round" | "emblem" };
 
 const FONT = "Helvetica, Arial, sans-serif";
 
@@ -33,7 +33,7 @@ ${hexes.join("")}
 <rect x="${c - 1150}" y="1950" width="2300" height="380" rx="40" fill="#e63946"/>
 <text x="${c}" y="2230" font-family="${FONT}" font-weight="700" font-size="250" letter-spacing="30" fill="#fdfdfb" text-anchor="middle">YOUTH SOCCER</text>
 <text x="${c}" y="2620" font-family="${FONT}" font-weight="700" font-size="150" letter-spacing="60" fill="#f1c453" text-anchor="middle">EST. 2009</text>`;
-  return { key: "eastfield-emblem", name: "Eastfield club emblem", widthPx: w, heightPx: w, svg: svg(w, w, body) };
+  return { key: "eastfield-emblem", name: "Eastfield club emblem", widthPx: w, heightPx: w, svg: svg(w, w, body), shape: "round" };
 }
 
 /** A wide bakery wordmark with a wheat sprig: about 11 x 3.7 in at 300 ppi. */
@@ -52,7 +52,7 @@ ${grains.join("")}
 <ellipse cx="200" cy="170" rx="40" ry="90" fill="#c8893b"/>
 <text x="430" y="620" font-family="Georgia, 'Times New Roman', serif" font-weight="700" font-size="520" fill="#7a4b1c">Larkspur</text>
 <text x="445" y="960" font-family="${FONT}" font-weight="700" font-size="230" letter-spacing="64" fill="#c8893b">LANE BAKERY</text>`;
-  return { key: "larkspur-wordmark", name: "Larkspur Lane wordmark", widthPx: w, heightPx: h, svg: svg(w, h, body) };
+  return { key: "larkspur-wordmark", name: "Larkspur Lane wordmark", widthPx: w, heightPx: h, svg: svg(w, h, body), shape: "wide" };
 }
 
 /** A tall robotics club badge with a gear: about 9 x 12 in at 300 ppi. */
@@ -77,7 +77,7 @@ ${teeth.join("")}
 <text x="${c}" y="2600" font-family="${FONT}" font-weight="700" font-size="430" letter-spacing="20" fill="#0b132b" text-anchor="middle">NORTHGATE</text>
 <text x="${c}" y="3050" font-family="${FONT}" font-weight="700" font-size="330" letter-spacing="90" fill="#3a86ff" text-anchor="middle">ROBOTICS</text>
 <rect x="${c - 900}" y="3250" width="1800" height="60" rx="30" fill="#ff006e"/>`;
-  return { key: "northgate-badge", name: "Northgate robotics badge", widthPx: w, heightPx: h, svg: svg(w, h, body) };
+  return { key: "northgate-badge", name: "Northgate robotics badge", widthPx: w, heightPx: h, svg: svg(w, h, body), shape: "tall" };
 }
 
 export const DEMO_ART: readonly DemoArt[] = [clubEmblem(), bakeryWordmark(), roboticsBadge()];

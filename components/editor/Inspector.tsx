@@ -1,7 +1,10 @@
 "use client";
 
-import { useMemo, useState } from "react";
-import { LOCATION_LABELS, sideOf, type PrintLocation } from "@/lib/garments/locations";
+import { useMemo, useState, type ReactNode } from "react";
+import { fillPrintArea, SHAPE_LABELS, suggestSize } from "@/lib/artwork/advice";
+import { assessQuality, GRADE_LABELS, type QualityGrade } from "@/lib/artwork/quality";
+import { LOCATION_LABELS, locationSpec, sideOf, type PrintLocation } from "@/lib/garments/locations";
+import type { DecorationMethod } from "@/lib/jobs";
 import type { GarmentSide } from "@/lib/garments/types";
 import type { ProofDoc, PlacementPatch } from "@/lib/editor/document";
 import { checkPlacement, type PlacementWarning } from "@/lib/placement/checks";
@@ -19,6 +22,7 @@ type Props = {
   keepAspect: boolean;
   editable: boolean;
   artworks: EditorArtwork[];
+  method: DecorationMethod;
   locations: Array<{ value: PrintLocation; label: string }>;
   previousSize: string | null;
   calibrated: boolean;
@@ -31,6 +35,14 @@ type Props = {
   onResize: (id: string, change: { widthIn?: number; heightIn?: number }) => void;
   onRemove: (id: string) => void;
   onAdd: (artworkId: string, location: PrintLocation) => void;
+  uploadSlot?: ReactNode;
+};
+
+const GRADE_TONE: Record<QualityGrade, string> = {
+  vector: "bg-patina-100 text-patina-800",
+  ideal: "bg-patina-100 text-patina-800",
+  visible: "bg-ochre-100 text-ochre-800",
+  poor: "bg-brick-100 text-brick-800",
 };
 
 const TONE: Record<PlacementWarning["severity"], string> = {
@@ -175,6 +187,12 @@ export function Inspector(props: Props) {
             </button>
           </form>
         ) : null}
+        {props.editable && props.uploadSlot ? (
+          <details className="mt-3">
+            <summary className="cursor-pointer text-sm font-medium text-patina-700">Upload art for this client</summary>
+            <div className="mt-2">{props.uploadSlot}</div>
+          </details>
+        ) : null}
       </section>
 
       {selected ? (
@@ -226,6 +244,15 @@ export function Inspector(props: Props) {
               Keep proportions
             </label>
           </div>
+          <ArtAdvice
+            placement={selected}
+            artwork={props.artworks.find((a) => a.id === selected.artworkId)}
+            blank={blank}
+            sizeRow={row}
+            method={props.method}
+            editable={props.editable}
+            onApply={(size) => props.onPatch(selected.id, size)}
+          />
           <div className="mt-4 space-y-2" aria-live="polite">
             {(warningsById[selected.id] ?? []).length === 0 ? (
               <p className="rounded-lg border border-patina-200 bg-patina-100 px-3 py-2 text-sm text-patina-800">Fits this size: clear of the seams and within the print area.</p>
@@ -251,6 +278,73 @@ export function Inspector(props: Props) {
         </p>
         <p className="mt-1">Arrow keys nudge 1/8 in; Shift+arrow 1 in. Drag snaps to the center line and to 1/8 in.</p>
       </section>
+    </div>
+  );
+}
+
+/** Print quality at the placed size, and one-click sizes from the trade's rules of thumb. */
+function ArtAdvice(props: {
+  placement: Placement;
+  artwork: EditorArtwork | undefined;
+  blank: EditorBlank;
+  sizeRow: EditorBlank["sizeChart"][number];
+  method: DecorationMethod;
+  editable: boolean;
+  onApply: (size: { widthIn: number; heightIn: number }) => void;
+}) {
+  const { placement, artwork } = props;
+  if (!artwork) return null;
+  const quality = assessQuality({
+    isVector: artwork.isVector,
+    inkWidthPx: artwork.inkWidthPx,
+    inkHeightPx: artwork.inkHeightPx,
+    widthIn: placement.widthIn,
+    heightIn: placement.heightIn,
+    method: props.method,
+  });
+  const aspect = artwork.inkWidthPx / artwork.inkHeightPx;
+  let spec;
+  try {
+    spec = locationSpec({ location: placement.location, category: props.blank.category, group: props.sizeRow.group, measurements: props.sizeRow.measurements });
+  } catch {
+    spec = null;
+  }
+  const shape = artwork.shape ?? "square";
+  const advice = spec ? suggestSize({ shape, aspect, group: props.sizeRow.group, maxWidthIn: spec.maxWidth, maxHeightIn: spec.maxHeight }) : null;
+  const fill = spec ? fillPrintArea({ aspect, maxWidthIn: spec.maxWidth, maxHeightIn: spec.maxHeight }) : null;
+  return (
+    <div className="mt-4 space-y-3 rounded-lg border border-paper-300 bg-chalk p-3" data-testid="art-quality">
+      <div className="flex items-center justify-between gap-2">
+        <span className="text-xs font-medium text-ink-600">Print quality</span>
+        <span className={`rounded-full px-2 py-0.5 text-xs font-semibold ${GRADE_TONE[quality.grade]}`} data-testid="ppi-grade" data-grade={quality.grade}>
+          {GRADE_LABELS[quality.grade]}
+          {quality.ppi !== null ? ` · ${Math.round(quality.ppi)} ppi` : ""}
+        </span>
+      </div>
+      <p className="text-xs text-ink-600">{quality.message}</p>
+      {quality.largestIdealWidthIn !== null ? (
+        <p className="measure text-xs text-ink-500">
+          Largest at 300 ppi: {quality.largestIdealWidthIn.toFixed(2)} × {quality.largestIdealHeightIn!.toFixed(2)} in
+        </p>
+      ) : null}
+      {artwork.colourCount ? (
+        <p className="text-xs text-ink-500">
+          About {artwork.colourCount} colour{artwork.colourCount === 1 ? "" : "s"} · {SHAPE_LABELS[shape].toLowerCase()} art
+        </p>
+      ) : null}
+      {advice && fill && props.editable ? (
+        <div className="space-y-2 border-t border-paper-200 pt-2">
+          <div className="flex flex-wrap gap-2">
+            <button type="button" className="btn-quiet px-2.5 py-1 text-xs" onClick={() => props.onApply({ widthIn: advice.widthIn, heightIn: advice.heightIn })}>
+              Suggested size ({advice.widthIn.toFixed(2)} in wide)
+            </button>
+            <button type="button" className="btn-quiet px-2.5 py-1 text-xs" onClick={() => props.onApply({ widthIn: fill.widthIn, heightIn: fill.heightIn })}>
+              Fill print area
+            </button>
+          </div>
+          <p className="text-xs text-ink-500">{advice.rule}</p>
+        </div>
+      ) : null}
     </div>
   );
 }

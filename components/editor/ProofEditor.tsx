@@ -1,6 +1,8 @@
 "use client";
 
 import Link from "next/link";
+import { useRouter } from "next/navigation";
+import { DropZone } from "@/components/artwork/DropZone";
 import { useCallback, useEffect, useMemo, useState } from "react";
 import { useStore } from "zustand";
 import { saveProofAction } from "@/app/shops/[shop]/proofs/[proofId]/actions";
@@ -10,7 +12,9 @@ import { nextZoom } from "@/lib/editor/view";
 import { LOCATION_LABELS, locationSpec, locationsFor, sideOf, type PrintLocation } from "@/lib/garments/locations";
 import { CATEGORY_INFO, type GarmentCategory, type GarmentMeasurements, type SizeGroup } from "@/lib/garments/types";
 import { defaultPlacement } from "@/lib/placement/model";
+import type { ArtShape } from "@/lib/artwork/advice";
 import { svgDataUrl } from "@/lib/demo-art";
+import type { DecorationMethod } from "@/lib/jobs";
 import { CalibrationDialog } from "./CalibrationDialog";
 import { useCalibration } from "./calibration";
 import { Inspector } from "./Inspector";
@@ -27,12 +31,23 @@ export type EditorBlank = {
   sizeChart: Array<{ size: string; group: SizeGroup; measurements: GarmentMeasurements }>;
 };
 
-export type EditorArtwork = { id: string; name: string; kind: string; svg: string | null; inkWidthPx: number; inkHeightPx: number };
+export type EditorArtwork = {
+  id: string;
+  name: string;
+  kind: string;
+  svg: string | null;
+  isVector: boolean;
+  hasPreview: boolean;
+  inkWidthPx: number;
+  inkHeightPx: number;
+  shape: ArtShape | null;
+  colourCount: number | null;
+};
 
 type Props = {
   shopSlug: string;
   proof: { id: string; name: string; revision: string; version: number };
-  job: { id: string; title: string; clientName: string };
+  job: { id: string; title: string; clientId: string; clientName: string; method: DecorationMethod };
   blank: EditorBlank;
   doc: ProofDoc;
   artworks: EditorArtwork[];
@@ -51,6 +66,7 @@ export function ProofEditor(props: Props) {
 
 function EditorBody(props: Props & { store: EditorStore }) {
   const { store, blank } = props;
+  const router = useRouter();
   const doc = useEditor((s) => s.doc);
   const side = useEditor((s) => s.side);
   const unit = useEditor((s) => s.unit);
@@ -75,8 +91,15 @@ function EditorBody(props: Props & { store: EditorStore }) {
   const art: ArtSource[] = useMemo(
     () =>
       props.artworks
-        .filter((a) => a.svg)
-        .map((a) => ({ id: a.id, name: a.name, src: svgDataUrl(a.svg!), inkWidthPx: a.inkWidthPx, inkHeightPx: a.inkHeightPx })),
+        .filter((a) => a.hasPreview || a.svg)
+        .map((a) => ({
+          id: a.id,
+          name: a.name,
+          // Generated art draws from its own SVG; uploads draw from their downscaled preview, never the original.
+          src: a.kind === "generated" && a.svg ? svgDataUrl(a.svg) : `/api/artworks/${a.id}/preview`,
+          inkWidthPx: a.inkWidthPx,
+          inkHeightPx: a.inkHeightPx,
+        })),
     [props.artworks],
   );
 
@@ -237,6 +260,7 @@ function EditorBody(props: Props & { store: EditorStore }) {
             keepAspect={keepAspect}
             editable={props.canEdit}
             artworks={props.artworks}
+            method={props.job.method}
             locations={locationsFor(blank.category).map((l) => ({ value: l, label: LOCATION_LABELS[l] }))}
             previousSize={store.getState().previousSize}
             calibrated={calibration.calibrated}
@@ -253,6 +277,7 @@ function EditorBody(props: Props & { store: EditorStore }) {
             onResize={(id, change) => store.getState().apply((d) => resize(d, id, { ...change, keepAspect }))}
             onRemove={(id) => store.getState().apply((d) => removePlacement(d, id))}
             onAdd={addArt}
+            uploadSlot={<DropZone shopSlug={props.shopSlug} clientId={props.job.clientId} onUploaded={() => router.refresh()} />}
           />
         </aside>
       </div>

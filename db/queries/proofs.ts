@@ -1,15 +1,16 @@
 import "server-only";
-import { and, asc, eq, inArray, sql } from "drizzle-orm";
+import { and, asc, eq, inArray, isNull, or, sql } from "drizzle-orm";
 import type { Placement } from "@/lib/placement/model";
 import { db } from "../client";
-import { artworks, blanks, calibrations, clients, jobs, placements, proofs, type Artwork, type Blank, type Proof } from "../schema";
+import { artworkSummary, type ArtworkSummary } from "./artworks";
+import { artworks, blanks, calibrations, clients, jobs, placements, proofs, type Blank, type Proof } from "../schema";
 
 export type ProofDocument = {
   proof: Proof;
   job: { id: string; title: string; clientId: string; clientName: string; method: string };
   blank: Blank;
   placements: Placement[];
-  artworks: Array<Pick<Artwork, "id" | "name" | "kind" | "svg" | "inkWidthPx" | "inkHeightPx">>;
+  artworks: ArtworkSummary[];
 };
 
 function toPlacement(row: typeof placements.$inferSelect): Placement {
@@ -38,7 +39,17 @@ export async function getProofDocument({ shopId, proofId }: { shopId: string; pr
   if (!row) return undefined;
   const placementRows = await db.select().from(placements).where(eq(placements.proofId, proofId)).orderBy(asc(placements.sortOrder));
   const artIds = [...new Set(placementRows.map((p) => p.artworkId).filter((id): id is string => !!id))];
-  const art = await listShopArtworks({ shopId, ids: artIds.length ? artIds : undefined });
+  // The client's art and the shop's own, plus anything already placed (even an older version).
+  const art = await db
+    .select(artworkSummary)
+    .from(artworks)
+    .where(
+      and(
+        eq(artworks.shopId, shopId),
+        or(and(isNull(artworks.replacedById), or(eq(artworks.clientId, row.job.clientId), isNull(artworks.clientId))), artIds.length ? inArray(artworks.id, artIds) : sql`false`),
+      ),
+    )
+    .orderBy(asc(artworks.name));
   return { proof: row.proof, blank: row.blank, job: row.job, placements: placementRows.map(toPlacement), artworks: art };
 }
 

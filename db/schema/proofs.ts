@@ -1,10 +1,15 @@
-import { doublePrecision, index, integer, pgTable, primaryKey, text, timestamp, uniqueIndex } from "drizzle-orm/pg-core";
+import { boolean, customType, doublePrecision, index, integer, jsonb, pgTable, primaryKey, real, text, timestamp, uniqueIndex } from "drizzle-orm/pg-core";
 import { users } from "./auth";
 import { blanks } from "./blanks";
 import { jobs } from "./jobs";
 import { shops } from "./shops";
 
-/** Art the shop places on garments. Generated demo art carries its SVG; uploads come later. */
+const bytea = customType<{ data: Buffer; driverData: Buffer }>({ dataType: () => "bytea" });
+
+/**
+ * Art the shop places on garments: generated demo art carries its SVG; uploads carry the analysis
+ * of the original (kept in upload storage), a preview for drawing and a thumbnail.
+ */
 export const artworks = pgTable(
   "artworks",
   {
@@ -17,13 +22,38 @@ export const artworks = pgTable(
     clientId: text("client_id"),
     name: text("name").notNull(),
     kind: text("kind", { enum: ["generated", "upload"] }).notNull(),
+    /** Sanitised SVG: the only form of an SVG Chalkline ever serves. */
     svg: text("svg"),
     /** Size of the ink, in pixels of the original. */
     inkWidthPx: integer("ink_width_px").notNull(),
     inkHeightPx: integer("ink_height_px").notNull(),
+    isVector: boolean("is_vector").notNull().default(false),
+    fileKey: text("file_key"),
+    fileUrl: text("file_url"),
+    mime: text("mime"),
+    bytes: integer("bytes"),
+    widthPx: integer("width_px"),
+    heightPx: integer("height_px"),
+    densityPpi: real("density_ppi"),
+    inkLeftPx: integer("ink_left_px"),
+    inkTopPx: integer("ink_top_px"),
+    fillRatio: real("fill_ratio"),
+    shape: text("shape", { enum: ["wide", "tall", "square", "round", "emblem"] }),
+    colourCount: integer("colour_count"),
+    continuousTone: boolean("continuous_tone"),
+    preview: bytea("preview"),
+    previewWidth: integer("preview_width"),
+    previewHeight: integer("preview_height"),
+    thumbnail: bytea("thumbnail"),
+    notes: jsonb("notes").$type<string[]>(),
+    /** Versions: a replacement points at the art it replaces; the newest has no successor. */
+    version: integer("version").notNull().default(1),
+    previousId: text("previous_id"),
+    replacedById: text("replaced_by_id"),
+    uploadedBy: text("uploaded_by").references(() => users.id, { onDelete: "set null" }),
     createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
   },
-  (t) => [index("artworks_shop").on(t.shopId)],
+  (t) => [index("artworks_shop").on(t.shopId), index("artworks_client").on(t.clientId)],
 );
 
 export type Artwork = typeof artworks.$inferSelect;

@@ -7,6 +7,7 @@ import { existsSync, mkdirSync, readFileSync, writeFileSync } from "node:fs";
 import path from "node:path";
 import { DEV_DB, ensurePostgres, migrate, stopPostgres, TEST_DB } from "../db";
 import { DEV_MAIL, startSmtpFake, TEST_MAIL } from "../fakes/smtp";
+import { DEV_UPLOADS, FAKE_APP_ID, fakeApiKey, fakeUploadsEnv, startUploadthingFake, TEST_UPLOADS } from "../fakes/uploadthing";
 import { runSeed } from "../seed";
 import { repoRoot } from "./proc";
 
@@ -74,6 +75,17 @@ export async function bringUpStack({ mode, port }: { mode: StackMode; port: numb
     env.MAIL_FAKE_SMTP_PORT = String(mail.smtpPort);
     env.MAIL_FAKE_API = `http://127.0.0.1:${mail.httpPort}`;
     log(`e-mail: local catcher on 127.0.0.1:${mail.smtpPort}; read it at ${baseUrl}/dev/mailbox`);
+  }
+
+  if (process.env.UPLOADTHING_TOKEN && !process.env.UPLOADTHING_FAKE_URL) {
+    log("uploads: using the hosted upload service from UPLOADTHING_TOKEN");
+  } else {
+    const uploads = mode === "test" ? TEST_UPLOADS : DEV_UPLOADS;
+    const apiKey = fakeApiKey();
+    const fake = await startUploadthingFake({ ...uploads, apiKey, appId: FAKE_APP_ID, log: (line) => log(`uploads: ${line}`) });
+    closers.push(() => fake.close());
+    Object.assign(env, fakeUploadsEnv({ url: fake.url, apiKey, appId: FAKE_APP_ID, appUrl: env.APP_URL! }));
+    log(`uploads: local fake of the upload service on ${fake.url}; files in ${path.relative(repoRoot, uploads.dir)}`);
   }
 
   return {

@@ -22,6 +22,6 @@ describe("role permissions", () => {
   it("builds navigation from the same table", () => {
     expect(shopNav("owner", "demo").map((item) => item.key)).toContain("settings");
     expect(shopNav("designer", "demo").map((item) => item.key)).not.toContain("settings");
-    expect(shopNav("production", "demo").map((item) => item.key)).toEqual(["overview", "jobs", "blanks"]);
+    expect(shopNav("production", "demo").map((item) => item.key)).toEqual(["overview", "jobs", "art", "blanks"]);
   });
 });

@@ -5,6 +5,7 @@ import { getProofDocument } from "@/db/queries/proofs";
 import { can } from "@/lib/access";
 import { toEditorDoc } from "@/lib/editor/from-server";
 import { clampZoom } from "@/lib/editor/view";
+import type { DecorationMethod } from "@/lib/jobs";
 
 export const dynamic = "force-dynamic";
 
@@ -23,7 +24,7 @@ export default async function ProofPage({ params, searchParams }: { params: Prom
     <ProofEditor
       shopSlug={access.shop.slug}
       proof={{ id: document.proof.id, name: document.proof.name, revision: document.proof.revision, version: document.proof.version }}
-      job={{ id: document.job.id, title: document.job.title, clientName: document.job.clientName }}
+      job={{ id: document.job.id, title: document.job.title, clientId: document.job.clientId, clientName: document.job.clientName, method: document.job.method as DecorationMethod }}
       blank={{ id: document.blank.id, name: document.blank.name, category: document.blank.category, colours: document.blank.colours, sizeChart: document.blank.sizeChart }}
       doc={toEditorDoc(document)}
       artworks={document.artworks}

@@ -1,0 +1,98 @@
+import "server-only";
+import { insertUploadedArtwork } from "@/db/queries/artworks";
+import { analyzeArtwork, MAX_UPLOAD_BYTES } from "./analyze";
+import { deleteStoredFile } from "./storage";
+
+export type IngestInput = {
+  fileUrl: string;
+  fileKey: string;
+  name: string;
+  size: number;
+  declaredType: string | null;
+  shopId: string;
+  userId: string;
+  clientId: string | null;
+};
+
+export type IngestResult = { ok: true; artworkId: string; notes: string[] } | { ok: false; message: string };
+
+async function download(url: string): Promise<Buffer | string> {
+  let response: Response;
+  try {
+    response = await fetch(url, { signal: AbortSignal.timeout(60_000) });
+  } catch {
+    return "The uploaded file could not be fetched back from storage. Try the upload again.";
+  }
+  if (!response.ok || !response.body) return `Storage answered ${response.status} for the uploaded file. Try the upload again.`;
+  const declared = Number(response.headers.get("content-length") ?? 0);
+  if (declared > MAX_UPLOAD_BYTES) return "The file is over the 64 MB limit.";
+  const chunks: Uint8Array[] = [];
+  let total = 0;
+  const reader = response.body.getReader();
+  for (;;) {
+    const { done, value } = await reader.read();
+    if (done) break;
+    total += value.byteLength;
+    if (total > MAX_UPLOAD_BYTES) {
+      await reader.cancel();
+      return "The file is over the 64 MB limit.";
+    }
+    chunks.push(value);
+  }
+  return Buffer.concat(chunks);
+}
+
+/**
+ * After an upload lands in storage: read it back, analyse it without trusting its name or type,
+ * and store the analysis. Refused files are removed from storage, so nothing unusable stays behind.
+ */
+export async function ingestUploadedArtwork(input: IngestInput): Promise<IngestResult> {
+  const bytes = await download(input.fileUrl);
+  if (typeof bytes === "string") {
+    await deleteStoredFile(input.fileKey);
+    return { ok: false, message: bytes };
+  }
+  const result = await analyzeArtwork(bytes, { name: input.name, type: input.declaredType });
+  if (!result.ok) {
+    await deleteStoredFile(input.fileKey);
+    return { ok: false, message: result.message };
+  }
+  const a = result.analysis;
+  const displayName = input.name.replace(/\.[a-z0-9]+$/i, "").slice(0, 120) || "Untitled art";
+  try {
+    const artworkId = await insertUploadedArtwork({
+      shopId: input.shopId,
+      clientId: input.clientId,
+      name: displayName,
+      svg: a.sanitizedSvg,
+      inkWidthPx: a.ink.width,
+      inkHeightPx: a.ink.height,
+      isVector: a.isVector,
+      fileKey: input.fileKey,
+      fileUrl: input.fileUrl,
+      mime: a.mime,
+      bytes: a.bytes,
+      widthPx: a.widthPx,
+      heightPx: a.heightPx,
+      densityPpi: a.densityPpi,
+      inkLeftPx: a.ink.left,
+      inkTopPx: a.ink.top,
+      fillRatio: a.fillRatio,
+      shape: a.shape,
+      colourCount: a.colourCount,
+      continuousTone: a.continuousTone,
+      preview: a.preview,
+      previewWidth: a.previewWidth,
+      previewHeight: a.previewHeight,
+      thumbnail: a.thumbnail,
+      notes: a.notes,
+      uploadedBy: input.userId,
+    });
+    // The raw SVG may hold scripts; only the sanitised copy in the database is ever served or printed.
+    if (a.kind === "svg") await deleteStoredFile(input.fileKey);
+    return { ok: true, artworkId, notes: a.notes };
+  } catch (error) {
+    console.error("[artwork ingest]", error);
+    return { ok: false, message: "The art was read but could not be saved. Try again in a moment." };
+  }
+}

@@ -1,0 +1,29 @@
+import type { NextRequest } from "next/server";
+import { createRouteHandler } from "uploadthing/next";
+import { uploadthingConfig } from "@/app/_server/uploadthing-config";
+import { authorizeArtworkUpload, ourFileRouter } from "./core";
+
+const handlers = createRouteHandler({ router: ourFileRouter, config: uploadthingConfig() });
+
+export const GET = handlers.GET;
+
+/**
+ * Upload requests from the browser are authorised here, in the request's own context, before the
+ * SDK sees them (see authorizeArtworkUpload). Callbacks from the upload service carry no session
+ * and are verified by the SDK through their signature.
+ */
+export async function POST(req: NextRequest): Promise<Response> {
+  const url = new URL(req.url);
+  if (url.searchParams.get("actionType") === "upload" && !req.headers.has("uploadthing-hook")) {
+    const body: unknown = await req
+      .clone()
+      .json()
+      .catch(() => null);
+    const input = body && typeof body === "object" ? (body as { input?: unknown }).input : undefined;
+    const shopSlug = input && typeof input === "object" ? (input as { shopSlug?: unknown }).shopSlug : undefined;
+    if (typeof shopSlug === "string" && shopSlug.length > 0 && shopSlug.length <= 80) {
+      await authorizeArtworkUpload(req, shopSlug);
+    }
+  }
+  return handlers.POST(req);
+}
