@@ -9,6 +9,7 @@ import type { Silhouette } from "@/lib/garments/silhouette";
 import type { Placement } from "@/lib/placement/model";
 import { rulerTicks, rulerTicksCm, scaleOf, snapArtPosition, toStage, type View } from "@/lib/editor/view";
 import type { LengthUnit } from "@/lib/units";
+import { formatLength } from "@/lib/units";
 import { inkOn, shade } from "./colour";
 
 export type ArtImage = { id: string; image: HTMLImageElement | null };
@@ -32,6 +33,14 @@ type Props = {
   onCommit: (id: string, patch: PlacementCommit) => void;
   onPan: (dx: number, dy: number) => void;
   onLiveChange?: (id: string, patch: PlacementCommit) => void;
+  /** Review views: dimension callouts on each print. */
+  callouts?: boolean;
+  /** Review views: numbered pins in garment inches. */
+  pins?: Array<{ id: string; n: number; xIn: number; yIn: number; resolved: boolean; active?: boolean }>;
+  /** A tap or click on the garment (not a drag), in garment inches. */
+  onGarmentClick?: (point: Point) => void;
+  /** A simple body figure drawn behind the garment (worn view). */
+  figure?: Point[][];
 };
 
 export const RULER_PX = 26;
@@ -54,6 +63,7 @@ export default function ProofStage(props: Props) {
   const transformer = useRef<Konva.Transformer>(null);
   const nodes = useRef<Record<string, Konva.Image | null>>({});
   const panning = useRef<{ x: number; y: number } | null>(null);
+  const travelled = useRef(0);
 
   useEffect(() => {
     const tr = transformer.current;
@@ -120,12 +130,24 @@ export default function ProofStage(props: Props) {
           props.onSelect(null);
           const pos = e.target.getStage()?.getPointerPosition();
           if (pos) panning.current = pos;
+          travelled.current = 0;
         }
+      }}
+      onClick={(e) => {
+        if (!props.onGarmentClick || travelled.current > 4) return;
+        const pos = e.target.getStage()?.getPointerPosition();
+        if (pos && pos.x > RULER_PX && pos.y > RULER_PX) props.onGarmentClick({ x: (pos.x - view.originX) / s, y: (pos.y - view.originY) / s });
+      }}
+      onTap={(e) => {
+        if (!props.onGarmentClick) return;
+        const pos = e.target.getStage()?.getPointerPosition();
+        if (pos && pos.x > RULER_PX && pos.y > RULER_PX) props.onGarmentClick({ x: (pos.x - view.originX) / s, y: (pos.y - view.originY) / s });
       }}
       onMouseMove={(e) => {
         if (!panning.current) return;
         const pos = e.target.getStage()?.getPointerPosition();
         if (!pos) return;
+        travelled.current += Math.abs(pos.x - panning.current.x) + Math.abs(pos.y - panning.current.y);
         props.onPan(pos.x - panning.current.x, pos.y - panning.current.y);
         panning.current = pos;
       }}
@@ -138,6 +160,9 @@ export default function ProofStage(props: Props) {
     >
       <Layer listening={false}>
         <Rect x={0} y={0} width={width} height={height} fill="#ece6d9" />
+        {(props.figure ?? []).map((shape, i) => (
+          <Line key={`fig${i}`} points={flat(shape, view)} closed fill="#c9b8a6" stroke="#a8957f" strokeWidth={1} />
+        ))}
         {garment.handles.slice(1).map((h, i) => (
           <Line key={`hb${i}`} points={h} closed fill={shade(colourHex, -0.12)} stroke={ink.seam} strokeWidth={1} />
         ))}
@@ -276,6 +301,21 @@ export default function ProofStage(props: Props) {
         />
       </Layer>
 
+      {props.callouts || props.pins?.length ? (
+        <Layer listening={false}>
+          {props.callouts ? props.placements.map((p) => <Callouts key={`co-${p.id}`} placement={p} view={view} unit={props.unit} colour={ink.label} />) : null}
+          {(props.pins ?? []).map((pin) => {
+            const at = toStage(view, { x: pin.xIn, y: pin.yIn });
+            return (
+              <Group key={pin.id} x={at.x} y={at.y} opacity={pin.resolved ? 0.55 : 1}>
+                <Line points={[0, 0, -9, -16, 9, -16]} closed fill={pin.active ? "#b7791f" : "#a8412f"} />
+                <Rect x={-11} y={-34} width={22} height={22} cornerRadius={11} fill={pin.active ? "#b7791f" : "#a8412f"} stroke="#fdfdfb" strokeWidth={2} />
+                <Text x={-11} y={-29} width={22} align="center" text={String(pin.n)} fontSize={12} fontStyle="bold" fill="#fdfdfb" />
+              </Group>
+            );
+          })}
+        </Layer>
+      ) : null}
       <Rulers width={width} height={height} view={view} unit={props.unit} />
     </Stage>
   );
@@ -298,7 +338,7 @@ function Rulers({ width, height, view, unit }: { width: number; height: number; 
     for (const t of rulerTicksCm(fromY, toY, s)) marks.push({ pos: view.originY + t.atIn * s, len: len[t.kind], label: t.kind === "cm" && (s / 2.54 >= 14 || t.cm % 2 === 0) ? String(t.cm) : undefined, horizontal: false });
   }
   return (
-    <Layer listening={false}>
+    <Layer listening={false} name="rulers">
       <Rect x={0} y={0} width={width} height={RULER_PX} fill="#fbfaf6" stroke="#ddd4c1" strokeWidth={1} />
       <Rect x={0} y={0} width={RULER_PX} height={height} fill="#fbfaf6" stroke="#ddd4c1" strokeWidth={1} />
       {marks.map((m, i) =>
@@ -317,5 +357,52 @@ function Rulers({ width, height, view, unit }: { width: number; height: number; 
       <Rect x={0} y={0} width={RULER_PX} height={RULER_PX} fill="#f6f3ec" />
       <Text x={4} y={8} text={unit} fontSize={10} fill="#686e78" />
     </Layer>
+  );
+}
+
+/** Width, height, distance below the collar and offset from center, drawn on the garment. */
+function Callouts({ placement: p, view, unit, colour }: { placement: Placement; view: View; unit: LengthUnit; colour: string }) {
+  const s = scaleOf(view);
+  const topLeft = toStage(view, { x: p.offsetFromCenterIn - p.widthIn / 2, y: p.belowCollarIn });
+  const w = p.widthIn * s;
+  const h = p.heightIn * s;
+  const centreX = view.originX + p.offsetFromCenterIn * s;
+  const collarY = view.originY;
+  const ink = "#b7791f";
+  const label = (text: string, x: number, y: number, align: "center" | "left" | "right" = "center") => {
+    const w = text.length * 6.4 + 10;
+    const left = align === "center" ? -w / 2 : align === "left" ? -3 : -w + 3;
+    return (
+      <Group x={x} y={y}>
+        <Rect x={left} y={-9} width={w} height={18} cornerRadius={4} fill="#fdfdfb" opacity={0.92} />
+        <Text x={left + 5} y={-6} text={text} fontSize={11} fontStyle="bold" fill="#23262b" />
+      </Group>
+    );
+  };
+  const offset = p.offsetFromCenterIn;
+  return (
+    <Group>
+      <Line points={[topLeft.x, topLeft.y - 14, topLeft.x + w, topLeft.y - 14]} stroke={ink} strokeWidth={1.5} />
+      <Line points={[topLeft.x, topLeft.y - 19, topLeft.x, topLeft.y - 9]} stroke={ink} strokeWidth={1.5} />
+      <Line points={[topLeft.x + w, topLeft.y - 19, topLeft.x + w, topLeft.y - 9]} stroke={ink} strokeWidth={1.5} />
+      {label(`${formatLength(p.widthIn, unit)} wide`, topLeft.x + w / 2, topLeft.y - 14)}
+      <Line points={[topLeft.x + w + 14, topLeft.y, topLeft.x + w + 14, topLeft.y + h]} stroke={ink} strokeWidth={1.5} />
+      <Line points={[topLeft.x + w + 9, topLeft.y, topLeft.x + w + 19, topLeft.y]} stroke={ink} strokeWidth={1.5} />
+      <Line points={[topLeft.x + w + 9, topLeft.y + h, topLeft.x + w + 19, topLeft.y + h]} stroke={ink} strokeWidth={1.5} />
+      {label(`${formatLength(p.heightIn, unit)} high`, topLeft.x + w + 22, topLeft.y + h / 2, "left")}
+      {p.belowCollarIn > 0 ? (
+        <>
+          <Line points={[topLeft.x - 12, collarY, topLeft.x - 12, topLeft.y]} stroke={ink} strokeWidth={1.5} dash={[4, 3]} />
+          <Line points={[topLeft.x - 17, collarY, topLeft.x - 7, collarY]} stroke={ink} strokeWidth={1.5} />
+          {label(`${formatLength(p.belowCollarIn, unit)} below collar`, topLeft.x - 16, collarY + (topLeft.y - collarY) / 2, "right")}
+        </>
+      ) : null}
+      {Math.abs(offset) >= 1 / 16 ? (
+        <>
+          <Line points={[view.originX, topLeft.y + h + 14, centreX, topLeft.y + h + 14]} stroke={ink} strokeWidth={1.5} dash={[4, 3]} />
+          {label(`${formatLength(Math.abs(offset), unit)} from center`, (view.originX + centreX) / 2, topLeft.y + h + 14)}
+        </>
+      ) : null}
+    </Group>
   );
 }

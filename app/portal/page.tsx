@@ -2,14 +2,17 @@ import { requireActorPage } from "@/app/_server/access";
 import { EmptyState } from "@/components/ui/EmptyState";
 import { PageHeader } from "@/components/ui/PageHeader";
 import { StatusBadge } from "@/components/ui/StatusBadge";
+import Link from "next/link";
 import { listJobsForClients } from "@/db/queries/jobs";
+import { listSharedProofsForClients } from "@/db/queries/review";
 
 export const dynamic = "force-dynamic";
 export const metadata = { title: "My jobs" };
 
 export default async function PortalPage() {
   const actor = await requireActorPage("/portal");
-  const jobs = await listJobsForClients({ clientIds: actor.contacts.map((c) => c.clientId) });
+  const clientIds = actor.contacts.map((c) => c.clientId);
+  const [jobs, shared] = await Promise.all([listJobsForClients({ clientIds }), listSharedProofsForClients({ clientIds })]);
   return (
     <>
       <PageHeader title="My jobs" lead="Proofs your print shop has prepared for you." />
@@ -27,6 +30,19 @@ export default async function PortalPage() {
                 </span>
               </span>
               <StatusBadge status={job.status} />
+              {shared.filter((p) => p.jobId === job.id).length ? (
+                <ul className="w-full space-y-1">
+                  {shared
+                    .filter((p) => p.jobId === job.id)
+                    .map((p) => (
+                      <li key={p.proofId}>
+                        <Link href={`/portal/proofs/${p.proofId}`} className="text-sm font-medium text-patina-700 hover:underline">
+                          Review “{p.name}” →
+                        </Link>
+                      </li>
+                    ))}
+                </ul>
+              ) : null}
             </li>
           ))}
         </ul>

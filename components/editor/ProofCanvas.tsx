@@ -7,6 +7,7 @@ import { locationSpec, sideOf, type LocationSpec } from "@/lib/garments/location
 import { buildSilhouette } from "@/lib/garments/silhouette";
 import type { GarmentCategory, GarmentSide, SizeGroup, GarmentMeasurements } from "@/lib/garments/types";
 import { centredOrigin, fitZoom, scaleOf, type View } from "@/lib/editor/view";
+import { bodyFigure } from "@/lib/review/figure";
 import type { Placement } from "@/lib/placement/model";
 import type { LengthUnit } from "@/lib/units";
 
@@ -36,6 +37,10 @@ type Props = {
   onCommit: (id: string, patch: PlacementCommit) => void;
   onLiveChange?: (id: string, patch: PlacementCommit) => void;
   className?: string;
+  callouts?: boolean;
+  pins?: Array<{ id: string; n: number; xIn: number; yIn: number; resolved: boolean; active?: boolean }>;
+  onGarmentClick?: (point: { x: number; y: number }) => void;
+  worn?: boolean;
 };
 
 function useImages(art: ArtSource[]) {
@@ -67,12 +72,16 @@ export function ProofCanvas(props: Props) {
   const images = useImages(props.art);
 
   const silhouette = useMemo(() => buildSilhouette(props.category, props.measurements, props.side), [props.category, props.measurements, props.side]);
+  const figure = useMemo(() => {
+    if (!props.worn || !("bodyLength" in props.measurements)) return undefined;
+    return bodyFigure({ silhouette, bodyLength: props.measurements.bodyLength, chestWidth: props.measurements.chestWidth, neckWidth: props.measurements.neckWidth });
+  }, [props.worn, props.measurements, silhouette]);
   const garmentBox = useMemo(() => {
-    const pts = [...silhouette.outline, ...(silhouette.hood ?? []), ...(silhouette.handles ?? []).flat()];
+    const pts = [...silhouette.outline, ...(silhouette.hood ?? []), ...(silhouette.handles ?? []).flat(), ...(figure ?? []).flat()];
     const xs = pts.map((p) => p.x);
     const ys = pts.map((p) => p.y);
     return { x: Math.min(...xs), y: Math.min(...ys), width: Math.max(...xs) - Math.min(...xs), height: Math.max(...ys) - Math.min(...ys) };
-  }, [silhouette]);
+  }, [silhouette, figure]);
 
   useEffect(() => {
     const el = box.current;
@@ -156,6 +165,10 @@ export function ProofCanvas(props: Props) {
           onSelect={props.onSelect}
           onCommit={props.onCommit}
           onLiveChange={props.onLiveChange}
+          callouts={props.callouts}
+          pins={props.pins}
+          onGarmentClick={props.onGarmentClick}
+          figure={figure}
           onPan={(dx, dy) => {
             const scale = scaleOf(view);
             setPan((p) => {

@@ -19,7 +19,9 @@ import { CalibrationDialog } from "./CalibrationDialog";
 import { useCalibration } from "./calibration";
 import { Inspector } from "./Inspector";
 import { ProofCanvas, type ArtSource } from "./ProofCanvas";
+import { ClientNotes } from "./ClientNotes";
 import { SaveIndicator } from "./SaveIndicator";
+import { SharePanel } from "./SharePanel";
 import { createEditorStore, EditorContext, useEditor, type EditorStore } from "./store";
 import { useAutosave } from "./useAutosave";
 
@@ -53,6 +55,7 @@ type Props = {
   artworks: EditorArtwork[];
   canEdit: boolean;
   initialZoom: number | null;
+  contact: { email: string; name: string } | null;
 };
 
 export function ProofEditor(props: Props) {
@@ -76,6 +79,7 @@ function EditorBody(props: Props & { store: EditorStore }) {
   const temporal = useStore(store.temporal);
   const calibration = useCalibration(true);
   const [calibrating, setCalibrating] = useState(false);
+  const [sharing, setSharing] = useState(false);
   const [live, setLive] = useState<{ id: string; patch: PlacementCommit } | null>(null);
 
   const zoom = zoomValue > 0 ? zoomValue : null;
@@ -86,7 +90,8 @@ function EditorBody(props: Props & { store: EditorStore }) {
     (input: { baseVersion: number; doc: ProofDoc }) => saveProofAction({ shopSlug: props.shopSlug, proofId: props.proof.id, ...input }),
     [props.shopSlug, props.proof.id],
   );
-  const autosave = useAutosave({ proofId: props.proof.id, store, initialVersion: props.proof.version, enabled: props.canEdit, save });
+  const [revision, setRevision] = useState(props.proof.revision);
+  const autosave = useAutosave({ proofId: props.proof.id, store, initialVersion: props.proof.version, enabled: props.canEdit, save, onSaved: setRevision });
 
   const art: ArtSource[] = useMemo(
     () =>
@@ -172,7 +177,7 @@ function EditorBody(props: Props & { store: EditorStore }) {
             </Link>
           </p>
           <h1 className="truncate text-lg leading-tight">
-            {props.proof.name} <span className="measure text-sm font-medium text-ink-500">rev. {props.proof.revision}</span>
+            {props.proof.name} <span className="measure text-sm font-medium text-ink-500" data-testid="revision-letter">rev. {revision}</span>
           </h1>
         </div>
         <SaveIndicator status={autosave.status} editable={props.canEdit} onTakeTheirs={autosave.takeTheirs} onKeepMine={autosave.keepMine} />
@@ -205,6 +210,11 @@ function EditorBody(props: Props & { store: EditorStore }) {
               </button>
             ))}
           </div>
+          {props.canEdit ? (
+            <button type="button" className="btn-primary px-3 py-1.5" onClick={() => setSharing(true)}>
+              Share with client
+            </button>
+          ) : null}
           <div className="flex gap-1">
             <button type="button" className="btn-quiet px-3 py-1.5" disabled={!temporal.pastStates.length || !props.canEdit} onClick={() => temporal.undo()} title="Undo (Ctrl+Z)">
               Undo
@@ -279,8 +289,10 @@ function EditorBody(props: Props & { store: EditorStore }) {
             onAdd={addArt}
             uploadSlot={<DropZone shopSlug={props.shopSlug} clientId={props.job.clientId} onUploaded={() => router.refresh()} />}
           />
+          <ClientNotes proofId={props.proof.id} canReply={props.canEdit} />
         </aside>
       </div>
+      <SharePanel open={sharing} onClose={() => setSharing(false)} shopSlug={props.shopSlug} proofId={props.proof.id} defaultEmail={props.contact?.email ?? null} defaultName={props.contact?.name ?? null} />
       <CalibrationDialog open={calibrating} current={calibration.pxPerInch} onClose={() => setCalibrating(false)} onSave={calibration.save} saving={calibration.saving} error={calibration.error} />
     </div>
   );

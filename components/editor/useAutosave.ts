@@ -27,7 +27,7 @@ function pendingKey(proofId: string) {
  * reload or a lost connection never loses them; failed saves are retried; a stale save is refused
  * by the server and the fresh state is offered instead of overwriting it.
  */
-export function useAutosave(opts: { proofId: string; store: EditorStore; initialVersion: number; enabled: boolean; save: Saver }) {
+export function useAutosave(opts: { proofId: string; store: EditorStore; initialVersion: number; enabled: boolean; save: Saver; onSaved?: (revision: string) => void }) {
   const { proofId, store, enabled, save } = opts;
   const [status, setStatus] = useState<SaveStatus>({ kind: "saved", at: null });
   const version = useRef(opts.initialVersion);
@@ -38,6 +38,10 @@ export function useAutosave(opts: { proofId: string; store: EditorStore; initial
   const blocked = useRef(false);
   const scheduleRef = useRef<() => void>(() => {});
   const flushRef = useRef<() => Promise<void>>(async () => {});
+  const onSavedRef = useRef(opts.onSaved);
+  useEffect(() => {
+    onSavedRef.current = opts.onSaved;
+  });
 
   const flush = useCallback(async () => {
     if (!enabled || inFlight.current || blocked.current) return;
@@ -65,6 +69,7 @@ export function useAutosave(opts: { proofId: string; store: EditorStore; initial
     attempt.current = 0;
     if (result.ok) {
       version.current = result.version;
+      onSavedRef.current?.(result.revision);
       savedDoc.current = doc;
       if (store.getState().doc === doc) {
         window.localStorage.removeItem(pendingKey(proofId));

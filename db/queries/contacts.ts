@@ -7,3 +7,8 @@ export async function findContactByEmail({ email }: { email: string }) {
   const [row] = await db.select().from(clientContacts).where(eq(clientContacts.email, email.trim().toLowerCase())).limit(1);
   return row;
 }
+
+export async function firstContact({ clientId }: { clientId: string }) {
+  const [row] = await db.select().from(clientContacts).where(eq(clientContacts.clientId, clientId)).orderBy(clientContacts.createdAt).limit(1);
+  return row;
+}

@@ -3,7 +3,8 @@ import { and, asc, eq, inArray, isNull, or, sql } from "drizzle-orm";
 import type { Placement } from "@/lib/placement/model";
 import { db } from "../client";
 import { artworkSummary, type ArtworkSummary } from "./artworks";
-import { artworks, blanks, calibrations, clients, jobs, placements, proofs, type Blank, type Proof } from "../schema";
+import { nextRevisionLetter } from "@/lib/review/diff";
+import { artworks, blanks, calibrations, clients, jobs, placements, proofRevisions, proofs, type Blank, type Proof } from "../schema";
 
 export type ProofDocument = {
   proof: Proof;
@@ -94,7 +95,7 @@ export type SaveProofInput = {
 };
 
 export type SaveProofResult =
-  | { kind: "saved"; version: number; updatedAt: Date }
+  | { kind: "saved"; version: number; updatedAt: Date; revision: string }
   | { kind: "conflict"; current: ProofDocument }
   | { kind: "missing" };
 
@@ -104,9 +105,20 @@ export type SaveProofResult =
  */
 export async function saveProof(input: SaveProofInput): Promise<SaveProofResult> {
   const outcome = await db.transaction(async (tx) => {
+    // An approved revision is locked: the first edit after approval starts the next letter.
+    const [current] = await tx.select({ revision: proofs.revision }).from(proofs).where(and(eq(proofs.id, input.proofId), eq(proofs.shopId, input.shopId)));
+    let revision = current?.revision;
+    if (revision) {
+      const [frozen] = await tx
+        .select({ state: proofRevisions.state })
+        .from(proofRevisions)
+        .where(and(eq(proofRevisions.proofId, input.proofId), eq(proofRevisions.letter, revision)));
+      if (frozen?.state === "approved") revision = nextRevisionLetter(revision);
+    }
     const [updated] = await tx
       .update(proofs)
       .set({
+        ...(revision ? { revision } : {}),
         version: sql`${proofs.version} + 1`,
         size: input.size,
         colourName: input.colourName,
@@ -115,7 +127,7 @@ export async function saveProof(input: SaveProofInput): Promise<SaveProofResult>
         updatedAt: new Date(),
       })
       .where(and(eq(proofs.id, input.proofId), eq(proofs.shopId, input.shopId), eq(proofs.version, input.baseVersion)))
-      .returning({ version: proofs.version, updatedAt: proofs.updatedAt });
+      .returning({ version: proofs.version, updatedAt: proofs.updatedAt, revision: proofs.revision });
     if (!updated) return null;
     await tx.delete(placements).where(eq(placements.proofId, input.proofId));
     if (input.placements.length) {
@@ -123,7 +135,7 @@ export async function saveProof(input: SaveProofInput): Promise<SaveProofResult>
     }
     return updated;
   });
-  if (outcome) return { kind: "saved", version: outcome.version, updatedAt: outcome.updatedAt };
+  if (outcome) return { kind: "saved", version: outcome.version, updatedAt: outcome.updatedAt, revision: outcome.revision };
   const current = await getProofDocument({ shopId: input.shopId, proofId: input.proofId });
   return current ? { kind: "conflict", current } : { kind: "missing" };
 }

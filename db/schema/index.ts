@@ -5,3 +5,4 @@ export * from "./audit";
 export * from "./jobs";
 export * from "./blanks";
 export * from "./proofs";
+export * from "./review";

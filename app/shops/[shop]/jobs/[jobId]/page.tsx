@@ -6,6 +6,7 @@ import { PageHeader } from "@/components/ui/PageHeader";
 import { StatusBadge } from "@/components/ui/StatusBadge";
 import { findJob } from "@/db/queries/jobs";
 import { listProofsForJob } from "@/db/queries/proofs";
+import { listJobDecisions } from "@/db/queries/review";
 import { DECORATION_LABELS } from "@/lib/jobs";
 
 export const dynamic = "force-dynamic";
@@ -16,7 +17,7 @@ export default async function JobPage({ params }: { params: Promise<{ shop: stri
   const access = await requireShopPage(shop, "jobs.view", `/shops/${shop}/jobs/${jobId}`);
   const job = await findJob({ shopId: access.shop.id, jobId });
   if (!job) notFound();
-  const proofs = await listProofsForJob({ shopId: access.shop.id, jobId });
+  const [proofs, decisions] = await Promise.all([listProofsForJob({ shopId: access.shop.id, jobId }), listJobDecisions({ shopId: access.shop.id, jobId })]);
   return (
     <>
       <p className="mb-2 text-sm">
@@ -51,6 +52,28 @@ export default async function JobPage({ params }: { params: Promise<{ shop: stri
                 </p>
                 <p className="mt-2 text-xs text-ink-500">Updated {p.updatedAt.toLocaleString("en-US", { dateStyle: "medium", timeStyle: "short" })}</p>
               </Link>
+            </li>
+          ))}
+        </ul>
+      )}
+      <h2 className="mb-3 mt-8 text-lg">Approval record</h2>
+      {decisions.length === 0 ? (
+        <EmptyState title="No decisions yet">When the client approves a revision or asks for changes, the record appears here.</EmptyState>
+      ) : (
+        <ul className="card divide-y divide-paper-200" data-testid="approval-record">
+          {decisions.map((d) => (
+            <li key={d.id} className="px-4 py-3 text-sm">
+              <p className="font-medium">
+                {d.decision === "approved" ? "Approved" : "Changes asked for"}: {d.proofName}, revision {d.revisionLetter}
+              </p>
+              <p className="text-ink-600">
+                By {d.fullName} on {d.at.toLocaleString("en-US", { dateStyle: "medium", timeStyle: "medium" })}
+                {d.viaLink ? " through a review link" : " signed in"}
+              </p>
+              {d.decision === "approved" ? <p className="mt-1 text-xs text-ink-500">“{d.statement}”</p> : null}
+              <p className="measure mt-1 text-xs text-ink-500">
+                IP {d.ip ?? "unknown"} · {d.userAgent ?? "unknown browser"}
+              </p>
             </li>
           ))}
         </ul>

@@ -14,7 +14,7 @@ const saveSchema = z.object({
 });
 
 export type SaveProofResponse =
-  | { ok: true; version: number; savedAt: string }
+  | { ok: true; version: number; savedAt: string; revision: string }
   | { ok: false; kind: "conflict"; message: string; version: number; doc: ProofDoc }
   | { ok: false; kind: "invalid" | "denied" | "missing" | "error"; message: string };
 
@@ -44,7 +44,7 @@ export async function saveProofAction(input: z.input<typeof saveSchema>): Promis
 
   try {
     const result = await saveProof({ shopId: shop.id, proofId, baseVersion, ...doc, userId: actor.id });
-    if (result.kind === "saved") return { ok: true, version: result.version, savedAt: result.updatedAt.toISOString() };
+    if (result.kind === "saved") return { ok: true, version: result.version, savedAt: result.updatedAt.toISOString(), revision: result.revision };
     if (result.kind === "missing") return { ok: false, kind: "missing", message: "This proof no longer exists." };
     return {
       ok: false,

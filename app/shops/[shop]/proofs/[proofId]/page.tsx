@@ -1,6 +1,7 @@
 import { notFound } from "next/navigation";
 import { requireShopPage } from "@/app/_server/access";
 import { ProofEditor } from "@/components/editor/ProofEditor";
+import { firstContact } from "@/db/queries/contacts";
 import { getProofDocument } from "@/db/queries/proofs";
 import { can } from "@/lib/access";
 import { toEditorDoc } from "@/lib/editor/from-server";
@@ -20,6 +21,7 @@ export default async function ProofPage({ params, searchParams }: { params: Prom
   const document = await getProofDocument({ shopId: access.shop.id, proofId });
   if (!document) notFound();
   const requested = Number(zoom);
+  const contact = await firstContact({ clientId: document.job.clientId });
   return (
     <ProofEditor
       shopSlug={access.shop.slug}
@@ -30,6 +32,7 @@ export default async function ProofPage({ params, searchParams }: { params: Prom
       artworks={document.artworks}
       canEdit={can(access.role, "proofs.edit")}
       initialZoom={Number.isFinite(requested) && requested > 0 ? clampZoom(requested) : null}
+      contact={contact ? { email: contact.email, name: contact.name } : null}
     />
   );
 }

@@ -1,0 +1,70 @@
+import "server-only";
+import type { ReviewViewProps } from "@/components/review/ReviewView";
+import { findBlank } from "@/db/queries/blanks";
+import { listApprovals, listComments, listRevisions, markSeen, proofContext } from "@/db/queries/review";
+import { describeRevisionChanges } from "@/lib/review/diff";
+import { loadReview, type Reviewer } from "./review";
+
+/** Everything the review page draws, from the latest revision sent to the client (never the working copy). */
+export async function buildReviewProps(reviewer: Reviewer, key: string): Promise<ReviewViewProps | null> {
+  const data = await loadReview(reviewer);
+  if (!data) return null;
+  const { document } = data;
+  const revisions = await listRevisions({ proofId: document.proof.id });
+  const latest = revisions[revisions.length - 1];
+  // Shop members may preview before anything was sent; clients only ever see a sent revision.
+  if (!latest && reviewer.kind !== "shop") return null;
+  const snapshot = latest?.snapshot ?? {
+    blankId: document.blank.id,
+    blankName: document.blank.name,
+    size: document.proof.size,
+    colourName: document.proof.colourName,
+    placements: document.placements,
+  };
+  const blank = (await findBlank({ shopId: reviewer.shopId, blankId: snapshot.blankId })) ?? document.blank;
+  const colourHex = blank.colours.find((c) => c.name === snapshot.colourName)?.hex ?? document.proof.colourHex;
+
+  let sinceLetter: string | null = null;
+  if (reviewer.kind === "link") sinceLetter = reviewer.link.lastSeenLetter;
+  else if (revisions.length > 1) sinceLetter = revisions[revisions.length - 2]!.letter;
+  const since = sinceLetter && latest && sinceLetter !== latest.letter ? revisions.find((r) => r.letter === sinceLetter) : undefined;
+  const changes = since && latest ? { since: since.letter, lines: describeRevisionChanges(since.snapshot, latest.snapshot) } : null;
+  if (reviewer.kind === "link" && latest) await markSeen({ linkId: reviewer.link.id, letter: latest.letter });
+
+  const placedArt = new Set(snapshot.placements.map((p) => p.artworkId).filter(Boolean));
+  const [comments, approvals] = await Promise.all([listComments({ proofId: document.proof.id }), listApprovals({ proofId: document.proof.id })]);
+  const context = await proofContext({ proofId: document.proof.id });
+  return {
+    reviewKind: reviewer.kind === "link" ? "link" : "proof",
+    reviewKey: key,
+    shopName: context?.shopName ?? "",
+    jobTitle: document.job.title,
+    proofName: document.proof.name,
+    snapshot,
+    colourHex,
+    blank: { category: blank.category, name: blank.name, sizeChart: blank.sizeChart },
+    art: document.artworks.filter((a) => placedArt.has(a.id)).map((a) => ({ id: a.id, name: a.name, kind: a.kind, svg: a.kind === "generated" ? a.svg : null, inkWidthPx: a.inkWidthPx, inkHeightPx: a.inkHeightPx })),
+    canComment: reviewer.canComment,
+    canApprove: reviewer.canApprove,
+    viewerName: reviewer.displayName,
+    changes,
+    signedIn: reviewer.kind !== "link",
+    initial: {
+      comments: comments.map((c) => ({
+        id: c.id,
+        parentId: c.parentId,
+        side: c.side,
+        xIn: c.xIn,
+        yIn: c.yIn,
+        body: c.body,
+        authorName: c.authorName,
+        authorRole: c.authorRole,
+        revisionLetter: c.revisionLetter,
+        createdAt: c.createdAt.toISOString(),
+        resolvedAt: c.resolvedAt?.toISOString() ?? null,
+      })),
+      revision: latest ? { letter: latest.letter, state: latest.state, sentAt: latest.sentAt.toISOString() } : null,
+      approvals: approvals.map((a) => ({ id: a.id, decision: a.decision, fullName: a.fullName, revisionLetter: a.revisionLetter, at: a.at.toISOString() })),
+    },
+  };
+}

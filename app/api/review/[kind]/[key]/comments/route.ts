@@ -1,0 +1,104 @@
+import { NextResponse } from "next/server";
+import { z } from "zod";
+import { notifyClientComment, notifyShopReply } from "@/app/_server/notify";
+import { takeToken } from "@/app/_server/rate-limit";
+import { clientIp, resolveReview } from "@/app/_server/review";
+import { addComment, latestRevision, listApprovals, listComments, listShareLinks, setCommentResolved } from "@/db/queries/review";
+
+export const dynamic = "force-dynamic";
+
+type Params = { params: Promise<{ kind: string; key: string }> };
+
+const postSchema = z
+  .object({
+    body: z.string().trim().min(1, "Write a note first.").max(2000, "Keep a note under 2,000 characters."),
+    parentId: z.string().min(1).max(80).nullable().default(null),
+    side: z.enum(["front", "back"]).nullable().default(null),
+    xIn: z.number().finite().min(-60).max(60).nullable().default(null),
+    yIn: z.number().finite().min(-60).max(60).nullable().default(null),
+    authorName: z.string().trim().min(1).max(80).optional(),
+  })
+  .refine((v) => v.parentId !== null || (v.side !== null && v.xIn !== null && v.yIn !== null), { message: "Tap the garment where the note belongs." });
+
+const patchSchema = z.object({ commentId: z.string().min(1).max(80), resolved: z.boolean() });
+
+function error(status: number, message: string) {
+  return NextResponse.json({ error: message }, { status });
+}
+
+async function payload(proofId: string) {
+  const [comments, revision, approvals] = await Promise.all([listComments({ proofId }), latestRevision({ proofId }), listApprovals({ proofId })]);
+  return {
+    comments: comments.map((c) => ({
+      id: c.id,
+      parentId: c.parentId,
+      side: c.side,
+      xIn: c.xIn,
+      yIn: c.yIn,
+      body: c.body,
+      authorName: c.authorName,
+      authorRole: c.authorRole,
+      revisionLetter: c.revisionLetter,
+      createdAt: c.createdAt.toISOString(),
+      resolvedAt: c.resolvedAt?.toISOString() ?? null,
+    })),
+    revision: revision ? { letter: revision.letter, state: revision.state, sentAt: revision.sentAt.toISOString() } : null,
+    approvals: approvals.map((a) => ({ id: a.id, decision: a.decision, fullName: a.fullName, revisionLetter: a.revisionLetter, at: a.at.toISOString() })),
+  };
+}
+
+export async function GET(_request: Request, { params }: Params) {
+  const { kind, key } = await params;
+  const access = await resolveReview(kind, key);
+  if (!access.ok) return error(access.status, access.message);
+  return NextResponse.json(await payload(access.reviewer.proofId), { headers: { "Cache-Control": "no-store" } });
+}
+
+export async function POST(request: Request, { params }: Params) {
+  const { kind, key } = await params;
+  const access = await resolveReview(kind, key);
+  if (!access.ok) return error(access.status, access.message);
+  const reviewer = access.reviewer;
+  if (!reviewer.canComment) return error(403, "This link lets you look, not comment.");
+  const limitKey = reviewer.kind === "link" ? `comment:${reviewer.link.id}:${clientIp(request) ?? "?"}` : `comment:${reviewer.actor.id}`;
+  if (!takeToken(limitKey, { capacity: 12, refillPerMinute: 6 })) return error(429, "That is a lot of notes at once. Wait a minute and try again.");
+  const raw = await request.json().catch(() => undefined);
+  const parsed = postSchema.safeParse(raw);
+  if (!parsed.success) return error(400, parsed.error.issues[0]?.message ?? "That note could not be read.");
+  const input = parsed.data;
+  const revision = await latestRevision({ proofId: reviewer.proofId });
+  const authorName = reviewer.kind === "link" ? (input.authorName ?? reviewer.displayName ?? "Client") : reviewer.displayName;
+  const comment = await addComment({
+    proofId: reviewer.proofId,
+    revisionLetter: revision?.letter ?? "A",
+    parentId: input.parentId,
+    side: input.parentId ? null : input.side,
+    xIn: input.parentId ? null : input.xIn,
+    yIn: input.parentId ? null : input.yIn,
+    body: input.body,
+    authorName,
+    authorRole: reviewer.kind === "shop" ? "shop" : "client",
+    authorUserId: reviewer.kind === "link" ? null : reviewer.actor.id,
+    shareLinkId: reviewer.kind === "link" ? reviewer.link.id : null,
+  });
+  // The note is saved; e-mail is best effort and never undoes it.
+  if (reviewer.kind === "shop") {
+    const links = await listShareLinks({ shopId: reviewer.shopId, proofId: reviewer.proofId });
+    void notifyShopReply({ proofId: reviewer.proofId, author: authorName, body: input.body, recipients: links.filter((l) => !l.revokedAt && l.recipientEmail).map((l) => l.recipientEmail!) });
+  } else {
+    void notifyClientComment({ proofId: reviewer.proofId, author: authorName, body: input.body });
+  }
+  return NextResponse.json({ comment: { id: comment.id }, ...(await payload(reviewer.proofId)) }, { status: 201 });
+}
+
+export async function PATCH(request: Request, { params }: Params) {
+  const { kind, key } = await params;
+  const access = await resolveReview(kind, key);
+  if (!access.ok) return error(access.status, access.message);
+  if (access.reviewer.kind !== "shop" || !access.reviewer.canComment) return error(403, "Only the shop team can resolve notes.");
+  const parsed = patchSchema.safeParse(await request.json().catch(() => undefined));
+  if (!parsed.success) return error(400, "Say which note to resolve or reopen.");
+  const row = await setCommentResolved({ proofId: access.reviewer.proofId, commentId: parsed.data.commentId, resolved: parsed.data.resolved, by: access.reviewer.actor.id });
+  if (!row) return error(404, "That note is not on this proof.");
+  return NextResponse.json(await payload(access.reviewer.proofId));
+}

@@ -1,0 +1,29 @@
+import { notFound } from "next/navigation";
+import { buildReviewProps } from "@/app/_server/review-props";
+import { resolveReview } from "@/app/_server/review";
+import { ReviewView } from "@/components/review/ReviewView";
+import { Logo } from "@/components/ui/Logo";
+
+export const dynamic = "force-dynamic";
+export const metadata = { title: "Proof review", robots: { index: false } };
+
+/** The client's review page for a share link. Works without an account, on a phone first. */
+export default async function ReviewByLinkPage({ params }: { params: Promise<{ token: string }> }) {
+  const { token } = await params;
+  const access = await resolveReview("link", token);
+  // Missing, wrong, withdrawn and expired links all end at the same clear page.
+  if (!access.ok) notFound();
+  const props = await buildReviewProps(access.reviewer, token);
+  if (!props) notFound();
+  return (
+    <div className="min-h-screen">
+      <header className="flex items-center justify-between border-b border-paper-300 bg-paper-100 px-gutter py-3">
+        <Logo />
+        <span className="text-xs text-ink-500">Proof from {props.shopName}</span>
+      </header>
+      <main className="px-3 py-4 sm:px-gutter sm:py-6">
+        <ReviewView {...props} />
+      </main>
+    </div>
+  );
+}
