@@ -92,6 +92,13 @@ export async function seedDemo(db: Db): Promise<{ seeded: boolean }> {
       ])
       .returning({ id: schema.proofs.id });
 
+    const run = (jobId: string, sizes: Array<[string, number]>) => sizes.map(([size, quantity], i) => ({ jobId, size, quantity, sortOrder: i }));
+    await tx.insert(schema.jobSizes).values([
+      ...run(teesJob!.id, [["XS", 2], ["S", 6], ["M", 10], ["L", 8], ["XL", 5], ["2XL", 3], ["3XL", 2], ["4XL", 1]]),
+      ...run(hoodiesJob!.id, [["S", 3], ["M", 6], ["L", 6], ["XL", 4], ["2XL", 2]]),
+      ...run(totesJob!.id, [["One size", 40]]),
+    ]);
+
     await tx.insert(schema.placements).values([
       { id: "demo-tee-front", proofId: teeProof!.id, location: "full-front", artworkId: artId("Eastfield club emblem"), widthIn: 10, heightIn: 10, offsetFromCenterIn: 0, belowCollarIn: 3, rotationDeg: 0, sortOrder: 0 },
       { id: "demo-tote-front", proofId: toteProof!.id, location: "tote-front", artworkId: artId("Larkspur Lane wordmark"), widthIn: 10, heightIn: 10 / 3, offsetFromCenterIn: 0, belowCollarIn: 5, rotationDeg: 0, sortOrder: 0 },

@@ -3,7 +3,7 @@
  * local fakes, then the app. Prints the URL and the demo sign-ins.
  */
 import { DEMO_ACCOUNTS, DEMO_PASSWORD } from "../db/seed";
-import { buildApp, buildIsFresh, startNext, stopChild, waitForHealth } from "./lib/next";
+import { buildApp, buildIsFresh, startNext, startWorker, stopChild, waitForHealth } from "./lib/next";
 import { bringUpStack } from "./lib/stack";
 
 const dev = process.argv.includes("--dev");
@@ -16,11 +16,14 @@ const stack = await bringUpStack({ mode: "dev", port }).catch((error: unknown) =
 });
 
 let shuttingDown = false;
+let app: ReturnType<typeof startNext> | undefined;
+let worker: ReturnType<typeof startWorker> | undefined;
 async function shutdown(code: number) {
   if (shuttingDown) return;
   shuttingDown = true;
   log("stopping…");
   if (app) await stopChild(app);
+  if (worker) await stopChild(worker);
   await stack.shutdown();
   process.exit(code);
 }
@@ -36,7 +39,8 @@ if (!dev && !buildIsFresh()) {
   }
 }
 
-const app = startNext({ dev, port, env: stack.env });
+app = startNext({ dev, port, env: stack.env });
+worker = startWorker(stack.env);
 app.on("exit", (code) => {
   if (!shuttingDown) {
     log(`the app stopped (code ${code ?? "?"})`);
@@ -46,7 +50,7 @@ app.on("exit", (code) => {
 
 const url = `http://localhost:${port}`;
 try {
-  await waitForHealth(url, dev ? 180_000 : 90_000, app);
+  await waitForHealth(url, dev ? 180_000 : 90_000, app!);
 } catch (error) {
   console.error(`[chalkline] ${error instanceof Error ? error.message : String(error)}`);
   await shutdown(1);

@@ -4,7 +4,7 @@
  */
 import { existsSync, mkdirSync, readFileSync, rmSync } from "node:fs";
 import path from "node:path";
-import { buildApp, startNext, stopChild, waitForHealth } from "./lib/next";
+import { buildApp, startNext, startWorker, stopChild, waitForHealth } from "./lib/next";
 import { isRoot, repoRoot, run } from "./lib/proc";
 import { bringUpStack } from "./lib/stack";
 
@@ -65,6 +65,7 @@ mkdirSync(reportDir, { recursive: true });
 let ok = true;
 const stack = await bringUpStack({ mode: "test", port: PORT });
 let app: ReturnType<typeof startNext> | undefined;
+let worker: ReturnType<typeof startWorker> | undefined;
 try {
   const testEnv = { ...stack.env, CHALKLINE_TEST: "1" };
   log("unit, component and integration tests");
@@ -74,6 +75,7 @@ try {
     await ensureChromium();
     await buildApp(testEnv, log);
     app = startNext({ dev: false, port: PORT, env: testEnv, quiet: true });
+    worker = startWorker(testEnv, true);
     await waitForHealth(`http://localhost:${PORT}`, 90_000, app);
     log(`end-to-end tests in ${CHROMIUM} against http://localhost:${PORT}`);
     ok = (await vitest(["e2e"], { ...testEnv, E2E_BASE_URL: `http://localhost:${PORT}`, CHROMIUM_PATH: CHROMIUM }, "e2e")) && ok;
@@ -84,6 +86,7 @@ try {
   console.error(`[test] ${error instanceof Error ? error.message : String(error)}`);
 } finally {
   if (app) await stopChild(app);
+  if (worker) await stopChild(worker);
   await stack.shutdown();
 }
 

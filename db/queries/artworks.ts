@@ -11,6 +11,7 @@ export const artworkSummary = {
   clientId: artworks.clientId,
   svg: artworks.svg,
   mime: artworks.mime,
+  fileUrl: artworks.fileUrl,
   bytes: artworks.bytes,
   isVector: artworks.isVector,
   inkWidthPx: artworks.inkWidthPx,

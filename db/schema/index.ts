@@ -6,3 +6,4 @@ export * from "./jobs";
 export * from "./blanks";
 export * from "./proofs";
 export * from "./review";
+export * from "./production";

@@ -70,3 +70,14 @@ export async function stopChild(child: ChildProcess): Promise<void> {
     child.kill("SIGTERM");
   });
 }
+
+const TSX_CLI = path.join(repoRoot, "node_modules", "tsx", "dist", "cli.mjs");
+
+/** The export worker, a separate process reading jobs from PostgreSQL. */
+export function startWorker(env: Record<string, string>, quiet = false): ChildProcess {
+  return spawn(process.execPath, [TSX_CLI, "--conditions=react-server", path.join(repoRoot, "scripts", "worker.ts")], {
+    cwd: repoRoot,
+    env: { ...process.env, ...env },
+    stdio: quiet ? ["ignore", "ignore", "inherit"] : "inherit",
+  });
+}

@@ -33,7 +33,14 @@ export default async function JobPage({ params }: { params: Promise<{ shop: stri
             {job.dueDate ? ` · due ${job.dueDate}` : ""}
           </>
         }
-        actions={<StatusBadge status={job.status} />}
+        actions={
+          <>
+            <StatusBadge status={job.status} />
+            <Link href={`/shops/${shop}/jobs/${jobId}/production`} className="btn-quiet px-3 py-1.5">
+              Production
+            </Link>
+          </>
+        }
       />
       {job.notes ? <p className="mb-6 max-w-prose text-ink-700">{job.notes}</p> : null}
       <h2 className="mb-3 text-lg">Proofs</h2>

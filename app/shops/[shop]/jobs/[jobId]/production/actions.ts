@@ -1,0 +1,114 @@
+"use server";
+
+import { revalidatePath } from "next/cache";
+import { z } from "zod";
+import { deniedAction, resolveShopAccess, type ActionResult } from "@/app/_server/access";
+import { enqueueExport } from "@/app/_server/queue";
+import { findJob } from "@/db/queries/jobs";
+import { createExport, findExport, markExport, saveGrading, saveJobSizes } from "@/db/queries/production";
+import { PAPER_SIZES, type PaperId } from "@/lib/production/tiling";
+
+const slug = z.string().min(1).max(80);
+const id = z.string().min(1).max(80);
+
+const sizesSchema = z.object({
+  shopSlug: slug,
+  jobId: id,
+  sizes: z
+    .array(z.object({ size: z.string().trim().min(1).max(12), quantity: z.number().int("Quantities are whole garments.").min(0, "Quantities cannot be negative.").max(100_000) }))
+    .max(40)
+    .refine((rows) => new Set(rows.map((r) => r.size)).size === rows.length, "Each size appears once."),
+});
+
+export async function saveSizeRunAction(input: z.input<typeof sizesSchema>): Promise<ActionResult<null>> {
+  const parsed = sizesSchema.safeParse(input);
+  if (!parsed.success) return { ok: false, error: parsed.error.issues[0]?.message ?? "Check the quantities." };
+  const access = await resolveShopAccess(parsed.data.shopSlug, "jobs.edit");
+  if (access.kind !== "ok") return deniedAction(access);
+  if (!(await findJob({ shopId: access.access.shop.id, jobId: parsed.data.jobId }))) return { ok: false, error: "Not found.", status: 404 };
+  await saveJobSizes({ jobId: parsed.data.jobId, sizes: parsed.data.sizes });
+  revalidatePath(`/shops/${parsed.data.shopSlug}/jobs/${parsed.data.jobId}/production`);
+  return { ok: true, data: null };
+}
+
+const gradingSchema = z.object({
+  shopSlug: slug,
+  jobId: id,
+  placementId: id,
+  transferCount: z.number().int().min(1).max(4),
+  assignment: z.record(z.string().max(12), z.number().positive().max(60)),
+  totalShortfall: z.number().min(0),
+});
+
+export async function saveGradingAction(input: z.input<typeof gradingSchema>): Promise<ActionResult<null>> {
+  const parsed = gradingSchema.safeParse(input);
+  if (!parsed.success) return { ok: false, error: "That grading could not be read." };
+  const access = await resolveShopAccess(parsed.data.shopSlug, "proofs.edit");
+  if (access.kind !== "ok") return deniedAction(access);
+  if (!(await findJob({ shopId: access.access.shop.id, jobId: parsed.data.jobId }))) return { ok: false, error: "Not found.", status: 404 };
+  const { shopSlug: _s, ...rest } = parsed.data;
+  await saveGrading(rest);
+  revalidatePath(`/shops/${parsed.data.shopSlug}/jobs/${parsed.data.jobId}/production`);
+  return { ok: true, data: null };
+}
+
+const exportSchema = z.discriminatedUnion("kind", [
+  z.object({ kind: z.literal("spec-sheet"), shopSlug: slug, jobId: id }),
+  z.object({
+    kind: z.literal("test-print"),
+    shopSlug: slug,
+    jobId: id,
+    proofId: id,
+    placementId: id,
+    size: z.string().min(1).max(12),
+    paper: z.enum(Object.keys(PAPER_SIZES) as [PaperId, ...PaperId[]]),
+    mirror: z.boolean(),
+    outline: z.boolean(),
+  }),
+  z.object({
+    kind: z.enum(["gang-sheet-png", "gang-sheet-pdf"]),
+    shopSlug: slug,
+    jobId: id,
+    rollWidthIn: z.union([z.literal(11), z.literal(13), z.literal(22), z.literal(24)]),
+    gapIn: z.number().min(0).max(2),
+    sparePercent: z.number().min(0).max(50),
+    allowRotation: z.boolean(),
+    maxSheetLengthIn: z.number().min(12).max(600),
+  }),
+]);
+
+/** Queues a heavy export for the worker; the page follows its progress. */
+export async function requestExportAction(input: z.input<typeof exportSchema>): Promise<ActionResult<{ exportId: string }>> {
+  const parsed = exportSchema.safeParse(input);
+  if (!parsed.success) return { ok: false, error: parsed.error.issues[0]?.message ?? "Check the export settings." };
+  const access = await resolveShopAccess(parsed.data.shopSlug, "production.view");
+  if (access.kind !== "ok") return deniedAction(access);
+  const { shopSlug, kind, jobId, ...params } = parsed.data;
+  if (!(await findJob({ shopId: access.access.shop.id, jobId }))) return { ok: false, error: "Not found.", status: 404 };
+  const exportId = await createExport({ shopId: access.access.shop.id, jobId, kind, params, requestedBy: access.access.actor.id });
+  try {
+    await enqueueExport(exportId);
+  } catch (error) {
+    console.error("[export queue]", error);
+    await markExport(exportId, { state: "failed", message: "The export queue is not answering. Try again in a moment." });
+  }
+  revalidatePath(`/shops/${shopSlug}/jobs/${jobId}/production`);
+  return { ok: true, data: { exportId } };
+}
+
+export async function retryExportAction(input: { shopSlug: string; exportId: string }): Promise<ActionResult<null>> {
+  const parsed = z.object({ shopSlug: slug, exportId: id }).safeParse(input);
+  if (!parsed.success) return { ok: false, error: "Unknown export." };
+  const access = await resolveShopAccess(parsed.data.shopSlug, "production.view");
+  if (access.kind !== "ok") return deniedAction(access);
+  const row = await findExport({ shopId: access.access.shop.id, exportId: parsed.data.exportId });
+  if (!row) return { ok: false, error: "Not found.", status: 404 };
+  if (row.state !== "failed") return { ok: false, error: "Only a failed export can be tried again." };
+  await markExport(row.id, { state: "queued", progress: 0, message: null });
+  try {
+    await enqueueExport(row.id);
+  } catch {
+    await markExport(row.id, { state: "failed", message: "The export queue is not answering. Try again in a moment." });
+  }
+  return { ok: true, data: null };
+}

@@ -1,0 +1,56 @@
+import Link from "next/link";
+import { notFound } from "next/navigation";
+import { requireShopPage } from "@/app/_server/access";
+import { PageHeader } from "@/components/ui/PageHeader";
+import { findJob } from "@/db/queries/jobs";
+import { listExports, listGradings, listJobSizes } from "@/db/queries/production";
+import { getProofDocument, listProofsForJob } from "@/db/queries/proofs";
+import { can } from "@/lib/access";
+import { LOCATION_LABELS } from "@/lib/garments/locations";
+import { ProductionBoard } from "./ProductionBoard";
+
+export const dynamic = "force-dynamic";
+export const metadata = { title: "Production" };
+
+export default async function ProductionPage({ params }: { params: Promise<{ shop: string; jobId: string }> }) {
+  const { shop, jobId } = await params;
+  const access = await requireShopPage(shop, "production.view", `/shops/${shop}/jobs/${jobId}/production`);
+  const job = await findJob({ shopId: access.shop.id, jobId });
+  if (!job) notFound();
+  const [sizes, gradings, proofList, exports] = await Promise.all([
+    listJobSizes({ jobId }),
+    listGradings({ jobId }),
+    listProofsForJob({ shopId: access.shop.id, jobId }),
+    listExports({ shopId: access.shop.id, jobId }),
+  ]);
+  const docs = (await Promise.all(proofList.map((p) => getProofDocument({ shopId: access.shop.id, proofId: p.id })))).filter((d): d is NonNullable<typeof d> => !!d);
+  return (
+    <>
+      <p className="mb-2 text-sm">
+        <Link href={`/shops/${shop}/jobs/${jobId}`} className="text-patina-700 hover:underline">
+          ← {job.title}
+        </Link>
+      </p>
+      <PageHeader title="Production" lead="Size run, print sizes per garment size, and the files the press needs." />
+      <div role="note" className="mb-6 rounded-card border border-ochre-300 bg-ochre-100 p-4 text-sm text-ochre-800">
+        <strong>Safety.</strong> Heat presses and transfer platens are hot enough to burn: follow the transfer or vinyl maker&apos;s time, temperature and pressure. Ventilate when curing. Children&apos;s garments: no drawstrings at the hood or neck in children&apos;s sizes 2T to 12 (US 16 CFR 1120), and add tracking labels where required. Local rules and the transfer maker&apos;s instructions come first.
+      </div>
+      <ProductionBoard
+        shopSlug={access.shop.slug}
+        jobId={job.id}
+        canEdit={can(access.role, "jobs.edit")}
+        sizeRun={sizes.map((s) => ({ size: s.size, quantity: s.quantity }))}
+        proofs={docs.map((d) => ({
+          id: d.proof.id,
+          name: d.proof.name,
+          size: d.proof.size,
+          colourHex: d.proof.colourHex,
+          blank: { name: d.blank.name, category: d.blank.category, sizeChart: d.blank.sizeChart },
+          placements: d.placements.filter((p) => !!p.artworkId).map((p) => ({ ...p, label: LOCATION_LABELS[p.location] })),
+        }))}
+        gradings={gradings.map((g) => ({ placementId: g.placementId, transferCount: g.transferCount, assignment: g.assignment }))}
+        exports={exports.map((e) => ({ id: e.id, kind: e.kind, state: e.state, progress: e.progress, message: e.message, fileName: e.fileName, createdAt: e.createdAt.toISOString() }))}
+      />
+    </>
+  );
+}

@@ -1,0 +1,71 @@
+import type { Browser } from "playwright-core";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { DEMO_SHOP, launch, newContext, signIn } from "./support";
+
+let browser: Browser;
+beforeAll(async () => {
+  browser = await launch();
+});
+afterAll(async () => {
+  await browser?.close();
+});
+
+async function pdfPages(bytes: Buffer): Promise<Array<{ width: number; height: number; text: string }>> {
+  const pdfjs = await import("pdfjs-dist/legacy/build/pdf.mjs");
+  const doc = await pdfjs.getDocument({ data: new Uint8Array(bytes), verbosity: 0 }).promise;
+  const pages = [];
+  for (let i = 1; i <= doc.numPages; i += 1) {
+    const page = await doc.getPage(i);
+    const viewport = page.getViewport({ scale: 1 });
+    const text = (await page.getTextContent()).items.map((item) => ("str" in item ? item.str : "")).join(" ");
+    pages.push({ width: viewport.width, height: viewport.height, text });
+  }
+  await doc.destroy();
+  return pages;
+}
+
+describe("production exports", () => {
+  it("grades the size run, and exports a spec sheet and a tiled test print with progress", async () => {
+    const context = await newContext(browser, { viewport: { width: 1440, height: 1000 }, acceptDownloads: true });
+    const page = await context.newPage();
+    await signIn(page, "press@chalkline.test");
+    await page.goto(`/shops/${DEMO_SHOP}/jobs`);
+    await page.getByRole("link", { name: /Spring season team tees/ }).click();
+    await page.getByRole("link", { name: "Production" }).click();
+    await page.getByText(/Heat presses and transfer platens are hot enough to burn/).waitFor();
+    await page.getByTestId("grading-summary").first().waitFor();
+    await page.getByLabel("Number of transfer sizes").first().selectOption("1");
+    await expect(page.getByTestId("grading-summary").first().textContent()).resolves.toMatch(/^T1 /);
+
+    // Spec sheet: queued, worked on by the worker with a progress bar, then ready.
+    await page.getByRole("button", { name: "Make the spec sheet" }).click();
+    const spec = page.locator("[data-testid=export-row][data-kind=spec-sheet]").first();
+    await spec.waitFor();
+    await page.locator("[data-testid=export-row][data-kind=spec-sheet][data-state=done]").first().waitFor({ timeout: 60_000 });
+    const specHref = await spec.getByRole("link", { name: /Download/ }).getAttribute("href");
+    const specPdf = Buffer.from(await (await page.request.get(specHref!)).body());
+    const specPages = await pdfPages(specPdf);
+    // US Letter: 8.5 × 11 in = 612 × 792 pt (ANSI/ASME Y14.1; ISO 32000: 72 units per inch).
+    expect(specPages[0]!.width).toBeCloseTo(612, 1);
+    expect(specPages[0]!.height).toBeCloseTo(792, 1);
+    const allText = specPages.map((p) => p.text).join(" ");
+    expect(allText).toContain("Spring season team tees");
+    expect(allText).toContain("16 CFR 1120");
+
+    // Test print on A4: 210 × 297 mm = 595.28 × 841.89 pt (ISO 216, 25.4 mm per inch).
+    await page.getByLabel("Paper").first().selectOption("a4");
+    await page.getByRole("button", { name: "Make test print" }).first().click();
+    const print = page.locator("[data-testid=export-row][data-kind=test-print]").first();
+    await print.waitFor();
+    await page.locator("[data-testid=export-row][data-kind=test-print][data-state=done]").first().waitFor({ timeout: 60_000 });
+    const printHref = await print.getByRole("link", { name: /Download/ }).getAttribute("href");
+    const printPdf = Buffer.from(await (await page.request.get(printHref!)).body());
+    const printPages = await pdfPages(printPdf);
+    expect(printPages.length).toBeGreaterThan(1);
+    for (const p of printPages) {
+      expect(Math.min(p.width, p.height)).toBeCloseTo(595.28, 1);
+      expect(Math.max(p.width, p.height)).toBeCloseTo(841.89, 1);
+    }
+    await context.close();
+  });
+});
