@@ -256,13 +256,14 @@ export async function analyzeArtwork(bytes: Buffer, declared: { name: string; ty
   }
 
   const inkImage = sharp(data, { raw: { width: info.width, height: info.height, channels: 4 } }).extract(ink);
-  const stats = await inkStats(inkImage, useAlpha);
-  const preview = await inkImage
-    .clone()
-    .resize(PREVIEW_LONG_SIDE, PREVIEW_LONG_SIDE, { fit: "inside", withoutEnlargement: true })
-    .webp({ quality: 88, alphaQuality: 100 })
-    .toBuffer({ resolveWithObject: true });
-  const thumbnail = await inkImage.clone().resize(THUMB_LONG_SIDE, THUMB_LONG_SIDE, { fit: "inside", withoutEnlargement: true }).webp({ quality: 80 }).toBuffer();
+  // One downscaled copy feeds the preview, the thumbnail and the colour count, so the full-size pixels are read once.
+  const previewRaw = await inkImage.clone().resize(PREVIEW_LONG_SIDE, PREVIEW_LONG_SIDE, { fit: "inside", withoutEnlargement: true }).raw().toBuffer({ resolveWithObject: true });
+  const small = () => sharp(previewRaw.data, { raw: { width: previewRaw.info.width, height: previewRaw.info.height, channels: 4 } });
+  const [stats, preview, thumbnail] = await Promise.all([
+    inkStats(small(), useAlpha),
+    small().webp({ quality: 88, alphaQuality: 100, effort: 2 }).toBuffer({ resolveWithObject: true }),
+    small().resize(THUMB_LONG_SIDE, THUMB_LONG_SIDE, { fit: "inside", withoutEnlargement: true }).webp({ quality: 80 }).toBuffer(),
+  ]);
 
   const densityPpi = kind === "svg" || kind === "pdf" ? null : meta.density && meta.density > 0 ? meta.density : null;
   return {
