@@ -17,9 +17,12 @@ import { drawClippedImage, embedRgbaPixels } from "./test-print";
  *
  * Memory: each distinct piece (item, pixel size, turn) is decoded once as RGBA. Sheets up to
  * SINGLE_PASS_MAX_PIXELS go through one sharp composite, which libvips streams to the PNG
- * encoder. Bigger sheets are drawn in horizontal strips (each composited by sharp) fed to a
- * streaming PNG encoder, with piece rasters dropped once the strips have passed them. Sheets
- * over MAX_SHEET_PIXELS are refused.
+ * encoder. Bigger sheets are drawn in horizontal strips fed to a streaming PNG encoder, with
+ * piece rasters dropped once the strips have passed them: in a strip where no pieces touch
+ * (the packer keeps a gap between them) each piece's rows are copied as they are, otherwise
+ * sharp composites the strip. The two paths agree exactly on opaque and fully transparent
+ * pixels; sharp's compositing may move a half-transparent pixel by 1/255. Sheets over
+ * MAX_SHEET_PIXELS are refused.
  */
 
 export type GangArt = { png: Buffer } | { svg: string };
@@ -89,7 +92,8 @@ interface Job {
 }
 
 function requirePositive(value: number, what: string): void {
-  if (!Number.isFinite(value) || value <= 0) throw new RangeError(`${what} must be a finite number more than 0 (got ${value}).`);
+  if (!Number.isFinite(value) || value <= 0)
+    throw new RangeError(`${what} must be a finite number more than 0 (got ${value}).`);
 }
 
 /** Pixel rectangle of a placement: edges rounded on their own, so neighbours never drift apart. */
@@ -115,7 +119,10 @@ async function rasterise(art: GangArt, width: number, height: number, itemId: st
       throw new Error(`The SVG art for item "${itemId}" could not be read.`);
     }
     const scale = Math.max(width / (meta.width || width), height / (meta.height || height));
-    pipeline = sharp(svg, { density: Math.min(100_000, Math.max(1, 72 * scale)), limitInputPixels: MAX_SOURCE_PIXELS });
+    pipeline = sharp(svg, {
+      density: Math.min(100_000, Math.max(1, 72 * scale)),
+      limitInputPixels: MAX_SOURCE_PIXELS,
+    });
   }
   try {
     return await pipeline
@@ -129,16 +136,42 @@ async function rasterise(art: GangArt, width: number, height: number, itemId: st
   }
 }
 
+/** Fully transparent pixels get colour 0 too, as a sharp composite leaves them, so both render paths agree. */
+function clearTransparent(rgba: Buffer): Buffer {
+  for (let i = 3; i < rgba.length; i += 4) {
+    if (rgba[i] === 0) {
+      rgba[i - 3] = 0;
+      rgba[i - 2] = 0;
+      rgba[i - 1] = 0;
+    }
+  }
+  return rgba;
+}
+
 /** The piece as laid on the sheet: rasterised in its own orientation, then turned 90° clockwise if rotated. */
 async function pieceRaster(art: GangArt, job: Job): Promise<Buffer> {
   const { width, height } = job.rect;
-  if (!job.rotated) return rasterise(art, width, height, job.itemId);
+  if (!job.rotated) return clearTransparent(await rasterise(art, width, height, job.itemId));
   const own = await rasterise(art, height, width, job.itemId);
-  return sharp(own, { raw: { width: height, height: width, channels: 4 } }).rotate(90).raw().toBuffer();
+  return clearTransparent(
+    await sharp(own, { raw: { width: height, height: width, channels: 4 } })
+      .rotate(90)
+      .raw()
+      .toBuffer(),
+  );
+}
+
+function intersects(a: PixelRect, b: PixelRect): boolean {
+  return (
+    a.left < b.left + b.width &&
+    b.left < a.left + a.width &&
+    a.top < b.top + b.height &&
+    b.top < a.top + a.height
+  );
 }
 
 // ---------------------------------------------------------------------------------------
-// Streaming PNG encoder (strip mode): W3C PNG, 8-bit RGBA, filter 1 (Sub) on every row.
+// Streaming PNG encoder (strip mode): W3C PNG, 8-bit RGBA, filter type 1 (Sub) on every row.
 
 function chunk(type: string, data: Buffer): Buffer {
   const head = Buffer.alloc(8);
@@ -150,7 +183,7 @@ function chunk(type: string, data: Buffer): Buffer {
 }
 
 class StripPngEncoder {
-  private readonly deflate = createDeflate({ level: 6 });
+  private readonly deflate = createDeflate({ level: 6, chunkSize: 1 << 20 });
   private readonly compressed: Buffer[] = [];
 
   constructor(
@@ -166,10 +199,11 @@ class StripPngEncoder {
     const stride = this.width * 4;
     const out = Buffer.allocUnsafe(rows * (stride + 1));
     for (let r = 0; r < rows; r += 1) {
+      // Sub filter: each byte minus the same byte of the pixel to its left, mod 256.
       const src = r * stride;
       const dst = r * (stride + 1);
       out[dst] = 1;
-      for (let i = 0; i < 4 && i < stride; i += 1) out[dst + 1 + i] = rgba[src + i]!;
+      for (let i = 0; i < 4; i += 1) out[dst + 1 + i] = rgba[src + i]!;
       for (let i = 4; i < stride; i += 1) out[dst + 1 + i] = (rgba[src + i]! - rgba[src + i - 4]!) & 255;
     }
     if (!this.deflate.write(out)) await once(this.deflate, "drain");
@@ -215,12 +249,14 @@ class StripPngEncoder {
 export async function renderGangSheet(input: RenderGangSheetInput): Promise<RenderGangSheetResult> {
   const ppi = input.ppi ?? DEFAULT_GANG_PPI;
   requirePositive(ppi, "The resolution (ppi)");
-  if (ppi > MAX_GANG_PPI) throw new RangeError(`The resolution must be at most ${MAX_GANG_PPI} ppi (got ${ppi}).`);
+  if (ppi > MAX_GANG_PPI)
+    throw new RangeError(`The resolution must be at most ${MAX_GANG_PPI} ppi (got ${ppi}).`);
   requirePositive(input.rollWidthIn, "The roll width");
   requirePositive(input.sheet.lengthIn, "The sheet length");
   const widthPx = Math.round(input.rollWidthIn * ppi);
   const heightPx = Math.round(input.sheet.lengthIn * ppi);
-  if (widthPx < 1 || heightPx < 1) throw new RangeError("The sheet is smaller than one pixel at this resolution.");
+  if (widthPx < 1 || heightPx < 1)
+    throw new RangeError("The sheet is smaller than one pixel at this resolution.");
   const total = widthPx * heightPx;
   if (total > MAX_SHEET_PIXELS) {
     throw new RangeError(
@@ -231,13 +267,28 @@ export async function renderGangSheet(input: RenderGangSheetInput): Promise<Rend
   const jobs: Job[] = input.sheet.placements.map((p, index) => {
     requirePositive(p.widthIn, `The width of placement ${index + 1} (${p.itemId})`);
     requirePositive(p.heightIn, `The height of placement ${index + 1} (${p.itemId})`);
-    if (!Number.isFinite(p.x) || !Number.isFinite(p.y)) throw new RangeError(`Placement ${index + 1} (${p.itemId}) has no position.`);
-    if (p.x < -EDGE_EPS || p.y < -EDGE_EPS || p.x + p.widthIn > input.rollWidthIn + EDGE_EPS || p.y + p.heightIn > input.sheet.lengthIn + EDGE_EPS) {
-      throw new RangeError(`Placement ${index + 1} (${p.itemId}) runs off the ${input.rollWidthIn} x ${input.sheet.lengthIn} in sheet.`);
+    if (!Number.isFinite(p.x) || !Number.isFinite(p.y))
+      throw new RangeError(`Placement ${index + 1} (${p.itemId}) has no position.`);
+    if (
+      p.x < -EDGE_EPS ||
+      p.y < -EDGE_EPS ||
+      p.x + p.widthIn > input.rollWidthIn + EDGE_EPS ||
+      p.y + p.heightIn > input.sheet.lengthIn + EDGE_EPS
+    ) {
+      throw new RangeError(
+        `Placement ${index + 1} (${p.itemId}) runs off the ${input.rollWidthIn} x ${input.sheet.lengthIn} in sheet.`,
+      );
     }
     if (!Object.hasOwn(input.art, p.itemId)) throw new Error(`No art was supplied for item "${p.itemId}".`);
     const rect = pixelRect(p, ppi, widthPx, heightPx);
-    return { index, key: `${p.itemId}\u0000${rect.width}x${rect.height}\u0000${p.rotated ? 1 : 0}`, itemId: p.itemId, rotated: p.rotated, rect, inches: p };
+    return {
+      index,
+      key: `${p.itemId}\u0000${rect.width}x${rect.height}\u0000${p.rotated ? 1 : 0}`,
+      itemId: p.itemId,
+      rotated: p.rotated,
+      rect,
+      inches: p,
+    };
   });
 
   const progress = (f: number) => input.onProgress?.(Math.min(1, Math.max(0, f)));
@@ -303,12 +354,13 @@ export async function renderGangSheet(input: RenderGangSheetInput): Promise<Rend
     const stripRows = Math.max(1, Math.floor((input.stripPixels ?? STRIP_PIXELS) / widthPx));
     // Last strip each distinct piece is needed in, so its raster can be dropped after it.
     const lastRow = new Map<string, number>();
-    for (const job of jobs) lastRow.set(job.key, Math.max(lastRow.get(job.key) ?? 0, job.rect.top + job.rect.height));
+    for (const job of jobs)
+      lastRow.set(job.key, Math.max(lastRow.get(job.key) ?? 0, job.rect.top + job.rect.height));
     for (let y0 = 0; y0 < heightPx; y0 += stripRows) {
       const rows = Math.min(stripRows, heightPx - y0);
       const y1 = y0 + rows;
       const here = jobs.filter((j) => j.rect.top < y1 && j.rect.top + j.rect.height > y0);
-      const overlays: OverlayOptions[] = [];
+      const parts: Array<{ job: Job; raster: Buffer; r0: number; r1: number }> = [];
       for (const job of here) {
         let raster = rasters.get(job.key);
         if (!raster) {
@@ -316,26 +368,45 @@ export async function renderGangSheet(input: RenderGangSheetInput): Promise<Rend
           rasters.set(job.key, raster);
           refs.set(job.key, embedRgbaPixels(doc, raster, job.rect.width, job.rect.height));
         }
-        const r0 = Math.max(y0, job.rect.top);
-        const r1 = Math.min(y1, job.rect.top + job.rect.height);
-        const stride = job.rect.width * 4;
-        overlays.push({
-          input: raster.subarray((r0 - job.rect.top) * stride, (r1 - job.rect.top) * stride),
-          raw: { width: job.rect.width, height: r1 - r0, channels: 4 },
-          left: job.rect.left,
-          top: r0 - y0,
+        parts.push({
+          job,
+          raster,
+          r0: Math.max(y0, job.rect.top),
+          r1: Math.min(y1, job.rect.top + job.rect.height),
         });
       }
-      const strip =
-        overlays.length === 0
-          ? Buffer.alloc(widthPx * rows * 4)
-          : await sharp({
-              create: { width: widthPx, height: rows, channels: 4, background: { r: 0, g: 0, b: 0, alpha: 0 } },
-              limitInputPixels: false,
-            })
-              .composite(overlays)
-              .raw()
-              .toBuffer();
+      const overlapping = parts.some((p, i) =>
+        parts.some((q, j) => j > i && intersects(p.job.rect, q.job.rect)),
+      );
+      let strip: Buffer;
+      if (!overlapping) {
+        // Pieces that do not touch, over a transparent sheet: the result is each piece's own pixels, so copy rows.
+        strip = Buffer.alloc(widthPx * rows * 4);
+        for (const { job, raster, r0, r1 } of parts) {
+          const stride = job.rect.width * 4;
+          for (let r = r0; r < r1; r += 1) {
+            const from = (r - job.rect.top) * stride;
+            raster.copy(strip, ((r - y0) * widthPx + job.rect.left) * 4, from, from + stride);
+          }
+        }
+      } else {
+        const overlays: OverlayOptions[] = parts.map(({ job, raster, r0, r1 }) => {
+          const stride = job.rect.width * 4;
+          return {
+            input: raster.subarray((r0 - job.rect.top) * stride, (r1 - job.rect.top) * stride),
+            raw: { width: job.rect.width, height: r1 - r0, channels: 4 },
+            left: job.rect.left,
+            top: r0 - y0,
+          };
+        });
+        strip = await sharp({
+          create: { width: widthPx, height: rows, channels: 4, background: { r: 0, g: 0, b: 0, alpha: 0 } },
+          limitInputPixels: false,
+        })
+          .composite(overlays)
+          .raw()
+          .toBuffer();
+      }
       await encoder.write(strip, rows);
       for (const [key, last] of lastRow) if (last <= y1) rasters.delete(key);
       progress((0.9 * y1) / heightPx);

@@ -1,5 +1,13 @@
 import "server-only";
-import { PDFDocument, StandardFonts, rgb, type PDFFont, type PDFImage, type PDFPage, type RGB } from "pdf-lib";
+import {
+  PDFDocument,
+  StandardFonts,
+  rgb,
+  type PDFFont,
+  type PDFImage,
+  type PDFPage,
+  type RGB,
+} from "pdf-lib";
 import sharp from "sharp";
 import { PDF_UNITS_PER_INCH, formatLength } from "@/lib/units";
 
@@ -99,7 +107,8 @@ const ASCII_STAND_INS: ReadonlyArray<[RegExp, string]> = [
 ];
 
 /** Emoji joiners, skin-tone modifiers, variation selectors, zero-width marks and soft hyphens: dropped. */
-const INVISIBLE = /[\u200b-\u200f\u2060\ufeff\ufe00-\ufe0f\u00ad\u20e3]|\p{Emoji_Modifier}|\p{Regional_Indicator}|[\u{e0000}-\u{e007f}]/gu;
+const INVISIBLE =
+  /[\u200b-\u200f\u2060\ufeff\ufe00-\ufe0f\u00ad\u20e3]|\p{Emoji_Modifier}|\p{Regional_Indicator}|[\u{e0000}-\u{e007f}]/gu;
 /** Emoji and other pictographs (except WinAnsi ones such as © and ™): dropped, as a "?" would read like a typo on a work order. */
 const PICTOGRAPHS = /\p{Extended_Pictographic}/gu;
 
@@ -114,7 +123,9 @@ function isWinAnsi(cp: number): boolean {
  * (CJK, …) becomes "?". Never throws.
  */
 export function toWinAnsi(text: string): string {
-  let s = String(text ?? "").replace(INVISIBLE, "").replace(PICTOGRAPHS, (ch) => (isWinAnsi(ch.codePointAt(0)!) ? ch : ""));
+  let s = String(text ?? "")
+    .replace(INVISIBLE, "")
+    .replace(PICTOGRAPHS, (ch) => (isWinAnsi(ch.codePointAt(0)!) ? ch : ""));
   for (const [pattern, replacement] of ASCII_STAND_INS) s = s.replace(pattern, replacement);
   s = s.replace(/[\s\u0000-\u001f\u007f-\u009f\u00a0]+/g, " ");
   let out = "";
@@ -228,20 +239,38 @@ class Flow {
     return true;
   }
 
-  text(text: string, x: number, top: number, size: number, opts: { bold?: boolean; color?: RGB; maxWidth?: number } = {}) {
+  text(
+    text: string,
+    x: number,
+    top: number,
+    size: number,
+    opts: { bold?: boolean; color?: RGB; maxWidth?: number } = {},
+  ) {
     const font = opts.bold ? this.fonts.bold : this.fonts.regular;
     const clean = opts.maxWidth ? fitText(text, font, size, opts.maxWidth) : toWinAnsi(text);
     // `top` is the top of the line box; the baseline sits about 0.8 em lower.
     this.page.drawText(clean, { x, y: PAGE_H - top - size * 0.8, size, font, color: opts.color ?? INK });
   }
 
-  textRight(text: string, right: number, top: number, size: number, opts: { bold?: boolean; color?: RGB } = {}) {
+  textRight(
+    text: string,
+    right: number,
+    top: number,
+    size: number,
+    opts: { bold?: boolean; color?: RGB } = {},
+  ) {
     const font = opts.bold ? this.fonts.bold : this.fonts.regular;
     const clean = toWinAnsi(text);
     this.text(clean, right - font.widthOfTextAtSize(clean, size), top, size, opts);
   }
 
-  rect(x: number, top: number, w: number, h: number, opts: { fill?: RGB; border?: RGB; borderWidth?: number }) {
+  rect(
+    x: number,
+    top: number,
+    w: number,
+    h: number,
+    opts: { fill?: RGB; border?: RGB; borderWidth?: number },
+  ) {
     this.page.drawRectangle({
       x,
       y: PAGE_H - top - h,
@@ -295,7 +324,10 @@ function fromCenter(offset: number): { main: string; decimal: string } {
   if (!Number.isFinite(offset)) return { main: "-", decimal: "" };
   // Anything that rounds to 0 at 1/8 in is centred for the press.
   if (formatLength(Math.abs(offset), "in", { withUnit: false }) === "0") {
-    const rest = Math.abs(offset) < 0.005 ? "0 in" : `${formatLength(Math.abs(offset), "in", { decimal: true })} ${offset > 0 ? "right" : "left"}`;
+    const rest =
+      Math.abs(offset) < 0.005
+        ? "0 in"
+        : `${formatLength(Math.abs(offset), "in", { decimal: true })} ${offset > 0 ? "right" : "left"}`;
     return { main: "Centered", decimal: rest };
   }
   const side = offset > 0 ? "right" : "left";
@@ -307,7 +339,11 @@ function fromCenter(offset: number): { main: string; decimal: string } {
 
 function drawHeader(flow: Flow, input: SpecSheetInput, totalPieces: number) {
   const { fonts } = flow;
-  flow.text(input.shopName || "Shop", MARGIN, flow.y, 10, { bold: true, color: MUTED, maxWidth: CONTENT_W * 0.6 });
+  flow.text(input.shopName || "Shop", MARGIN, flow.y, 10, {
+    bold: true,
+    color: MUTED,
+    maxWidth: CONTENT_W * 0.6,
+  });
   flow.textRight("PRODUCTION SPEC SHEET", PAGE_W - MARGIN, flow.y, 10, { bold: true });
   flow.y += 16;
   flow.rule(flow.y, INK, 1.25);
@@ -336,9 +372,16 @@ function drawHeader(flow: Flow, input: SpecSheetInput, totalPieces: number) {
   flow.rect(swatchX, swatchTop, 12, 12, { fill: swatch ?? rgb(1, 1, 1), border: INK, borderWidth: 0.5 });
   if (!swatch) {
     // An unreadable colour code: a crossed box rather than a made-up colour.
-    flow.page.drawLine({ start: { x: swatchX, y: PAGE_H - swatchTop }, end: { x: swatchX + 12, y: PAGE_H - swatchTop - 12 }, thickness: 0.5, color: INK });
+    flow.page.drawLine({
+      start: { x: swatchX, y: PAGE_H - swatchTop },
+      end: { x: swatchX + 12, y: PAGE_H - swatchTop - 12 },
+      thickness: 0.5,
+      color: INK,
+    });
   }
-  const colourText = swatch ? `${input.garment.colourName || "-"} (${toWinAnsi(input.garment.colourHex).trim()})` : `${input.garment.colourName || "-"} (no colour code)`;
+  const colourText = swatch
+    ? `${input.garment.colourName || "-"} (${toWinAnsi(input.garment.colourHex).trim()})`
+    : `${input.garment.colourName || "-"} (no colour code)`;
   field(1, 1, "Colour", colourText, 17);
   field(2, 1, "Pieces", `${totalPieces}`);
   flow.y += 62;
@@ -351,7 +394,10 @@ function drawSizeRun(flow: Flow, sizeRun: SpecSheetInput["sizeRun"], total: numb
   const labelW = 44;
   const cellW = 46;
   const perBand = Math.max(1, Math.floor((CONTENT_W - labelW) / cellW) - 1);
-  const cells = sizeRun.map((s) => ({ size: s.size, qty: Number.isFinite(s.quantity) ? String(s.quantity) : "-" }));
+  const cells = sizeRun.map((s) => ({
+    size: s.size,
+    qty: Number.isFinite(s.quantity) ? String(s.quantity) : "-",
+  }));
   if (cells.length === 0) {
     flow.text("No sizes in this order.", MARGIN, flow.y, 10, { color: MUTED });
     flow.y += 18;
@@ -380,7 +426,12 @@ function drawSizeRun(flow: Flow, sizeRun: SpecSheetInput["sizeRun"], total: numb
     flow.rect(MARGIN, top, labelW + columns * cellW, rowH * 2, { border: RULE });
     for (let i = 0; i <= columns; i++) {
       const x = MARGIN + labelW + i * cellW;
-      flow.page.drawLine({ start: { x, y: PAGE_H - top }, end: { x, y: PAGE_H - top - 2 * rowH }, thickness: 0.5, color: RULE });
+      flow.page.drawLine({
+        start: { x, y: PAGE_H - top },
+        end: { x, y: PAGE_H - top - 2 * rowH },
+        thickness: 0.5,
+        color: RULE,
+      });
     }
     flow.y += rowH * 2 + 8;
   }
@@ -399,7 +450,10 @@ function drawLocation(flow: Flow, location: SpecSheetLocation) {
   // Keep a table whole when it fits on one page; a longer one starts with at least three rows.
   const whole = 25 + 16 + 26 * Math.max(1, location.perSize.length) + 6;
   flow.ensure(whole <= BOTTOM_LIMIT - MARGIN ? whole : 25 + 16 + 26 * 3);
-  flow.heading(`${location.label || "Print"} (${side})`, "Below collar: seam to top of print. From center: print center, left/right as you face this side.");
+  flow.heading(
+    `${location.label || "Print"} (${side})`,
+    "Below collar: seam to top of print. From center: print center, left/right as you face this side.",
+  );
   const header = () => {
     flow.rect(MARGIN, flow.y, CONTENT_W, 16, { fill: HEAD_FILL });
     let x = MARGIN;
@@ -474,9 +528,17 @@ async function drawThumbnails(flow: Flow, thumbnails: SpecSheetInput["thumbnails
       const s = Math.min((box - 8) / image.width, (box - 8) / image.height);
       const w = image.width * s;
       const h = image.height * s;
-      flow.page.drawImage(image, { x: x + (box - w) / 2, y: PAGE_H - flow.y - (box + h) / 2, width: w, height: h });
+      flow.page.drawImage(image, {
+        x: x + (box - w) / 2,
+        y: PAGE_H - flow.y - (box + h) / 2,
+        width: w,
+        height: h,
+      });
     } else {
-      flow.text("Image could not be read", x + 6, flow.y + box / 2 - 4, 8, { color: MUTED, maxWidth: box - 12 });
+      flow.text("Image could not be read", x + 6, flow.y + box / 2 - 4, 8, {
+        color: MUTED,
+        maxWidth: box - 12,
+      });
     }
     flow.text(thumb.label, x, flow.y + box + 4, 8, { color: MUTED, maxWidth: box });
   }
@@ -489,7 +551,9 @@ function drawApproval(flow: Flow, approval: SpecSheetInput["approval"]) {
   if (!approval) {
     flow.rect(MARGIN, flow.y, CONTENT_W, 46, { fill: STOP });
     flow.text("NOT APPROVED YET", MARGIN + 12, flow.y + 8, 18, { bold: true, color: rgb(1, 1, 1) });
-    flow.text("Do not print until the client has approved the proof.", MARGIN + 12, flow.y + 30, 9, { color: rgb(1, 1, 1) });
+    flow.text("Do not print until the client has approved the proof.", MARGIN + 12, flow.y + 30, 9, {
+      color: rgb(1, 1, 1),
+    });
     flow.y += 54;
     return;
   }
@@ -551,9 +615,19 @@ function drawFooters(flow: Flow, input: SpecSheetInput) {
   flow.pages.forEach((page, i) => {
     const right = toWinAnsi(`Page ${i + 1} of ${n}`);
     const rightW = regular.widthOfTextAtSize(right, 7.5);
-    const left = fitText(`${input.shopName} - ${input.jobTitle} - spec sheet`, regular, 7.5, CONTENT_W - rightW - 20);
+    const left = fitText(
+      `${input.shopName} - ${input.jobTitle} - spec sheet`,
+      regular,
+      7.5,
+      CONTENT_W - rightW - 20,
+    );
     const y = MARGIN - 14;
-    page.drawLine({ start: { x: MARGIN, y: y + 10 }, end: { x: PAGE_W - MARGIN, y: y + 10 }, thickness: 0.5, color: RULE });
+    page.drawLine({
+      start: { x: MARGIN, y: y + 10 },
+      end: { x: PAGE_W - MARGIN, y: y + 10 },
+      thickness: 0.5,
+      color: RULE,
+    });
     page.drawText(left, { x: MARGIN, y, size: 7.5, font: regular, color: MUTED });
     page.drawText(right, { x: PAGE_W - MARGIN - rightW, y, size: 7.5, font: regular, color: MUTED });
   });

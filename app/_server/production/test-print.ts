@@ -69,6 +69,8 @@ export const MAX_ART_RASTER_PIXELS = 40_000_000;
  * decoded by sharp (native, much faster than pdf-lib's JavaScript decoder), pixels unchanged.
  */
 export const PNG_JS_EMBED_MAX_PIXELS = 8_000_000;
+/** Largest art raster we decode at all (our own bound: twice the upload pixel cap). */
+const MAX_SOURCE_PIXELS = 200_000_000;
 
 /** 1 in in PDF points (ISO 32000: 72 units per inch). */
 export const ONE_INCH_BAR_PT = PDF_UNITS_PER_INCH;
@@ -95,7 +97,13 @@ const WHITE = rgb(1, 1, 1);
  */
 export function embedRgbaPixels(doc: PDFDocument, rgba: Uint8Array, width: number, height: number): PDFRef {
   const n = width * height;
-  if (!Number.isInteger(width) || !Number.isInteger(height) || width < 1 || height < 1 || rgba.length < n * 4) {
+  if (
+    !Number.isInteger(width) ||
+    !Number.isInteger(height) ||
+    width < 1 ||
+    height < 1 ||
+    rgba.length < n * 4
+  ) {
     throw new RangeError(`Pixel data does not match ${width} x ${height} RGBA.`);
   }
   const colour = Buffer.allocUnsafe(n * 3);
@@ -110,9 +118,20 @@ export function embedRgbaPixels(doc: PDFDocument, rgba: Uint8Array, width: numbe
     if (a !== 255) opaque = false;
   }
   const ctx = doc.context;
-  const base = { Type: "XObject", Subtype: "Image", Width: width, Height: height, BitsPerComponent: 8, Filter: "FlateDecode" };
-  const smask = opaque ? undefined : ctx.register(ctx.stream(deflateSync(alpha), { ...base, ColorSpace: "DeviceGray" }));
-  return ctx.register(ctx.stream(deflateSync(colour), { ...base, ColorSpace: "DeviceRGB", ...(smask ? { SMask: smask } : {}) }));
+  const base = {
+    Type: "XObject",
+    Subtype: "Image",
+    Width: width,
+    Height: height,
+    BitsPerComponent: 8,
+    Filter: "FlateDecode",
+  };
+  const smask = opaque
+    ? undefined
+    : ctx.register(ctx.stream(deflateSync(alpha), { ...base, ColorSpace: "DeviceGray" }));
+  return ctx.register(
+    ctx.stream(deflateSync(colour), { ...base, ColorSpace: "DeviceRGB", ...(smask ? { SMask: smask } : {}) }),
+  );
 }
 
 /** Draws an image XObject with the matrix [a 0 0 d e f], clipped to a rectangle (all in points, PDF y up). */
@@ -141,28 +160,46 @@ interface EmbeddedArt {
 }
 
 async function rasterToPdf(doc: PDFDocument, image: Sharp): Promise<EmbeddedArt> {
-  const { data, info } = await image.toColourspace("srgb").ensureAlpha().raw({ depth: "uchar" }).toBuffer({ resolveWithObject: true });
-  return { ref: embedRgbaPixels(doc, data, info.width, info.height), widthPx: info.width, heightPx: info.height };
+  const { data, info } = await image
+    .toColourspace("srgb")
+    .ensureAlpha()
+    .raw({ depth: "uchar" })
+    .toBuffer({ resolveWithObject: true });
+  return {
+    ref: embedRgbaPixels(doc, data, info.width, info.height),
+    widthPx: info.width,
+    heightPx: info.height,
+  };
 }
 
 /** Pixel size for art of w × h inches at `ppi`, lowered to stay within MAX_ART_RASTER_PIXELS. */
 function rasterSize(widthIn: number, heightIn: number, ppi: number): { width: number; height: number } {
   let p = ppi;
-  if (widthIn * heightIn * p * p > MAX_ART_RASTER_PIXELS) p = Math.sqrt(MAX_ART_RASTER_PIXELS / (widthIn * heightIn));
+  if (widthIn * heightIn * p * p > MAX_ART_RASTER_PIXELS)
+    p = Math.sqrt(MAX_ART_RASTER_PIXELS / (widthIn * heightIn));
   return { width: Math.max(1, Math.round(widthIn * p)), height: Math.max(1, Math.round(heightIn * p)) };
 }
 
-async function embedArt(doc: PDFDocument, art: TestPrintArt, widthIn: number, heightIn: number): Promise<EmbeddedArt> {
+async function embedArt(
+  doc: PDFDocument,
+  art: TestPrintArt,
+  widthIn: number,
+  heightIn: number,
+): Promise<EmbeddedArt> {
   if ("png" in art) {
     let meta: Metadata;
     try {
-      meta = await sharp(art.png, { limitInputPixels: false }).metadata();
+      meta = await sharp(art.png, { limitInputPixels: MAX_SOURCE_PIXELS }).metadata();
     } catch {
       throw new Error("The art PNG could not be read; it may be damaged.");
     }
     const w = meta.width ?? 0;
     const h = meta.height ?? 0;
     if (!w || !h) throw new Error("The art PNG has no pixels.");
+    if (w * h > MAX_SOURCE_PIXELS)
+      throw new Error(
+        `The art PNG is ${w} x ${h} px, over the ${MAX_SOURCE_PIXELS / 1e6} megapixel limit for test prints.`,
+      );
     if (w * h <= PNG_JS_EMBED_MAX_PIXELS && meta.format === "png") {
       try {
         const image = await doc.embedPng(art.png);
@@ -171,10 +208,12 @@ async function embedArt(doc: PDFDocument, art: TestPrintArt, widthIn: number, he
         // Fall through to the native decoder (unusual PNG flavours).
       }
     }
-    let pipeline = sharp(art.png, { limitInputPixels: false, failOn: "error" });
+    let pipeline = sharp(art.png, { limitInputPixels: MAX_SOURCE_PIXELS, failOn: "error" });
     if (w * h > MAX_ART_RASTER_PIXELS) {
       const scale = Math.sqrt(MAX_ART_RASTER_PIXELS / (w * h));
-      pipeline = pipeline.resize(Math.max(1, Math.floor(w * scale)), Math.max(1, Math.floor(h * scale)), { fit: "fill" });
+      pipeline = pipeline.resize(Math.max(1, Math.floor(w * scale)), Math.max(1, Math.floor(h * scale)), {
+        fit: "fill",
+      });
     }
     try {
       return await rasterToPdf(doc, pipeline);
@@ -195,12 +234,17 @@ async function embedArt(doc: PDFDocument, art: TestPrintArt, widthIn: number, he
   const mh = meta.height || target.height;
   // librsvg draws at `density` dots per inch over a 72 dpi base; draw at least the target size, then resample to it exactly.
   let scale = Math.max(target.width / mw, target.height / mh);
-  if (mw * mh * scale * scale > 4 * MAX_ART_RASTER_PIXELS) scale = Math.min(target.width / mw, target.height / mh);
+  if (mw * mh * scale * scale > 4 * MAX_ART_RASTER_PIXELS)
+    scale = Math.min(target.width / mw, target.height / mh);
   const density = Math.min(100_000, Math.max(1, 72 * scale));
   try {
     return await rasterToPdf(
       doc,
-      sharp(svg, { density, limitInputPixels: 8 * MAX_ART_RASTER_PIXELS }).resize(target.width, target.height, { fit: "fill" }),
+      sharp(svg, { density, limitInputPixels: 8 * MAX_ART_RASTER_PIXELS }).resize(
+        target.width,
+        target.height,
+        { fit: "fill" },
+      ),
     );
   } catch {
     throw new Error("The art SVG could not be drawn at print size.");
@@ -213,7 +257,8 @@ async function embedArt(doc: PDFDocument, art: TestPrintArt, widthIn: number, he
 /** Tile mapping, art inches to page inches (top-left origin); mirrored plans flip x within the tile. */
 function artToPage(plan: TilePlan, tile: Tile) {
   return {
-    x: (ax: number) => (plan.mirrored ? tile.pageX + tile.artWidth - (ax - tile.artX) : tile.pageX + (ax - tile.artX)),
+    x: (ax: number) =>
+      plan.mirrored ? tile.pageX + tile.artWidth - (ax - tile.artX) : tile.pageX + (ax - tile.artX),
     y: (ay: number) => tile.pageY + (ay - tile.artY),
   };
 }
@@ -269,12 +314,25 @@ function target(ctx: PageCtx, x: number, y: number, radiusIn: number, armIn: num
   const cx = X(x);
   const cy = Y(ctx, y);
   ctx.page.drawCircle({ x: cx, y: cy, size: radiusIn * PT, borderColor: color, borderWidth: 0.5 });
-  ctx.page.drawLine({ start: { x: cx - armIn * PT, y: cy }, end: { x: cx + armIn * PT, y: cy }, thickness: 0.5, color });
-  ctx.page.drawLine({ start: { x: cx, y: cy - armIn * PT }, end: { x: cx, y: cy + armIn * PT }, thickness: 0.5, color });
+  ctx.page.drawLine({
+    start: { x: cx - armIn * PT, y: cy },
+    end: { x: cx + armIn * PT, y: cy },
+    thickness: 0.5,
+    color,
+  });
+  ctx.page.drawLine({
+    start: { x: cx, y: cy - armIn * PT },
+    end: { x: cx, y: cy + armIn * PT },
+    thickness: 0.5,
+    color,
+  });
 }
 
 /** Shades the strips this page shares with its neighbours; returns the alignment targets to draw on top. */
-function drawOverlapBands(ctx: PageCtx, byLabel: Map<string, Tile>): Array<{ x: number; y: number; radius: number }> {
+function drawOverlapBands(
+  ctx: PageCtx,
+  byLabel: Map<string, Tile>,
+): Array<{ x: number; y: number; radius: number }> {
   const { plan, tile } = ctx;
   const targets: Array<{ x: number; y: number; radius: number }> = [];
   if (plan.overlapIn <= 0) return targets;
@@ -351,7 +409,13 @@ function drawGuides(ctx: PageCtx, input: TestPrintInput): void {
         color: COLLAR_COLOUR,
         dashArray: [8, 3, 2, 3],
       });
-      page.drawText("COLLAR LINE", { x: X(tile.pageX) + 4, y: y + 3, size: 6.5, font: ctx.fonts.bold, color: COLLAR_COLOUR });
+      page.drawText("COLLAR LINE", {
+        x: X(tile.pageX) + 4,
+        y: y + 3,
+        size: 6.5,
+        font: ctx.fonts.bold,
+        color: COLLAR_COLOUR,
+      });
     }
   });
 }
@@ -369,7 +433,17 @@ function drawRegistrationMarks(ctx: PageCtx): void {
 }
 
 function panelBox(ctx: PageCtx, x: number, top: number, w: number, h: number): void {
-  ctx.page.drawRectangle({ x, y: ctx.heightPt - top - h, width: w, height: h, color: WHITE, opacity: 0.88, borderColor: MUTED, borderWidth: 0.5, borderOpacity: 0.9 });
+  ctx.page.drawRectangle({
+    x,
+    y: ctx.heightPt - top - h,
+    width: w,
+    height: h,
+    color: WHITE,
+    opacity: 0.88,
+    borderColor: MUTED,
+    borderWidth: 0.5,
+    borderOpacity: 0.9,
+  });
 }
 
 function drawLabelPanel(ctx: PageCtx, input: TestPrintInput): void {
@@ -381,28 +455,46 @@ function drawLabelPanel(ctx: PageCtx, input: TestPrintInput): void {
   const inner = width - 16;
   const lines: Array<{ text: string; size: number; bold?: boolean; color?: RGB }> = [];
   const push = (text: string, size: number, opts: { bold?: boolean; color?: RGB } = {}) => {
-    for (const line of wrapText(text, opts.bold ? fonts.bold : fonts.regular, size, inner)) lines.push({ text: line, size, ...opts });
+    for (const line of wrapText(text, opts.bold ? fonts.bold : fonts.regular, size, inner))
+      lines.push({ text: line, size, ...opts });
   };
   push(joinInstruction(tile.joins), 8.5, { bold: true });
   if (plan.overlapIn > 0 && plan.pages > 1) {
-    push(`Neighbouring pages share a ${formatLength(plan.overlapIn, "in")} shaded strip: lay one over the other so the round targets meet.`, 7);
+    push(
+      `Neighbouring pages share a ${formatLength(plan.overlapIn, "in")} shaded strip: lay one over the other so the round targets meet.`,
+      7,
+    );
   }
   if (plan.mirrored) push("MIRRORED (wrong-reading) for HTV or sublimation.", 7.5, { bold: true });
   if (input.printArea) push("Blue dashed box: print area.", 7, { color: PRINT_AREA_COLOUR });
   if (input.collarLineYIn !== undefined) {
     push("Red dashed line: collar line.", 7, { color: COLLAR_COLOUR });
     if (tile.row === 0 && input.collarLineYIn < 0) {
-      push(`The collar line is ${formatLength(-input.collarLineYIn, "in")} above the top of the art (off this sheet).`, 7, { color: COLLAR_COLOUR });
+      push(
+        `The collar line is ${formatLength(-input.collarLineYIn, "in")} above the top of the art (off this sheet).`,
+        7,
+        { color: COLLAR_COLOUR },
+      );
     }
     if (tile.row === plan.rows - 1 && input.collarLineYIn > plan.artHeightIn) {
-      push(`The collar line is ${formatLength(input.collarLineYIn - plan.artHeightIn, "in")} below the bottom of the art (off this sheet).`, 7, { color: COLLAR_COLOUR });
+      push(
+        `The collar line is ${formatLength(input.collarLineYIn - plan.artHeightIn, "in")} below the bottom of the art (off this sheet).`,
+        7,
+        { color: COLLAR_COLOUR },
+      );
     }
   }
   const labelSize = 22;
   const height = 8 + labelSize + 4 + lines.reduce((h, l) => h + l.size * 1.3, 0) + 6;
   panelBox(ctx, left, top, width, height);
   const labelText = toWinAnsi(tile.label);
-  ctx.page.drawText(labelText, { x: left + 8, y: ctx.heightPt - top - 6 - labelSize * 0.8, size: labelSize, font: fonts.bold, color: INK });
+  ctx.page.drawText(labelText, {
+    x: left + 8,
+    y: ctx.heightPt - top - 6 - labelSize * 0.8,
+    size: labelSize,
+    font: fonts.bold,
+    color: INK,
+  });
   const labelW = fonts.bold.widthOfTextAtSize(labelText, labelSize);
   const where = fitText(
     `Row ${tile.label.replace(/\d+$/, "")}, column ${tile.column + 1} - page ${tile.index + 1} of ${plan.pages} (${plan.rows} x ${plan.columns})`,
@@ -410,11 +502,23 @@ function drawLabelPanel(ctx: PageCtx, input: TestPrintInput): void {
     7.5,
     Math.max(10, inner - labelW - 8),
   );
-  ctx.page.drawText(where, { x: left + 8 + labelW + 8, y: ctx.heightPt - top - 6 - labelSize * 0.55, size: 7.5, font: fonts.regular, color: MUTED });
+  ctx.page.drawText(where, {
+    x: left + 8 + labelW + 8,
+    y: ctx.heightPt - top - 6 - labelSize * 0.55,
+    size: 7.5,
+    font: fonts.regular,
+    color: MUTED,
+  });
   let y = top + 8 + labelSize + 4;
   for (const line of lines) {
     y += line.size * 1.3;
-    ctx.page.drawText(line.text, { x: left + 8, y: ctx.heightPt - y + line.size * 0.25, size: line.size, font: line.bold ? fonts.bold : fonts.regular, color: line.color ?? INK });
+    ctx.page.drawText(line.text, {
+      x: left + 8,
+      y: ctx.heightPt - y + line.size * 0.25,
+      size: line.size,
+      font: line.bold ? fonts.bold : fonts.regular,
+      color: line.color ?? INK,
+    });
   }
 }
 
@@ -427,18 +531,35 @@ function drawScalePanel(ctx: PageCtx): void {
   const left = X(plan.marginIn + inset.left);
   const top = X(plan.marginIn + plan.printableHeightIn - inset.bottom) - 0.32 * PT - height - 6;
   panelBox(ctx, left, top, width, height);
-  page.drawText("Check the scale: these bars must measure", { x: left + 8, y: ctx.heightPt - top - 12, size: 7, font: fonts.bold, color: INK });
+  page.drawText("Check the scale: these bars must measure", {
+    x: left + 8,
+    y: ctx.heightPt - top - 12,
+    size: 7,
+    font: fonts.bold,
+    color: INK,
+  });
   const bar = (barTop: number, length: number, step: number, endLabel: string) => {
     const x0 = left + 8;
     const yBar = ctx.heightPt - barTop - SCALE_BAR_HEIGHT_PT;
     page.drawRectangle({ x: x0, y: yBar, width: length, height: SCALE_BAR_HEIGHT_PT, color: INK });
     for (let t = 0; t <= length + 1e-6; t += step) {
       const end = t === 0 || Math.abs(t - length) < 1e-6;
-      page.drawLine({ start: { x: x0 + t, y: yBar }, end: { x: x0 + t, y: yBar - (end ? 5 : 2.5) }, thickness: 0.5, color: INK });
+      page.drawLine({
+        start: { x: x0 + t, y: yBar },
+        end: { x: x0 + t, y: yBar - (end ? 5 : 2.5) },
+        thickness: 0.5,
+        color: INK,
+      });
     }
     page.drawText("0", { x: x0 - 1.8, y: yBar - 12, size: 6.5, font: fonts.regular, color: INK });
     const w = fonts.regular.widthOfTextAtSize(endLabel, 6.5);
-    page.drawText(endLabel, { x: x0 + length - w / 2, y: yBar - 12, size: 6.5, font: fonts.regular, color: INK });
+    page.drawText(endLabel, {
+      x: x0 + length - w / 2,
+      y: yBar - 12,
+      size: 6.5,
+      font: fonts.regular,
+      color: INK,
+    });
   };
   bar(top + 20, ONE_INCH_BAR_PT, ONE_INCH_BAR_PT / 4, "1 in");
   bar(top + 44, FIVE_CM_BAR_PT, FIVE_CM_BAR_PT / 5, "5 cm");
@@ -453,18 +574,32 @@ function drawFooter(ctx: PageCtx, title: string): void {
   const instruction = "Print at 100% / Actual size - do not fit to page";
   const pageText = `Page ${tile.index + 1} of ${plan.pages} (${tile.label})`;
   const size = 7.5;
-  const fixedW = fonts.bold.widthOfTextAtSize(instruction, size) + fonts.regular.widthOfTextAtSize(`${pageText}  |  `, size);
-  const titleText = fitText(title, fonts.regular, size, Math.max(20, width - 16 - fixedW - fonts.regular.widthOfTextAtSize("  |  ", size)));
+  const fixedW =
+    fonts.bold.widthOfTextAtSize(instruction, size) +
+    fonts.regular.widthOfTextAtSize(`${pageText}  |  `, size);
+  const titleText = fitText(
+    title,
+    fonts.regular,
+    size,
+    Math.max(20, width - 16 - fixedW - fonts.regular.widthOfTextAtSize("  |  ", size)),
+  );
   const first = `${titleText}  |  ${pageText}  |  `;
   const y = ctx.heightPt - top - 0.25 * PT + 6;
   page.drawText(first, { x: left + 8, y, size, font: fonts.regular, color: INK });
-  page.drawText(instruction, { x: left + 8 + fonts.regular.widthOfTextAtSize(first, size), y, size, font: fonts.bold, color: INK });
+  page.drawText(instruction, {
+    x: left + 8 + fonts.regular.widthOfTextAtSize(first, size),
+    y,
+    size,
+    font: fonts.bold,
+    color: INK,
+  });
 }
 
 // ---------------------------------------------------------------------------------------
 
 function requireGuide(value: number | undefined, what: string): void {
-  if (value !== undefined && !Number.isFinite(value)) throw new RangeError(`${what} must be a finite number of inches (got ${value}).`);
+  if (value !== undefined && !Number.isFinite(value))
+    throw new RangeError(`${what} must be a finite number of inches (got ${value}).`);
 }
 
 /**
@@ -495,7 +630,10 @@ export async function renderTestPrintPdf(input: TestPrintInput): Promise<TestPri
   doc.setTitle(`${title} - test print`);
   doc.setCreator("Chalkline");
   doc.setProducer("Chalkline");
-  const fonts = { regular: await doc.embedFont(StandardFonts.Helvetica), bold: await doc.embedFont(StandardFonts.HelveticaBold) };
+  const fonts = {
+    regular: await doc.embedFont(StandardFonts.Helvetica),
+    bold: await doc.embedFont(StandardFonts.HelveticaBold),
+  };
   const art = await embedArt(doc, input.art, plan.artWidthIn, plan.artHeightIn);
   const byLabel = new Map(plan.tiles.map((t) => [t.label, t]));
   const widthPt = plan.pageWidthIn * PT;
@@ -515,7 +653,12 @@ export async function renderTestPrintPdf(input: TestPrintInput): Promise<TestPri
         e: X(map.x(0)),
         f: Y(ctx, map.y(plan.artHeightIn)),
       },
-      { x: X(tile.pageX), y: Y(ctx, tile.pageY + tile.artHeight), width: X(tile.artWidth), height: X(tile.artHeight) },
+      {
+        x: X(tile.pageX),
+        y: Y(ctx, tile.pageY + tile.artHeight),
+        width: X(tile.artWidth),
+        height: X(tile.artHeight),
+      },
     );
     drawGuides(ctx, input);
     const targets = drawOverlapBands(ctx, byLabel);

@@ -1,0 +1,816 @@
+import fc from "fast-check";
+import sharp from "sharp";
+import { beforeAll, describe, expect, it } from "vitest";
+import {
+  DEFAULT_GANG_PPI,
+  MAX_SHEET_PIXELS,
+  SINGLE_PASS_MAX_PIXELS,
+  renderGangSheet,
+  type RenderGangSheetInput,
+} from "@/app/_server/production/gang-sheet";
+import {
+  DEFAULT_CAUTIONS,
+  renderSpecSheetPdf,
+  toWinAnsi,
+  type SpecSheetInput,
+} from "@/app/_server/production/spec-sheet";
+import {
+  FIVE_CM_BAR_PT,
+  ONE_INCH_BAR_PT,
+  SCALE_BAR_HEIGHT_PT,
+  joinInstruction,
+  renderTestPrintPdf,
+  type TestPrintInput,
+} from "@/app/_server/production/test-print";
+import { planTiles, tileCoverage, type PaperId, type TilePlan } from "@/lib/production/tiling";
+
+type PdfJs = typeof import("pdfjs-dist/legacy/build/pdf.mjs");
+type PdfDoc = Awaited<ReturnType<PdfJs["getDocument"]>["promise"]>;
+type PdfPage = Awaited<ReturnType<PdfDoc["getPage"]>>;
+
+let pdfjs: PdfJs;
+
+beforeAll(async () => {
+  pdfjs = await import("pdfjs-dist/legacy/build/pdf.mjs");
+});
+
+async function openPdf(bytes: Uint8Array): Promise<PdfDoc> {
+  // A copy: pdf.js may take ownership of the buffer it is given.
+  return pdfjs.getDocument({
+    data: bytes.slice(),
+    verbosity: 0,
+    isEvalSupported: false,
+    disableFontFace: true,
+    useSystemFonts: false,
+  }).promise;
+}
+
+async function pages(doc: PdfDoc): Promise<PdfPage[]> {
+  return Promise.all(Array.from({ length: doc.numPages }, (_, i) => doc.getPage(i + 1)));
+}
+
+async function pageText(page: PdfPage): Promise<string> {
+  const content = await page.getTextContent();
+  return content.items
+    .map((item) => ("str" in item ? item.str : ""))
+    .join(" ")
+    .replace(/\s+/g, " ");
+}
+
+async function documentText(doc: PdfDoc): Promise<string> {
+  return (await Promise.all((await pages(doc)).map(pageText))).join(" ");
+}
+
+// ---------------------------------------------------------------------------------------
+// Reading what a page draws.
+//
+// How the scale bars and the art are found: we walk pdf.js's operator list the way a viewer
+// does, keeping the current transformation matrix (ISO 32000 8.3.4: `cm` premultiplies the
+// CTM; q/Q save and restore it), and map each filled path's bounding box and each image's
+// unit square into page space. A 1 in bar drawn in any local coordinate system still comes
+// out 72 pt long in page space, so the check does not depend on how pdf-lib writes it.
+
+type Matrix = [number, number, number, number, number, number];
+interface Box {
+  x0: number;
+  y0: number;
+  x1: number;
+  y1: number;
+}
+interface DrawnImage {
+  ctm: Matrix;
+  clip: Box | null;
+  widthPx: number;
+  heightPx: number;
+}
+
+function multiply(m: Matrix, n: Matrix): Matrix {
+  // Point p goes through n first, then m (a `cm` of n with CTM m).
+  return [
+    m[0] * n[0] + m[2] * n[1],
+    m[1] * n[0] + m[3] * n[1],
+    m[0] * n[2] + m[2] * n[3],
+    m[1] * n[2] + m[3] * n[3],
+    m[0] * n[4] + m[2] * n[5] + m[4],
+    m[1] * n[4] + m[3] * n[5] + m[5],
+  ];
+}
+
+function mapBox(m: Matrix, b: Box): Box {
+  const pts = [
+    [b.x0, b.y0],
+    [b.x1, b.y0],
+    [b.x0, b.y1],
+    [b.x1, b.y1],
+  ].map(([x, y]) => [m[0] * x! + m[2] * y! + m[4], m[1] * x! + m[3] * y! + m[5]]);
+  return {
+    x0: Math.min(...pts.map((p) => p[0]!)),
+    y0: Math.min(...pts.map((p) => p[1]!)),
+    x1: Math.max(...pts.map((p) => p[0]!)),
+    y1: Math.max(...pts.map((p) => p[1]!)),
+  };
+}
+
+async function walk(page: PdfPage): Promise<{ filled: Box[]; images: DrawnImage[]; dashed: number }> {
+  const { OPS } = pdfjs;
+  const list = await page.getOperatorList();
+  const fills = new Set<number>([OPS.fill, OPS.eoFill, OPS.fillStroke, OPS.eoFillStroke]);
+  let state = { ctm: [1, 0, 0, 1, 0, 0] as Matrix, clip: null as Box | null };
+  const stack: (typeof state)[] = [];
+  let clipNext = false;
+  const filled: Box[] = [];
+  const images: DrawnImage[] = [];
+  let dashed = 0;
+  list.fnArray.forEach((fn, i) => {
+    const args = list.argsArray[i] as unknown[];
+    if (fn === OPS.save) stack.push({ ...state });
+    else if (fn === OPS.restore) state = stack.pop() ?? state;
+    else if (fn === OPS.transform) state = { ...state, ctm: multiply(state.ctm, args as Matrix) };
+    else if (fn === OPS.clip || fn === OPS.eoClip) clipNext = true;
+    else if (fn === OPS.setDash && Array.isArray(args[0]) && (args[0] as number[]).length > 0) dashed += 1;
+    else if (fn === OPS.constructPath) {
+      const [paintOp, , minMax] = args as [number, unknown, ArrayLike<number> | null];
+      if (!minMax) return;
+      const box = mapBox(state.ctm, { x0: minMax[0]!, y0: minMax[1]!, x1: minMax[2]!, y1: minMax[3]! });
+      if (clipNext) {
+        state = { ...state, clip: box };
+        clipNext = false;
+      }
+      if (fills.has(paintOp)) filled.push(box);
+    } else if (fn === OPS.paintImageXObject) {
+      images.push({
+        ctm: state.ctm,
+        clip: state.clip,
+        widthPx: args[1] as number,
+        heightPx: args[2] as number,
+      });
+    }
+  });
+  return { filled, images, dashed };
+}
+
+const near = (a: number, b: number, eps = 0.01) => Math.abs(a - b) <= eps;
+
+/** Filled rectangles exactly `length` pt long and one scale-bar thick. */
+function barsOfLength(filled: Box[], length: number): Box[] {
+  return filled.filter(
+    (b) => near(b.x1 - b.x0, length, 0.005) && near(b.y1 - b.y0, SCALE_BAR_HEIGHT_PT, 0.005),
+  );
+}
+
+async function renderPage(
+  page: PdfPage,
+  scale: number,
+): Promise<{ data: Uint8ClampedArray; width: number; height: number }> {
+  const { createCanvas } = await import("@napi-rs/canvas");
+  const viewport = page.getViewport({ scale });
+  const canvas = createCanvas(Math.ceil(viewport.width), Math.ceil(viewport.height));
+  const context = canvas.getContext("2d");
+  context.fillStyle = "#ffffff";
+  context.fillRect(0, 0, canvas.width, canvas.height);
+  await page.render({ canvas: canvas as never, canvasContext: context as never, viewport } as never).promise;
+  return {
+    data: context.getImageData(0, 0, canvas.width, canvas.height).data,
+    width: canvas.width,
+    height: canvas.height,
+  };
+}
+
+function pixel(
+  img: { data: ArrayLike<number>; width: number },
+  x: number,
+  y: number,
+  channels = 4,
+): number[] {
+  const i = (Math.round(y) * img.width + Math.round(x)) * channels;
+  return Array.from({ length: channels }, (_, c) => img.data[i + c]!);
+}
+
+const isRed = ([r, g, b]: number[]) => r! > 200 && g! < 60 && b! < 60;
+const isBlue = ([r, g, b]: number[]) => r! < 60 && g! < 60 && b! > 200;
+
+/** Left half red, right half blue (an art raster whose left and right can be told apart). */
+async function redBluePng(width: number, height: number): Promise<Buffer> {
+  const half = Math.floor(width / 2);
+  const red = await sharp({ create: { width: half, height, channels: 4, background: "#ff0000" } })
+    .png()
+    .toBuffer();
+  return sharp({ create: { width, height, channels: 4, background: "#0000ff" } })
+    .composite([{ input: red, left: 0, top: 0 }])
+    .png()
+    .toBuffer();
+}
+
+async function solidPng(colour: string, width = 8, height = 8): Promise<Buffer> {
+  return sharp({ create: { width, height, channels: 4, background: colour } })
+    .png()
+    .toBuffer();
+}
+
+/** A plan rebuilt from the PDF alone: which slice of the art each page's image shows, and where. */
+function planFromPdf(plan: TilePlan, drawn: DrawnImage[][], pageHeightPt: number): TilePlan {
+  const W = plan.artWidthIn;
+  const H = plan.artHeightIn;
+  const tiles = plan.tiles.map((tile, i) => {
+    const image = drawn[i]![0]!;
+    const clip = image.clip!;
+    const [a, , , d, e, f] = image.ctm;
+    // Unit square (u, v) of the image → page (a·u + e, d·v + f); art x = u·W, art y = (1 − v)·H.
+    const ux = [(clip.x0 - e) / a, (clip.x1 - e) / a].sort((p, q) => p - q);
+    const vy = [(clip.y0 - f) / d, (clip.y1 - f) / d].sort((p, q) => p - q);
+    return {
+      ...tile,
+      artX: ux[0]! * W,
+      artWidth: (ux[1]! - ux[0]!) * W,
+      artY: (1 - vy[1]!) * H,
+      artHeight: (vy[1]! - vy[0]!) * H,
+      pageX: clip.x0 / 72,
+      pageY: (pageHeightPt - clip.y1) / 72,
+    };
+  });
+  return { ...plan, tiles };
+}
+
+// ---------------------------------------------------------------------------------------
+
+describe("renderTestPrintPdf", () => {
+  let smallArt: Buffer;
+  beforeAll(async () => {
+    smallArt = await redBluePng(60, 40);
+  });
+
+  const base = (over: Partial<TestPrintInput>): TestPrintInput => ({
+    title: "Test job",
+    art: { png: smallArt },
+    artWidthIn: 6,
+    artHeightIn: 4,
+    paper: "letter",
+    ...over,
+  });
+
+  it.each([
+    // ANSI/ASME Y14.1 size A: 8.5 × 11 in; ISO 32000: 72 units per inch → 612 × 792 pt.
+    { paper: "letter" as PaperId, orientation: "portrait" as const, w: 612, h: 792 },
+    { paper: "letter" as PaperId, orientation: "landscape" as const, w: 792, h: 612 },
+    // ISO 216 A4: 210 × 297 mm; NIST SP 811: 25.4 mm per inch → 595.28 × 841.89 pt.
+    { paper: "a4" as PaperId, orientation: "portrait" as const, w: 595.28, h: 841.89 },
+    // ANSI/ASME Y14.1 size B: 11 × 17 in → 792 × 1224 pt.
+    { paper: "tabloid" as PaperId, orientation: "portrait" as const, w: 792, h: 1224 },
+    // ISO 216 A3: 297 × 420 mm → 841.89 × 1190.55 pt.
+    { paper: "a3" as PaperId, orientation: "portrait" as const, w: 841.89, h: 1190.55 },
+  ])("$paper $orientation pages are $w × $h pt", async ({ paper, orientation, w, h }) => {
+    const { pdf, plan } = await renderTestPrintPdf(
+      base({ paper, orientation, artWidthIn: 14, artHeightIn: 18 }),
+    );
+    const doc = await openPdf(pdf);
+    expect(doc.numPages).toBe(plan.pages);
+    expect(plan.pages).toBeGreaterThan(1);
+    for (const page of await pages(doc)) {
+      const [x0, y0, x1, y1] = page.view;
+      expect(Math.abs(x1! - x0! - w)).toBeLessThanOrEqual(0.01);
+      expect(Math.abs(y1! - y0! - h)).toBeLessThanOrEqual(0.01);
+      const viewport = page.getViewport({ scale: 1 });
+      expect(Math.abs(viewport.width - w)).toBeLessThanOrEqual(0.01);
+      expect(Math.abs(viewport.height - h)).toBeLessThanOrEqual(0.01);
+    }
+  });
+
+  it("draws a 1 in bar (72 pt, ISO 32000) and a 5 cm bar (5 / 2.54 × 72 pt, NIST SP 811) on every page, inside the printable area", async () => {
+    expect(ONE_INCH_BAR_PT).toBe(72);
+    expect(FIVE_CM_BAR_PT).toBeCloseTo(141.732, 3);
+    const { pdf, plan } = await renderTestPrintPdf(base({ artWidthIn: 20, artHeightIn: 14, paper: "a4" }));
+    const doc = await openPdf(pdf);
+    for (const page of await pages(doc)) {
+      const { filled } = await walk(page);
+      const inch = barsOfLength(filled, 72);
+      const cm5 = barsOfLength(filled, (5 / 2.54) * 72);
+      expect(inch).toHaveLength(1);
+      expect(cm5).toHaveLength(1);
+      const m = plan.marginIn * 72;
+      for (const bar of [...inch, ...cm5]) {
+        expect(bar.x0).toBeGreaterThanOrEqual(m);
+        expect(bar.y0).toBeGreaterThanOrEqual(m);
+        expect(bar.x1).toBeLessThanOrEqual(plan.pageWidthIn * 72 - m);
+        expect(bar.y1).toBeLessThanOrEqual(plan.pageHeightIn * 72 - m);
+      }
+    }
+  });
+
+  it("puts one tile on each page: the plan is planTiles' own, and the page count matches it", async () => {
+    const options = {
+      artWidthIn: 18,
+      artHeightIn: 24,
+      paper: "letter" as PaperId,
+      overlapIn: 0.5,
+      marginIn: 0.25,
+      orientation: "portrait" as const,
+    };
+    const { pdf, plan } = await renderTestPrintPdf(base(options));
+    expect(plan).toEqual(planTiles(options));
+    expect(plan.pages).toBe(9);
+    const doc = await openPdf(pdf);
+    expect(doc.numPages).toBe(plan.pages);
+    const texts = await Promise.all((await pages(doc)).map(pageText));
+    texts.forEach((text, i) => {
+      const tile = plan.tiles[i]!;
+      expect(text).toContain(tile.label);
+      expect(text).toContain(joinInstruction(tile.joins));
+      expect(text).toContain(`Page ${i + 1} of 9`);
+      expect(text).toContain("Print at 100% / Actual size - do not fit to page");
+    });
+    // The middle page of a 3 × 3 sheet.
+    expect(texts[4]).toContain("B2");
+    expect(texts[4]).toContain("Tape to A2 above, B1 to the left, B3 to the right, C2 below");
+    expect(texts[0]).toContain("Tape to A2 to the right, B1 below");
+  });
+
+  it("draws each tile's slice at true size; the slices read back from the PDF cover the art with the stated overlap", async () => {
+    await fc.assert(
+      fc.asyncProperty(
+        fc.record({
+          artWidthIn: fc.double({ min: 1, max: 30, noNaN: true }),
+          artHeightIn: fc.double({ min: 1, max: 30, noNaN: true }),
+          paper: fc.constantFrom<PaperId>("letter", "a4"),
+          overlapIn: fc.constantFrom(0, 0.25, 0.5, 1),
+          mirror: fc.boolean(),
+        }),
+        async (options) => {
+          const { pdf, plan } = await renderTestPrintPdf(base(options));
+          expect(plan).toEqual(planTiles(options));
+          const doc = await openPdf(pdf);
+          expect(doc.numPages).toBe(plan.pages);
+          const drawn: DrawnImage[][] = [];
+          for (const page of await pages(doc)) {
+            const { images } = await walk(page);
+            expect(images).toHaveLength(1);
+            const [a, b, c, d] = images[0]!.ctm;
+            // True size: the whole art is W × 72 by H × 72 pt; mirrored plans draw it flipped (negative width).
+            expect(Math.abs(a)).toBeCloseTo(plan.artWidthIn * 72, 6);
+            expect(d).toBeCloseTo(plan.artHeightIn * 72, 6);
+            expect(Math.sign(a)).toBe(plan.mirrored ? -1 : 1);
+            expect([b, c]).toEqual([0, 0]);
+            drawn.push(images);
+          }
+          const fromPdf = planFromPdf(plan, drawn, plan.pageHeightIn * 72);
+          fromPdf.tiles.forEach((t, i) => {
+            const want = plan.tiles[i]!;
+            for (const key of ["artX", "artY", "artWidth", "artHeight", "pageX", "pageY"] as const) {
+              expect(Math.abs(t[key] - want[key])).toBeLessThan(1e-3);
+            }
+          });
+          // pdf.js reads path coordinates as 32-bit floats (about 1e-5 pt off), so each slice read back
+          // is grown by 1e-4 in (0.007 pt, far below a printer's dot) before checking that they cover the art.
+          const tol = 1e-4;
+          const coverage = tileCoverage({
+            ...fromPdf,
+            tiles: fromPdf.tiles.map((t) => ({
+              ...t,
+              artX: t.artX - tol,
+              artY: t.artY - tol,
+              artWidth: t.artWidth + 2 * tol,
+              artHeight: t.artHeight + 2 * tol,
+            })),
+          });
+          const { horizontalOverlaps, verticalOverlaps } = tileCoverage(fromPdf);
+          expect(coverage.coversArt).toBe(true);
+          expect(tileCoverage(plan).insidePrintable).toBe(true);
+          for (const o of [...horizontalOverlaps, ...verticalOverlaps])
+            expect(o).toBeCloseTo(options.overlapIn, 3);
+        },
+      ),
+      { numRuns: 12, seed: 20260501 },
+    );
+  });
+
+  it.each([
+    { mirror: false, left: "red", right: "blue" },
+    { mirror: true, left: "blue", right: "red" },
+  ])("mirror $mirror: the left side of the art on the page is $left", async ({ mirror, left, right }) => {
+    const { pdf, plan } = await renderTestPrintPdf(base({ mirror }));
+    expect(plan.pages).toBe(1);
+    const tile = plan.tiles[0]!;
+    const doc = await openPdf(pdf);
+    const img = await renderPage(await doc.getPage(1), 1);
+    expect([img.width, img.height]).toEqual([612, 792]);
+    const y = (tile.pageY + 2) * 72;
+    const colour = (p: number[]) => (isRed(p) ? "red" : isBlue(p) ? "blue" : "other");
+    expect(colour(pixel(img, (tile.pageX + 1.5) * 72, y))).toBe(left);
+    expect(colour(pixel(img, (tile.pageX + 4.5) * 72, y))).toBe(right);
+    // True size on the raster too: at 72 px per inch the 6 in art is 432 px wide.
+    const row = Array.from({ length: img.width }, (_, x) => colour(pixel(img, x, y)) !== "other");
+    const first = row.indexOf(true);
+    const last = row.lastIndexOf(true);
+    expect(Math.abs(last - first + 1 - 432)).toBeLessThanOrEqual(2);
+    expect(Math.abs(first - tile.pageX * 72)).toBeLessThanOrEqual(1.5);
+  });
+
+  it("rasterises SVG art at about 250 ppi and draws the print area and collar line dashed", async () => {
+    const svg = `<svg xmlns="http://www.w3.org/2000/svg" width="200" height="100" viewBox="0 0 200 100"><rect width="100" height="100" fill="#ff0000"/><rect x="100" width="100" height="100" fill="#0000ff"/></svg>`;
+    const { pdf, plan } = await renderTestPrintPdf(
+      base({
+        art: { svg },
+        artWidthIn: 4,
+        artHeightIn: 2,
+        printArea: { widthIn: 5, heightIn: 6, offsetXIn: -0.5, offsetYIn: -1 },
+        collarLineYIn: -2.5,
+      }),
+    );
+    const doc = await openPdf(pdf);
+    const page = await doc.getPage(1);
+    const { images, dashed } = await walk(page);
+    expect(images).toHaveLength(1);
+    const ppi = images[0]!.widthPx / plan.artWidthIn;
+    expect(ppi).toBeGreaterThanOrEqual(200);
+    expect(ppi).toBeLessThanOrEqual(300);
+    expect(images[0]!.heightPx / plan.artHeightIn).toBeCloseTo(ppi, 0);
+    expect(dashed).toBeGreaterThanOrEqual(1);
+    const text = await pageText(page);
+    expect(text).toContain("print area");
+    expect(text).toContain("The collar line is 2 1/2 in above the top of the art");
+    const img = await renderPage(page, 1);
+    const tile = plan.tiles[0]!;
+    expect(isRed(pixel(img, (tile.pageX + 1) * 72, (tile.pageY + 1.5) * 72))).toBe(true);
+    expect(isBlue(pixel(img, (tile.pageX + 3) * 72, (tile.pageY + 1.5) * 72))).toBe(true);
+  });
+
+  it("sanitises the title, and refuses what the plan refuses", async () => {
+    const { pdf } = await renderTestPrintPdf(base({ title: "Team “Hawks” → front 🦅 ×2" }));
+    const text = await documentText(await openPdf(pdf));
+    expect(text).toContain('Team "Hawks" -> front x2');
+    await expect(renderTestPrintPdf(base({ artWidthIn: 400, artHeightIn: 400 }))).rejects.toThrow(RangeError);
+    await expect(renderTestPrintPdf(base({ art: { png: Buffer.from("not a png") } }))).rejects.toThrow(
+      /could not be read/,
+    );
+  });
+});
+
+// ---------------------------------------------------------------------------------------
+
+const SIZES = ["YS", "YM", "YL", "S", "M", "L", "XL", "2XL", "3XL", "4XL", "5XL"];
+
+function specInput(over: Partial<SpecSheetInput> = {}): SpecSheetInput {
+  return {
+    shopName: "Harbour Lane Print Co",
+    jobTitle: "Maple Street 5K volunteer tees",
+    clientName: "Maple Street Running Club",
+    dueDate: "2026-05-14",
+    method: "DTF",
+    garment: { style: "Cotton tee, unisex", colourName: "Heather navy", colourHex: "#2b3a55" },
+    sizeRun: SIZES.map((size, i) => ({ size, quantity: i + 2 })),
+    locations: [
+      {
+        label: "Full front",
+        side: "front",
+        perSize: SIZES.map((size, i) => ({
+          size,
+          widthIn: 8 + i * 0.4,
+          heightIn: 10.5,
+          belowCollarIn: 3,
+          offsetFromCenterIn: 0,
+          transfer: i < 3 ? "T1 8.5 in" : "T2 11 in",
+        })),
+      },
+    ],
+    thumbnails: [],
+    approval: null,
+    ...over,
+  };
+}
+
+describe("renderSpecSheetPdf", () => {
+  it("is Letter (612 × 792 pt, ANSI/ASME Y14.1 at 72 pt per inch) with the title, every size, the total and the 16 CFR 1120 caution", async () => {
+    const pdf = await renderSpecSheetPdf(specInput());
+    const doc = await openPdf(pdf);
+    for (const page of await pages(doc)) {
+      expect(page.view[2]! - page.view[0]!).toBeCloseTo(612, 2);
+      expect(page.view[3]! - page.view[1]!).toBeCloseTo(792, 2);
+    }
+    const text = await documentText(doc);
+    expect(text).toContain("Maple Street 5K volunteer tees");
+    for (const size of SIZES) expect(text).toMatch(new RegExp(`(^| )${size}( |$)`));
+    // 2 + 3 + … + 12 = 77 pieces.
+    expect(text).toContain("77");
+    expect(text).toContain("16 CFR 1120");
+    expect(text).toContain("2T to 12");
+    expect(text).toContain("NOT APPROVED YET");
+    // Sizes to the nearest 1/8 in, with decimals: 8 + 3 × 0.4 = 9.2 in → 9 1/4 in.
+    expect(text).toContain("9 1/4 x 10 1/2 in");
+    expect(text).toContain("9.2 x 10.5 in");
+    expect(text).toContain("T2 11 in");
+  });
+
+  it("shows the approval record instead of the banner once approved", async () => {
+    const pdf = await renderSpecSheetPdf(
+      specInput({ approval: { name: "Robin Vale", at: "2026-04-30 14:05", revision: "R3" } }),
+    );
+    const text = await documentText(await openPdf(pdf));
+    expect(text).toContain("APPROVED");
+    expect(text).not.toContain("NOT APPROVED YET");
+    expect(text).toContain("Robin Vale");
+    expect(text).toContain("R3");
+  });
+
+  it("flows long tables onto more Letter pages and keeps every row", async () => {
+    const many = Array.from({ length: 40 }, (_, i) => `Z${i + 1}`);
+    const pdf = await renderSpecSheetPdf(
+      specInput({
+        sizeRun: many.map((size) => ({ size, quantity: 1 })),
+        locations: ["Full front", "Full back", "Left sleeve"].map((label) => ({
+          label,
+          side: label === "Full back" ? ("back" as const) : ("front" as const),
+          perSize: many.map((size) => ({
+            size,
+            widthIn: 10,
+            heightIn: 12,
+            belowCollarIn: 3.5,
+            offsetFromCenterIn: -4,
+            transfer: "S1",
+          })),
+        })),
+      }),
+    );
+    const doc = await openPdf(pdf);
+    expect(doc.numPages).toBeGreaterThanOrEqual(4);
+    for (const page of await pages(doc)) expect(page.view).toEqual([0, 0, 612, 792]);
+    const text = await documentText(doc);
+    for (const size of many)
+      expect(text.match(new RegExp(`(^| )${size}( |$)`, "g"))!.length).toBeGreaterThanOrEqual(4);
+    expect(text).toContain(`Page ${doc.numPages} of ${doc.numPages}`);
+    expect(text).toContain("continued");
+    expect(text).toContain("4 in left");
+  });
+
+  it("does not throw on client text with arrows, emoji, curly quotes or CJK, and prints ASCII stand-ins", async () => {
+    const pdf = await renderSpecSheetPdf(
+      specInput({
+        jobTitle: "Front → back “final” 🎉👍🏽 design",
+        clientName: "Zoë’s Café 東京 🇯🇵",
+        garment: { style: "Tee — heavy ✓", colourName: "Ink ✕ blue", colourHex: "not a colour" },
+        cautions: ["Keep ≥ 3 in from seams… ‘always’"],
+        locations: [
+          {
+            label: "Left chest ★",
+            side: "front",
+            perSize: [
+              {
+                size: "M",
+                widthIn: 3.5,
+                heightIn: 3.5,
+                belowCollarIn: 3,
+                offsetFromCenterIn: 4,
+                transfer: "T1 → press 15 s",
+              },
+            ],
+          },
+        ],
+      }),
+    );
+    const text = await documentText(await openPdf(pdf));
+    expect(text).toContain('Front -> back "final" design');
+    expect(text).toContain("Zoë's Café ?");
+    expect(text).toContain("Keep >= 3 in from seams... 'always'");
+    expect(text).not.toContain("16 CFR 1120");
+  });
+
+  it("embeds readable thumbnails and survives unreadable ones", async () => {
+    const pdf = await renderSpecSheetPdf(
+      specInput({
+        thumbnails: [
+          { label: "Front mock-up", png: await solidPng("#22aa44", 400, 300) },
+          { label: "Broken", png: Buffer.from("nope") },
+        ],
+      }),
+    );
+    const doc = await openPdf(pdf);
+    let images = 0;
+    for (const page of await pages(doc)) images += (await walk(page)).images.length;
+    expect(images).toBe(1);
+    const text = await documentText(doc);
+    expect(text).toContain("Front mock-up");
+    expect(text).toContain("Image could not be read");
+  });
+
+  it("uses DEFAULT_CAUTIONS when none are given", async () => {
+    expect(DEFAULT_CAUTIONS.some((c) => c.includes("16 CFR 1120"))).toBe(true);
+    expect(DEFAULT_CAUTIONS.some((c) => /ventilat/i.test(c))).toBe(true);
+    expect(DEFAULT_CAUTIONS.some((c) => /burn/i.test(c))).toBe(true);
+  });
+});
+
+describe("toWinAnsi", () => {
+  it.each([
+    ["A → B", "A -> B"],
+    ["10 × 12", "10 x 12"],
+    ["“quoted” ‘single’", "\"quoted\" 'single'"],
+    ["en – em —", "en - em -"],
+    ["wait…", "wait..."],
+    ["party 🎉 time", "party time"],
+    ["thumbs 👍🏽", "thumbs "],
+    ["Zoë Café Ñandú", "Zoë Café Ñandú"],
+    ["Łódź Őrs", "Lódz Ors"],
+    ["ﬁne ｆｕｌｌ", "fine full"],
+    ["東京", "?"],
+    ["line\nbreak\ttab", "line break tab"],
+    ["€5 ™ © ½", "€5 ™ © ½"],
+  ])("%j → %j", (input, expected) => {
+    expect(toWinAnsi(input)).toBe(expected);
+  });
+
+  it("gives text the standard Helvetica can always show (WinAnsiEncoding, ISO 32000-1 Annex D)", async () => {
+    const { PDFDocument, StandardFonts } = await import("pdf-lib");
+    const doc = await PDFDocument.create();
+    const font = await doc.embedFont(StandardFonts.Helvetica);
+    await fc.assert(
+      fc.property(fc.string({ unit: "grapheme", maxLength: 40 }), (s) => {
+        expect(() => font.encodeText(toWinAnsi(s))).not.toThrow();
+      }),
+      { numRuns: 300, seed: 7 },
+    );
+    const all =
+      Array.from({ length: 0x250 }, (_, i) => String.fromCodePoint(i + 0x20)).join("") +
+      "€‚ƒ„…†‡ˆ‰Š‹ŒŽ‘’“”•–—˜™š›œžŸ→✓🎉";
+    expect(() => font.encodeText(toWinAnsi(all))).not.toThrow();
+  });
+});
+
+// ---------------------------------------------------------------------------------------
+
+/** Chunks of a PNG file, in order (W3C PNG: 8-byte signature, then length, type, data, CRC). */
+function pngChunks(png: Buffer): Array<{ type: string; data: Buffer }> {
+  const chunks: Array<{ type: string; data: Buffer }> = [];
+  let at = 8;
+  while (at < png.length) {
+    const length = png.readUInt32BE(at);
+    const type = png.toString("latin1", at + 4, at + 8);
+    chunks.push({ type, data: png.subarray(at + 8, at + 8 + length) });
+    at += 12 + length;
+  }
+  return chunks;
+}
+
+function physOf(png: Buffer): { x: number; y: number; unit: number } {
+  const phys = pngChunks(png).find((c) => c.type === "pHYs")!;
+  return { x: phys.data.readUInt32BE(0), y: phys.data.readUInt32BE(4), unit: phys.data[8]! };
+}
+
+async function rawOf(png: Buffer) {
+  const { data, info } = await sharp(png).ensureAlpha().raw().toBuffer({ resolveWithObject: true });
+  return { data, width: info.width, height: info.height };
+}
+
+describe("renderGangSheet", () => {
+  let sheet: RenderGangSheetInput;
+  beforeAll(async () => {
+    sheet = {
+      rollWidthIn: 4,
+      sheet: {
+        lengthIn: 3,
+        placements: [
+          { itemId: "red", x: 0.5, y: 0.5, widthIn: 1, heightIn: 1, rotated: false },
+          { itemId: "halves", x: 2.5, y: 1, widthIn: 1, heightIn: 2, rotated: true },
+          { itemId: "vector", x: 0.5, y: 2, widthIn: 1, heightIn: 0.5, rotated: false },
+        ],
+      },
+      art: {
+        red: { png: await solidPng("#ff0000", 37, 23) },
+        halves: { png: await redBluePng(200, 100) },
+        vector: {
+          svg: `<svg xmlns="http://www.w3.org/2000/svg" width="20" height="10"><rect width="20" height="10" fill="#0000ff"/></svg>`,
+        },
+      },
+    };
+  });
+
+  it("is (roll width × ppi) × (length × ppi) px with pHYs 11811 px/m at 300 ppi (W3C PNG; 300 / 0.0254)", async () => {
+    expect(DEFAULT_GANG_PPI).toBe(300);
+    const out = await renderGangSheet(sheet);
+    expect([out.widthPx, out.heightPx]).toEqual([1200, 900]);
+    const meta = await sharp(out.png).metadata();
+    expect([meta.width, meta.height]).toEqual([1200, 900]);
+    expect(meta.hasAlpha).toBe(true);
+    expect(physOf(out.png)).toEqual({ x: 11811, y: 11811, unit: 1 });
+    expect(Math.round(meta.density!)).toBe(300);
+  });
+
+  it("puts each piece's own colour where it was placed, at print resolution, and leaves the rest transparent", async () => {
+    const img = await rawOf((await renderGangSheet(sheet)).png);
+    const at = (x: number, y: number) => pixel(img, x, y);
+    expect(at(50, 50)[3]).toBe(0);
+    // The red 1 in square at (0.5, 0.5) in covers px 150…449 at 300 ppi.
+    expect(at(149, 300)[3]).toBe(0);
+    expect(at(150, 300)).toEqual([255, 0, 0, 255]);
+    expect(at(449, 449)).toEqual([255, 0, 0, 255]);
+    expect(at(450, 300)[3]).toBe(0);
+    // SVG piece at (0.5, 2) in, 1 × 0.5 in.
+    expect(at(300, 675)).toEqual([0, 0, 255, 255]);
+    // Turned 90° clockwise: the art's left (red) half is now on top.
+    expect(isRed(at(900, 450))).toBe(true);
+    expect(isBlue(at(900, 750))).toBe(true);
+    expect(at(740, 600)[3]).toBe(0);
+  });
+
+  it("writes a one-page PDF at true size with each piece drawn where it lies", async () => {
+    const out = await renderGangSheet(sheet);
+    const doc = await openPdf(out.pdf);
+    expect(doc.numPages).toBe(1);
+    const page = await doc.getPage(1);
+    // 4 × 3 in at 72 pt per inch (ISO 32000).
+    expect(page.view).toEqual([0, 0, 288, 216]);
+    const { images } = await walk(page);
+    expect(images).toHaveLength(3);
+    expect(images[0]!.ctm).toEqual([72, 0, 0, 72, 36, 216 - 1.5 * 72]);
+    expect([images[0]!.widthPx, images[0]!.heightPx]).toEqual([300, 300]);
+    expect(images[1]!.ctm).toEqual([72, 0, 0, 144, 2.5 * 72, 0]);
+    const img = await renderPage(page, 1);
+    expect(isRed(pixel(img, 72, 72))).toBe(true);
+    expect(isBlue(pixel(img, 72, 2.25 * 72))).toBe(true);
+  });
+
+  it("draws big sheets in strips with the same pixels, and reports progress up to 1", async () => {
+    const busy: RenderGangSheetInput = {
+      ...sheet,
+      sheet: {
+        lengthIn: 3,
+        placements: [
+          ...sheet.sheet.placements,
+          // Two pieces that overlap (drawn by sharp's compositing in strip mode) and a half-transparent one.
+          { itemId: "red", x: 1.7, y: 0.2, widthIn: 0.6, heightIn: 0.6, rotated: false },
+          { itemId: "vector", x: 2, y: 0.5, widthIn: 0.8, heightIn: 0.4, rotated: true },
+          { itemId: "glass", x: 1.6, y: 1.2, widthIn: 0.7, heightIn: 1.1, rotated: false },
+        ],
+      },
+      art: { ...sheet.art, glass: { png: await solidPng("#33cc6680", 16, 16) } },
+    };
+    const whole = await renderGangSheet(busy);
+    const steps: number[] = [];
+    const strips = await renderGangSheet({
+      ...busy,
+      singlePassMaxPixels: 0,
+      stripPixels: 1200 * 70,
+      onProgress: (f) => steps.push(f),
+    });
+    expect([strips.widthPx, strips.heightPx]).toEqual([1200, 900]);
+    expect(physOf(strips.png)).toEqual({ x: 11811, y: 11811, unit: 1 });
+    const a = await rawOf(whole.png);
+    const b = await rawOf(strips.png);
+    expect(b.data.length).toBe(a.data.length);
+    // Opaque and clear pixels match exactly; sharp's compositing may move a half-transparent one by 1/255.
+    let worst = 0;
+    let mismatchedOpaque = 0;
+    for (let i = 0; i < a.data.length; i += 4) {
+      for (let c = 0; c < 4; c++) worst = Math.max(worst, Math.abs(a.data[i + c]! - b.data[i + c]!));
+      if (a.data[i + 3] === 255 && !a.data.subarray(i, i + 4).equals(b.data.subarray(i, i + 4)))
+        mismatchedOpaque += 1;
+    }
+    expect(worst).toBeLessThanOrEqual(1);
+    expect(mismatchedOpaque).toBe(0);
+    expect(pixel(b, (1.6 + 0.35) * 300, (1.2 + 0.5) * 300)[3]).toBeCloseTo(128, -1);
+    expect(steps.length).toBeGreaterThan(5);
+    expect(steps.at(-1)).toBe(1);
+    for (let i = 1; i < steps.length; i++) expect(steps[i]!).toBeGreaterThanOrEqual(steps[i - 1]!);
+  });
+
+  it("guards memory: strips above 400 megapixels, refusal above the hard cap, before any drawing", async () => {
+    expect(SINGLE_PASS_MAX_PIXELS).toBeLessThanOrEqual(400_000_000);
+    const started = Date.now();
+    // 24 × 2,000 in at 300 ppi = 4.32 gigapixels.
+    await expect(
+      renderGangSheet({ rollWidthIn: 24, sheet: { lengthIn: 2000, placements: [] }, art: {} }),
+    ).rejects.toThrow(/megapixel limit/);
+    expect(Date.now() - started).toBeLessThan(1000);
+    expect(MAX_SHEET_PIXELS).toBeLessThan(1_000_000_000);
+  });
+
+  it("uses UserUnit for pages past 14,400 units (ISO 32000-1 Annex C) and keeps true size", async () => {
+    const out = await renderGangSheet({
+      rollWidthIn: 22,
+      ppi: 4,
+      sheet: {
+        lengthIn: 250,
+        placements: [{ itemId: "red", x: 1, y: 200, widthIn: 10, heightIn: 10, rotated: false }],
+      },
+      art: { red: sheet.art.red! },
+    });
+    const page = await (await openPdf(out.pdf)).getPage(1);
+    expect(page.userUnit).toBe(2);
+    const viewport = page.getViewport({ scale: 1 });
+    expect(viewport.width).toBeCloseTo(22 * 72, 6);
+    expect(viewport.height).toBeCloseTo(250 * 72, 6);
+    expect([out.widthPx, out.heightPx]).toEqual([88, 1000]);
+  });
+
+  it("refuses missing art and placements off the sheet", async () => {
+    await expect(renderGangSheet({ ...sheet, art: { red: sheet.art.red! } })).rejects.toThrow(
+      /No art was supplied for item "halves"/,
+    );
+    await expect(
+      renderGangSheet({
+        ...sheet,
+        sheet: {
+          lengthIn: 3,
+          placements: [{ itemId: "red", x: 3.5, y: 0, widthIn: 1, heightIn: 1, rotated: false }],
+        },
+      }),
+    ).rejects.toThrow(RangeError);
+  });
+});
