@@ -303,7 +303,7 @@ export default function ProofStage(props: Props) {
 
       {props.callouts || props.pins?.length ? (
         <Layer listening={false}>
-          {props.callouts ? props.placements.map((p) => <Callouts key={`co-${p.id}`} placement={p} view={view} unit={props.unit} colour={ink.label} />) : null}
+          {props.callouts ? props.placements.map((p) => <Callouts key={`co-${p.id}`} placement={p} view={view} unit={props.unit} />) : null}
           {(props.pins ?? []).map((pin) => {
             const at = toStage(view, { x: pin.xIn, y: pin.yIn });
             return (
@@ -361,7 +361,7 @@ function Rulers({ width, height, view, unit }: { width: number; height: number; 
 }
 
 /** Width, height, distance below the collar and offset from center, drawn on the garment. */
-function Callouts({ placement: p, view, unit, colour }: { placement: Placement; view: View; unit: LengthUnit; colour: string }) {
+function Callouts({ placement: p, view, unit }: { placement: Placement; view: View; unit: LengthUnit }) {
   const s = scaleOf(view);
   const topLeft = toStage(view, { x: p.offsetFromCenterIn - p.widthIn / 2, y: p.belowCollarIn });
   const w = p.widthIn * s;

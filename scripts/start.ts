@@ -16,7 +16,10 @@ const stack = await bringUpStack({ mode: "dev", port }).catch((error: unknown) =
 });
 
 let shuttingDown = false;
+// Assigned once the app starts; shutdown() may run before that.
+// eslint-disable-next-line prefer-const
 let app: ReturnType<typeof startNext> | undefined;
+// eslint-disable-next-line prefer-const
 let worker: ReturnType<typeof startWorker> | undefined;
 async function shutdown(code: number) {
   if (shuttingDown) return;

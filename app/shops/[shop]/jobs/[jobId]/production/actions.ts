@@ -46,8 +46,7 @@ export async function saveGradingAction(input: z.input<typeof gradingSchema>): P
   const access = await resolveShopAccess(parsed.data.shopSlug, "proofs.edit");
   if (access.kind !== "ok") return deniedAction(access);
   if (!(await findJob({ shopId: access.access.shop.id, jobId: parsed.data.jobId }))) return { ok: false, error: "Not found.", status: 404 };
-  const { shopSlug: _s, ...rest } = parsed.data;
-  await saveGrading(rest);
+  await saveGrading({ jobId: parsed.data.jobId, placementId: parsed.data.placementId, transferCount: parsed.data.transferCount, assignment: parsed.data.assignment, totalShortfall: parsed.data.totalShortfall });
   revalidatePath(`/shops/${parsed.data.shopSlug}/jobs/${parsed.data.jobId}/production`);
   return { ok: true, data: null };
 }
