@@ -1,9 +1,9 @@
 import "server-only";
 import type { ReviewViewProps } from "@/components/review/ReviewView";
 import { findBlank } from "@/db/queries/blanks";
-import { listApprovals, listComments, listRevisions, markSeen, proofContext } from "@/db/queries/review";
+import { listRevisions, markSeen, proofContext } from "@/db/queries/review";
 import { describeRevisionChanges } from "@/lib/review/diff";
-import { loadReview, type Reviewer } from "./review";
+import { loadReview, reviewState, type Reviewer } from "./review";
 
 /** Everything the review page draws, from the latest revision sent to the client (never the working copy). */
 export async function buildReviewProps(reviewer: Reviewer, key: string): Promise<ReviewViewProps | null> {
@@ -32,7 +32,6 @@ export async function buildReviewProps(reviewer: Reviewer, key: string): Promise
   if (reviewer.kind === "link" && latest) await markSeen({ linkId: reviewer.link.id, letter: latest.letter });
 
   const placedArt = new Set(snapshot.placements.map((p) => p.artworkId).filter(Boolean));
-  const [comments, approvals] = await Promise.all([listComments({ proofId: document.proof.id }), listApprovals({ proofId: document.proof.id })]);
   const context = await proofContext({ proofId: document.proof.id });
   return {
     reviewKind: reviewer.kind === "link" ? "link" : "proof",
@@ -49,22 +48,6 @@ export async function buildReviewProps(reviewer: Reviewer, key: string): Promise
     viewerName: reviewer.displayName,
     changes,
     signedIn: reviewer.kind !== "link",
-    initial: {
-      comments: comments.map((c) => ({
-        id: c.id,
-        parentId: c.parentId,
-        side: c.side,
-        xIn: c.xIn,
-        yIn: c.yIn,
-        body: c.body,
-        authorName: c.authorName,
-        authorRole: c.authorRole,
-        revisionLetter: c.revisionLetter,
-        createdAt: c.createdAt.toISOString(),
-        resolvedAt: c.resolvedAt?.toISOString() ?? null,
-      })),
-      revision: latest ? { letter: latest.letter, state: latest.state, sentAt: latest.sentAt.toISOString() } : null,
-      approvals: approvals.map((a) => ({ id: a.id, decision: a.decision, fullName: a.fullName, revisionLetter: a.revisionLetter, at: a.at.toISOString() })),
-    },
+    initial: await reviewState(document.proof.id),
   };
 }

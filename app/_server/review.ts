@@ -1,7 +1,7 @@
 import "server-only";
 import { getActor, type Actor } from "@/app/_server/access";
 import { findProofShop, getProofDocument, type ProofDocument } from "@/db/queries/proofs";
-import { latestRevision, lookupShareToken } from "@/db/queries/review";
+import { latestRevision, listApprovals, listComments, lookupShareToken } from "@/db/queries/review";
 import type { ProofRevision, ShareLink } from "@/db/schema";
 import { can, type ShopRole } from "@/lib/access";
 
@@ -57,4 +57,26 @@ export async function loadReview(reviewer: Reviewer): Promise<ReviewData | undef
 export function clientIp(request: Request): string | null {
   const forwarded = request.headers.get("x-forwarded-for");
   return forwarded?.split(",")[0]?.trim() || request.headers.get("x-real-ip") || null;
+}
+
+/** Notes, the newest revision's state and the decisions: what both review views poll. */
+export async function reviewState(proofId: string) {
+  const [comments, revision, approvals] = await Promise.all([listComments({ proofId }), latestRevision({ proofId }), listApprovals({ proofId })]);
+  return {
+    comments: comments.map((c) => ({
+      id: c.id,
+      parentId: c.parentId,
+      side: c.side,
+      xIn: c.xIn,
+      yIn: c.yIn,
+      body: c.body,
+      authorName: c.authorName,
+      authorRole: c.authorRole,
+      revisionLetter: c.revisionLetter,
+      createdAt: c.createdAt.toISOString(),
+      resolvedAt: c.resolvedAt?.toISOString() ?? null,
+    })),
+    revision: revision ? { letter: revision.letter, state: revision.state, sentAt: revision.sentAt.toISOString() } : null,
+    approvals: approvals.map((a) => ({ id: a.id, decision: a.decision, fullName: a.fullName, revisionLetter: a.revisionLetter, at: a.at.toISOString() })),
+  };
 }

@@ -1,9 +1,9 @@
-import { customType, index, integer, jsonb, pgTable, primaryKey, real, text, timestamp } from "drizzle-orm/pg-core";
+import { index, integer, jsonb, pgTable, primaryKey, real, text, timestamp } from "drizzle-orm/pg-core";
 import { users } from "./auth";
+import { bytea } from "./columns";
 import { jobs } from "./jobs";
 import { shops } from "./shops";
 
-const bytea = customType<{ data: Buffer; driverData: Buffer }>({ dataType: () => "bytea" });
 
 /** The job's size run: how many garments of each size. Orders and production both read it. */
 export const jobSizes = pgTable(

@@ -1,10 +1,10 @@
-import { boolean, customType, doublePrecision, index, integer, jsonb, pgTable, primaryKey, real, text, timestamp, uniqueIndex } from "drizzle-orm/pg-core";
+import { boolean, doublePrecision, index, integer, jsonb, pgTable, primaryKey, real, text, timestamp, uniqueIndex } from "drizzle-orm/pg-core";
 import { users } from "./auth";
+import { bytea } from "./columns";
 import { blanks } from "./blanks";
 import { jobs } from "./jobs";
 import { shops } from "./shops";
 
-const bytea = customType<{ data: Buffer; driverData: Buffer }>({ dataType: () => "bytea" });
 
 /**
  * Art the shop places on garments: generated demo art carries its SVG; uploads carry the analysis

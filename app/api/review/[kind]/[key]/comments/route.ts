@@ -2,8 +2,8 @@ import { NextResponse } from "next/server";
 import { z } from "zod";
 import { notifyClientComment, notifyShopReply } from "@/app/_server/notify";
 import { takeToken } from "@/app/_server/rate-limit";
-import { clientIp, resolveReview } from "@/app/_server/review";
-import { addComment, latestRevision, listApprovals, listComments, listShareLinks, setCommentResolved } from "@/db/queries/review";
+import { clientIp, resolveReview, reviewState } from "@/app/_server/review";
+import { addComment, latestRevision, listShareLinks, setCommentResolved } from "@/db/queries/review";
 
 export const dynamic = "force-dynamic";
 
@@ -26,32 +26,11 @@ function error(status: number, message: string) {
   return NextResponse.json({ error: message }, { status });
 }
 
-async function payload(proofId: string) {
-  const [comments, revision, approvals] = await Promise.all([listComments({ proofId }), latestRevision({ proofId }), listApprovals({ proofId })]);
-  return {
-    comments: comments.map((c) => ({
-      id: c.id,
-      parentId: c.parentId,
-      side: c.side,
-      xIn: c.xIn,
-      yIn: c.yIn,
-      body: c.body,
-      authorName: c.authorName,
-      authorRole: c.authorRole,
-      revisionLetter: c.revisionLetter,
-      createdAt: c.createdAt.toISOString(),
-      resolvedAt: c.resolvedAt?.toISOString() ?? null,
-    })),
-    revision: revision ? { letter: revision.letter, state: revision.state, sentAt: revision.sentAt.toISOString() } : null,
-    approvals: approvals.map((a) => ({ id: a.id, decision: a.decision, fullName: a.fullName, revisionLetter: a.revisionLetter, at: a.at.toISOString() })),
-  };
-}
-
 export async function GET(_request: Request, { params }: Params) {
   const { kind, key } = await params;
   const access = await resolveReview(kind, key);
   if (!access.ok) return error(access.status, access.message);
-  return NextResponse.json(await payload(access.reviewer.proofId), { headers: { "Cache-Control": "no-store" } });
+  return NextResponse.json(await reviewState(access.reviewer.proofId), { headers: { "Cache-Control": "no-store" } });
 }
 
 export async function POST(request: Request, { params }: Params) {
@@ -88,7 +67,7 @@ export async function POST(request: Request, { params }: Params) {
   } else {
     void notifyClientComment({ proofId: reviewer.proofId, author: authorName, body: input.body });
   }
-  return NextResponse.json({ comment: { id: comment.id }, ...(await payload(reviewer.proofId)) }, { status: 201 });
+  return NextResponse.json({ comment: { id: comment.id }, ...(await reviewState(reviewer.proofId)) }, { status: 201 });
 }
 
 export async function PATCH(request: Request, { params }: Params) {
@@ -100,5 +79,5 @@ export async function PATCH(request: Request, { params }: Params) {
   if (!parsed.success) return error(400, "Say which note to resolve or reopen.");
   const row = await setCommentResolved({ proofId: access.reviewer.proofId, commentId: parsed.data.commentId, resolved: parsed.data.resolved, by: access.reviewer.actor.id });
   if (!row) return error(404, "That note is not on this proof.");
-  return NextResponse.json(await payload(access.reviewer.proofId));
+  return NextResponse.json(await reviewState(access.reviewer.proofId));
 }
