@@ -66,6 +66,18 @@ describe("production exports", () => {
       expect(Math.min(p.width, p.height)).toBeCloseTo(595.28, 1);
       expect(Math.max(p.width, p.height)).toBeCloseTo(841.89, 1);
     }
+
+    // Gang sheet PNG at 300 ppi on a 22 in roll: 6600 px wide (22 in × 300 ppi).
+    await page.getByRole("button", { name: "Gang sheet PNG" }).click();
+    const gang = page.locator("[data-testid=export-row][data-kind=gang-sheet-png]").first();
+    await gang.waitFor();
+    await page.locator("[data-testid=export-row][data-kind=gang-sheet-png][data-state=done]").first().waitFor({ timeout: 120_000 });
+    const gangHref = await gang.getByRole("link", { name: /Download/ }).getAttribute("href");
+    const gangPng = Buffer.from(await (await page.request.get(gangHref!)).body());
+    const sharp = (await import("sharp")).default;
+    const meta = await sharp(gangPng, { limitInputPixels: false }).metadata();
+    expect(meta.width).toBe(6600);
+    expect(meta.density).toBeCloseTo(300, 0);
     await context.close();
   });
 });
