@@ -79,5 +79,5 @@ describe("production exports", () => {
     expect(meta.width).toBe(6600);
     expect(meta.density).toBeCloseTo(300, 0);
     await context.close();
-  });
+  }, 300_000);
 });
