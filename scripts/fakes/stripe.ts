@@ -71,10 +71,11 @@
  *     (webhook URL from STRIPE_WEBHOOK_URL, default http://localhost:3000/api/stripe/webhook, or
  *      port 3100 with --test; keys generated once into .data/stripe-fake-keys.json)
  */
+import { listenOnLoopback, trackSockets } from "../lib/loopback";
 import { createHash, createHmac, randomBytes, timingSafeEqual } from "node:crypto";
 import { existsSync, mkdirSync, readdirSync, readFileSync, renameSync, writeFileSync } from "node:fs";
 import http from "node:http";
-import type { AddressInfo, Socket } from "node:net";
+import type { Socket } from "node:net";
 import path from "node:path";
 import { isMain, repoRoot, stderrLogger, type LogFn } from "../lib/proc";
 
@@ -419,11 +420,6 @@ function readJsonDir<T>(dir: string, log: LogFn): T[] {
   return out;
 }
 
-function listenError(port: number, err: NodeJS.ErrnoException): Error {
-  if (err.code === "EADDRINUSE")
-    return new Error(`Port ${port} on ${HOST} is already in use (is another payments fake running?)`);
-  return err;
-}
 
 // ---------------------------------------------------------------------------
 // Form bodies (the SDK's bracket encoding: a[b][0][c]=v)
@@ -1773,25 +1769,8 @@ export async function startStripeFake(opts: StripeFakeOptions): Promise<StripeFa
     });
   });
   server.headersTimeout = 60_000;
-  server.on("connection", (socket) => {
-    sockets.add(socket);
-    socket.on("close", () => sockets.delete(socket));
-  });
-  server.on("clientError", (_err, socket) => {
-    if (socket.writable) socket.end("HTTP/1.1 400 Bad Request\r\nConnection: close\r\n\r\n");
-    else socket.destroy();
-  });
-
-  await new Promise<void>((resolve, reject) => {
-    const onError = (err: NodeJS.ErrnoException) => reject(listenError(opts.port, err));
-    server.once("error", onError);
-    server.listen(opts.port, HOST, () => {
-      server.off("error", onError);
-      server.on("error", (err) => log(`server error: ${err.message}`));
-      resolve();
-    });
-  });
-  const port = (server.address() as AddressInfo).port;
+  trackSockets(server, sockets);
+  const port = await listenOnLoopback(server, opts.port, "payments fake", log);
   baseUrl = `http://${HOST}:${port}`;
   publicUrl = (opts.publicUrl ?? baseUrl).replace(/\/$/, "");
 

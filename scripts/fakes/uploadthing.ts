@@ -51,11 +51,12 @@
  *
  *   tsx scripts/fakes/uploadthing.ts [--test]   runs until SIGINT/SIGTERM
  */
+import { listenOnLoopback, trackSockets } from "../lib/loopback";
 import { createHash, createHmac, randomBytes, randomUUID, timingSafeEqual } from "node:crypto";
 import { createReadStream, createWriteStream, existsSync, mkdirSync, readFileSync, writeFileSync, type WriteStream } from "node:fs";
 import fs from "node:fs/promises";
 import http from "node:http";
-import type { AddressInfo, Socket } from "node:net";
+import type { Socket } from "node:net";
 import path from "node:path";
 import { isMain, repoRoot, stderrLogger, type LogFn } from "../lib/proc";
 
@@ -532,16 +533,6 @@ function contentDisposition(kind: "inline" | "attachment", name: string): string
   return `${kind}; filename="${ascii}"; filename*=UTF-8''${encodeURIComponent(name)}`;
 }
 
-function listenError(port: number, err: NodeJS.ErrnoException): Error {
-  if (err.code === "EADDRINUSE") {
-    return new Error(
-      `Port ${port} on ${HOST} is already in use. Is another upload fake running? Stop it or choose another port.`,
-      { cause: err },
-    );
-  }
-  if (err.code === "EACCES") return new Error(`Not allowed to listen on ${HOST}:${port}; pick a port above 1024.`, { cause: err });
-  return new Error(`Could not listen on ${HOST}:${port}: ${err.message}`, { cause: err });
-}
 
 function errorText(error: unknown): string {
   return error instanceof Error ? error.message : String(error);
@@ -1195,25 +1186,8 @@ export async function startUploadthingFake(opts: UploadthingFakeOptions): Promis
   });
   server.requestTimeout = 0;
   server.headersTimeout = 60_000;
-  server.on("connection", (socket) => {
-    sockets.add(socket);
-    socket.on("close", () => sockets.delete(socket));
-  });
-  server.on("clientError", (_err, socket) => {
-    if (socket.writable) socket.end("HTTP/1.1 400 Bad Request\r\nConnection: close\r\n\r\n");
-    else socket.destroy();
-  });
-
-  await new Promise<void>((resolve, reject) => {
-    const onError = (err: NodeJS.ErrnoException) => reject(listenError(opts.port, err));
-    server.once("error", onError);
-    server.listen(opts.port, HOST, () => {
-      server.off("error", onError);
-      server.on("error", (err) => log(`server error: ${err.message}`));
-      resolve();
-    });
-  });
-  const port = (server.address() as AddressInfo).port;
+  trackSockets(server, sockets);
+  const port = await listenOnLoopback(server, opts.port, "upload fake", log);
   baseUrl = `http://${HOST}:${port}`;
 
   // Forget route metadata that nobody used (presigned URLs live an hour by default).
