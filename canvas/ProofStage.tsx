@@ -124,6 +124,7 @@ export default function ProofStage(props: Props) {
       width={width}
       height={height}
       onMouseDown={(e) => {
+        travelled.current = 0;
         const target = e.target;
         const onArt = target.getClassName() === "Image" || target.getParent()?.getClassName() === "Transformer";
         if (!onArt) {

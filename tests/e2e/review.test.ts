@@ -24,6 +24,8 @@ async function openProof(page: Page, jobTitle: RegExp, proofName: RegExp) {
 async function tapGarment(page: Page, selector: string) {
   const canvas = page.locator(`${selector} [data-testid=proof-canvas][data-scale]`);
   await canvas.waitFor();
+  // The stage is loaded on the client after the box is measured; tap only once it is drawn.
+  await page.waitForFunction(() => ((window as unknown as { Konva?: { stages: unknown[] } }).Konva?.stages.length ?? 0) > 0);
   const box = (await canvas.boundingBox())!;
   const scale = Number(await canvas.getAttribute("data-scale"));
   const ox = Number(await canvas.getAttribute("data-origin-x"));
