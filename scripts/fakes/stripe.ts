@@ -71,7 +71,7 @@
  *     (webhook URL from STRIPE_WEBHOOK_URL, default http://localhost:3000/api/stripe/webhook, or
  *      port 3100 with --test; keys generated once into .data/stripe-fake-keys.json)
  */
-import { listenOnLoopback, trackSockets } from "../lib/loopback";
+import { closeOnSignals, listenOnLoopback, trackSockets } from "../lib/loopback";
 import { createHash, createHmac, randomBytes, timingSafeEqual } from "node:crypto";
 import { existsSync, mkdirSync, readdirSync, readFileSync, renameSync, writeFileSync } from "node:fs";
 import http from "node:http";
@@ -1838,18 +1838,7 @@ async function main(argv: string[]): Promise<void> {
   log(
     `webhooks → ${webhookUrl}; ${fake.events().length} stored event(s) in ${target.dir}   (Ctrl-C to stop)`,
   );
-  const stop = (signal: NodeJS.Signals) => {
-    log(`${signal}: shutting down`);
-    fake.close().then(
-      () => process.exit(0),
-      (err: unknown) => {
-        process.stderr.write(`payments: error while closing: ${errorText(err)}\n`);
-        process.exit(1);
-      },
-    );
-  };
-  process.once("SIGINT", stop);
-  process.once("SIGTERM", stop);
+  closeOnSignals("payments", () => fake.close(), log);
 }
 
 if (isMain(import.meta.url)) {

@@ -51,7 +51,7 @@
  *
  *   tsx scripts/fakes/uploadthing.ts [--test]   runs until SIGINT/SIGTERM
  */
-import { listenOnLoopback, trackSockets } from "../lib/loopback";
+import { closeOnSignals, listenOnLoopback, trackSockets } from "../lib/loopback";
 import { createHash, createHmac, randomBytes, randomUUID, timingSafeEqual } from "node:crypto";
 import { createReadStream, createWriteStream, existsSync, mkdirSync, readFileSync, writeFileSync, type WriteStream } from "node:fs";
 import fs from "node:fs/promises";
@@ -1233,18 +1233,7 @@ async function main(argv: string[]): Promise<void> {
   const fake = await startUploadthingFake({ ...target, apiKey, appId: FAKE_APP_ID, log });
   log(`UPLOADTHING_TOKEN=${fakeToken({ apiKey, appId: FAKE_APP_ID, ingestHost: new URL(fake.url).host })}`);
   log(`UPLOADTHING_FAKE_URL=${fake.url}; ${fake.list().length} stored file(s) in ${target.dir}   (Ctrl-C to stop)`);
-  const stop = (signal: NodeJS.Signals) => {
-    log(`${signal}: shutting down`);
-    fake.close().then(
-      () => process.exit(0),
-      (err: unknown) => {
-        process.stderr.write(`uploads: error while closing: ${errorText(err)}\n`);
-        process.exit(1);
-      },
-    );
-  };
-  process.once("SIGINT", stop);
-  process.once("SIGTERM", stop);
+  closeOnSignals("uploads", () => fake.close(), log);
 }
 
 if (isMain(import.meta.url)) {

@@ -37,3 +37,19 @@ export async function listenOnLoopback(server: Server, port: number, what: strin
   });
   return (server.address() as AddressInfo).port;
 }
+
+/** For a fake run from the command line: close it on Ctrl-C or SIGTERM, then exit. */
+export function closeOnSignals(name: string, close: () => Promise<void>, log: (line: string) => void): void {
+  const stop = (signal: NodeJS.Signals) => {
+    log(`${signal}: shutting down`);
+    close().then(
+      () => process.exit(0),
+      (err: unknown) => {
+        process.stderr.write(`${name}: error while closing: ${err instanceof Error ? err.message : String(err)}\n`);
+        process.exit(1);
+      },
+    );
+  };
+  process.once("SIGINT", stop);
+  process.once("SIGTERM", stop);
+}
