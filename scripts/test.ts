@@ -6,10 +6,10 @@ import { existsSync, mkdirSync, readFileSync, rmSync } from "node:fs";
 import path from "node:path";
 import { buildApp, startNext, startWorker, stopChild, waitForHealth } from "./lib/next";
 import { isRoot, repoRoot, run } from "./lib/proc";
-import { bringUpStack } from "./lib/stack";
+import { bringUpStack, testPortOffset } from "./lib/stack";
 
 const log = (line: string) => console.log(`[test] ${line}`);
-const PORT = Number(process.env.TEST_PORT ?? 3100);
+const PORT = Number(process.env.TEST_PORT ?? 3100 + testPortOffset());
 const CHROMIUM = process.env.CHROMIUM_PATH ?? "/usr/bin/chromium";
 const reportDir = path.join(repoRoot, ".data", "test-reports");
 const only = process.argv.slice(2).filter((a) => !a.startsWith("-"));

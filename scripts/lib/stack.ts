@@ -8,6 +8,7 @@ import path from "node:path";
 import { DEV_DB, ensurePostgres, migrate, stopPostgres, TEST_DB } from "../db";
 import { DEV_MAIL, startSmtpFake, TEST_MAIL } from "../fakes/smtp";
 import { DEV_UPLOADS, FAKE_APP_ID, fakeApiKey, fakeUploadsEnv, startUploadthingFake, TEST_UPLOADS } from "../fakes/uploadthing";
+import { DEV_STRIPE, fakeStripeEnv, fakeStripeKeys, startStripeFake, TEST_STRIPE } from "../fakes/stripe";
 import { runSeed } from "../seed";
 import { repoRoot } from "./proc";
 
@@ -35,9 +36,23 @@ export function authSecret(): string {
   return secret;
 }
 
+/**
+ * CHALKLINE_PORT_OFFSET moves every test port (database, fakes, app) by the same amount, so a
+ * second checkout on this machine can run its tests beside the first. Dev ports never move.
+ */
+export function testPortOffset(): number {
+  const raw = process.env.CHALKLINE_PORT_OFFSET;
+  if (!raw) return 0;
+  const n = Number(raw);
+  if (!Number.isInteger(n) || n < 0 || n > 1000) throw new Error(`CHALKLINE_PORT_OFFSET must be a whole number from 0 to 1000 (got "${raw}")`);
+  return n;
+}
+
 export async function bringUpStack({ mode, port }: { mode: StackMode; port: number }): Promise<Stack> {
   const closers: Array<() => Promise<void>> = [];
-  const target = mode === "test" ? TEST_DB : DEV_DB;
+  const offset = mode === "test" ? testPortOffset() : 0;
+  const suffix = offset ? `-${offset}` : "";
+  const target = mode === "test" ? { ...TEST_DB, port: TEST_DB.port + offset, dataDir: TEST_DB.dataDir + suffix } : DEV_DB;
   const dbLog = (line: string) => log(`db: ${line}`);
 
   const external = mode === "test" ? process.env.TEST_DATABASE_URL : process.env.DATABASE_URL;
@@ -69,7 +84,7 @@ export async function bringUpStack({ mode, port }: { mode: StackMode; port: numb
   if (process.env.SMTP_URL) {
     log("e-mail: sending through SMTP_URL");
   } else {
-    const mail = mode === "test" ? TEST_MAIL : DEV_MAIL;
+    const mail = mode === "test" ? { smtpPort: TEST_MAIL.smtpPort + offset, httpPort: TEST_MAIL.httpPort + offset, dir: TEST_MAIL.dir + suffix } : DEV_MAIL;
     const fake = await startSmtpFake({ ...mail, log: (line) => log(`mail: ${line}`) });
     closers.push(() => fake.close());
     env.MAIL_FAKE_SMTP_PORT = String(mail.smtpPort);
@@ -80,12 +95,29 @@ export async function bringUpStack({ mode, port }: { mode: StackMode; port: numb
   if (process.env.UPLOADTHING_TOKEN && !process.env.UPLOADTHING_FAKE_URL) {
     log("uploads: using the hosted upload service from UPLOADTHING_TOKEN");
   } else {
-    const uploads = mode === "test" ? TEST_UPLOADS : DEV_UPLOADS;
+    const uploads = mode === "test" ? { port: TEST_UPLOADS.port + offset, dir: TEST_UPLOADS.dir + suffix } : DEV_UPLOADS;
     const apiKey = fakeApiKey();
     const fake = await startUploadthingFake({ ...uploads, apiKey, appId: FAKE_APP_ID, log: (line) => log(`uploads: ${line}`) });
     closers.push(() => fake.close());
     Object.assign(env, fakeUploadsEnv({ url: fake.url, apiKey, appId: FAKE_APP_ID, appUrl: env.APP_URL! }));
     log(`uploads: local fake of the upload service on ${fake.url}; files in ${path.relative(repoRoot, uploads.dir)}`);
+  }
+
+  if (process.env.STRIPE_SECRET_KEY && !process.env.STRIPE_FAKE_URL) {
+    log("payments: using the hosted payments service from STRIPE_SECRET_KEY");
+  } else {
+    const target = mode === "test" ? { port: TEST_STRIPE.port + offset, dir: TEST_STRIPE.dir + suffix } : DEV_STRIPE;
+    const keys = fakeStripeKeys();
+    const fake = await startStripeFake({
+      ...target,
+      webhookUrl: `http://127.0.0.1:${port}/api/stripe/webhook`,
+      webhookSecret: keys.webhookSecret,
+      secretKey: keys.secretKey,
+      log: (line) => log(`payments: ${line}`),
+    });
+    closers.push(() => fake.close());
+    Object.assign(env, fakeStripeEnv({ url: fake.url, ...keys }));
+    log(`payments: local fake of the payments API on ${fake.url}; its checkout page says it is a test page`);
   }
 
   return {
