@@ -70,9 +70,9 @@ export async function seedDemo(db: Db): Promise<{ seeded: boolean }> {
     const [teesJob, totesJob, hoodiesJob] = await tx
       .insert(schema.jobs)
       .values([
-        { shopId, clientId: soccer!.id, title: "Spring season team tees", status: "drafting", method: "screen-print", dueDate: "2027-03-12", createdBy: userIds["designer@chalkline.test"] },
-        { shopId, clientId: bakery!.id, title: "Market stall totes", status: "with-client", method: "dtf", dueDate: "2027-02-20", createdBy: userIds["owner@chalkline.test"] },
-        { shopId, clientId: robotics!.id, title: "Competition hoodies", status: "drafting", method: "dtf", dueDate: "2027-01-30", createdBy: userIds["owner@chalkline.test"] },
+        { shopId, clientId: soccer!.id, title: "Spring season team tees", status: "drafting", method: "screen-print", dueDate: "2027-03-12", createdBy: userIds["designer@chalkline.test"], blankId: libraryBlankId("everyday-crew-tee"), garmentColour: "Deep Harbor", printLocations: [{ location: "full-front", colours: 2 }] },
+        { shopId, clientId: bakery!.id, title: "Market stall totes", status: "with-client", method: "dtf", dueDate: "2027-02-20", createdBy: userIds["owner@chalkline.test"], blankId: libraryBlankId("market-canvas-tote"), garmentColour: "Raw Canvas", printLocations: [{ location: "tote-front", colours: 1 }], dtfAreaIn2: 33.3 },
+        { shopId, clientId: robotics!.id, title: "Competition hoodies", status: "drafting", method: "dtf", dueDate: "2027-01-30", createdBy: userIds["owner@chalkline.test"], blankId: libraryBlankId("campfire-pullover-hoodie"), garmentColour: "Carbon", printLocations: [{ location: "full-front", colours: 1 }], dtfAreaIn2: 108 },
       ])
       .returning({ id: schema.jobs.id });
 

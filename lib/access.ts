@@ -71,6 +71,7 @@ export function shopNav(role: ShopRole, shopSlug: string): NavItem[] {
     { key: "art", label: "Art library", href: `${base}/art`, needs: "jobs.view" },
     { key: "clients", label: "Clients", href: `${base}/clients`, needs: "clients.view" },
     { key: "blanks", label: "Blanks", href: `${base}/blanks`, needs: "blanks.view" },
+    { key: "prices", label: "Prices", href: `${base}/prices`, needs: "prices.view" },
     { key: "settings", label: "Shop settings", href: `${base}/settings`, needs: "shop.settings" },
   ];
   return items.filter((item) => can(role, item.needs)).map(({ key, label, href }) => ({ key, label, href }));

@@ -1,3 +1,7 @@
+/** Our own names for where a job stands, in order. */
+export const JOB_STATUSES = ["drafting", "with-client", "cleared", "on-press", "packed", "collected"] as const;
+export const DECORATION_METHODS = ["screen-print", "dtf", "dtg", "htv", "sublimation"] as const;
+
 /** Labels for job states and decoration methods. The state names are our own. */
 export const JOB_STATUS_LABELS = {
   drafting: "Drafting",

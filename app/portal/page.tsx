@@ -15,7 +15,7 @@ export default async function PortalPage() {
   const [jobs, shared] = await Promise.all([listJobsForClients({ clientIds }), listSharedProofsForClients({ clientIds })]);
   return (
     <>
-      <PageHeader title="My jobs" lead="Proofs your print shop has prepared for you." />
+      <PageHeader title="My jobs" lead="Quotes, payments and proofs from your print shop." />
       {jobs.length === 0 ? (
         <EmptyState title="Nothing to review yet">When your print shop shares a proof with you, it appears here.</EmptyState>
       ) : (
@@ -23,13 +23,22 @@ export default async function PortalPage() {
           {jobs.map((job) => (
             <li key={job.id} className="flex flex-wrap items-center justify-between gap-3 px-4 py-3">
               <span>
-                <span className="block font-medium">{job.title}</span>
+                <Link href={`/portal/jobs/${job.id}`} className="block font-medium text-ink-900 hover:text-patina-700 hover:underline">
+                  {job.title}
+                </Link>
                 <span className="block text-sm text-ink-500">
                   {job.shopName}
                   {job.dueDate ? ` · wanted by ${job.dueDate}` : ""}
                 </span>
               </span>
-              <StatusBadge status={job.status} />
+              <span className="flex items-center gap-2">
+                {job.money.quote && job.money.quote.state !== "replaced" ? (
+                  <Link href={`/portal/jobs/${job.id}`} className="text-sm font-medium text-patina-700 hover:underline">
+                    {job.money.quote.state === "sent" ? "Quote waiting for you →" : "Quote and payments →"}
+                  </Link>
+                ) : null}
+                <StatusBadge status={job.status} />
+              </span>
               {shared.filter((p) => p.jobId === job.id).length ? (
                 <ul className="w-full space-y-1">
                   {shared

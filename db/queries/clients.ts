@@ -1,19 +1,21 @@
 import "server-only";
-import { and, asc, count, eq } from "drizzle-orm";
+import { and, asc, count, eq, inArray, notInArray } from "drizzle-orm";
 import { db } from "../client";
-import { clientContacts, clients, jobs } from "../schema";
+import { clientContacts, clients, jobs, users } from "../schema";
+import { recordAudit } from "./audit";
 
-export async function listClients({ shopId }: { shopId: string }) {
+export async function listClients({ shopId, includeArchived = false }: { shopId: string; includeArchived?: boolean }) {
   const rows = await db
-    .select({ id: clients.id, name: clients.name, notes: clients.notes, archived: clients.archived, createdAt: clients.createdAt })
+    .select({ id: clients.id, name: clients.name, notes: clients.notes, archived: clients.archived, taxExempt: clients.taxExempt, createdAt: clients.createdAt })
     .from(clients)
-    .where(and(eq(clients.shopId, shopId), eq(clients.archived, false)))
+    .where(includeArchived ? eq(clients.shopId, shopId) : and(eq(clients.shopId, shopId), eq(clients.archived, false)))
     .orderBy(asc(clients.name));
   const contactRows = await db
-    .select({ clientId: clientContacts.clientId, name: clientContacts.name, email: clientContacts.email })
+    .select({ id: clientContacts.id, clientId: clientContacts.clientId, name: clientContacts.name, email: clientContacts.email, phone: clientContacts.phone, hasAccount: clientContacts.userId })
     .from(clientContacts)
     .innerJoin(clients, eq(clients.id, clientContacts.clientId))
-    .where(eq(clients.shopId, shopId));
+    .where(eq(clients.shopId, shopId))
+    .orderBy(asc(clientContacts.createdAt));
   const jobCounts = await db
     .select({ clientId: jobs.clientId, n: count() })
     .from(jobs)
@@ -21,7 +23,99 @@ export async function listClients({ shopId }: { shopId: string }) {
     .groupBy(jobs.clientId);
   return rows.map((row) => ({
     ...row,
-    contacts: contactRows.filter((c) => c.clientId === row.id),
+    contacts: contactRows.filter((c) => c.clientId === row.id).map((c) => ({ ...c, hasAccount: c.hasAccount !== null })),
     jobs: jobCounts.find((j) => j.clientId === row.id)?.n ?? 0,
   }));
+}
+
+export type ClientListRow = Awaited<ReturnType<typeof listClients>>[number];
+
+export async function findClient({ shopId, clientId }: { shopId: string; clientId: string }) {
+  const [row] = await db
+    .select()
+    .from(clients)
+    .where(and(eq(clients.id, clientId), eq(clients.shopId, shopId)))
+    .limit(1);
+  if (!row) return undefined;
+  const contacts = await db.select().from(clientContacts).where(eq(clientContacts.clientId, clientId)).orderBy(asc(clientContacts.createdAt));
+  return { ...row, contacts };
+}
+
+export type ClientInput = {
+  name: string;
+  notes: string | null;
+  taxExempt: boolean;
+  contacts: Array<{ id?: string; name: string; email: string; phone: string | null }>;
+};
+
+async function userIdsByEmail(emails: string[]): Promise<Map<string, string>> {
+  if (emails.length === 0) return new Map();
+  const rows = await db.select({ id: users.id, email: users.email }).from(users).where(inArray(users.email, emails));
+  return new Map(rows.map((r) => [r.email, r.id]));
+}
+
+/** Creates a client with its contacts in one go. Contacts whose e-mail already has an account are linked to it. */
+export async function createClient({ shopId, actorUserId, input }: { shopId: string; actorUserId: string; input: ClientInput }) {
+  const accounts = await userIdsByEmail(input.contacts.map((c) => c.email));
+  return db.transaction(async (tx) => {
+    const [client] = await tx.insert(clients).values({ shopId, name: input.name, notes: input.notes, taxExempt: input.taxExempt }).returning();
+    if (input.contacts.length) {
+      await tx.insert(clientContacts).values(input.contacts.map((c) => ({ clientId: client!.id, name: c.name, email: c.email, phone: c.phone, userId: accounts.get(c.email) ?? null })));
+    }
+    await recordAudit({ shopId, actorUserId, action: "client.created", subjectType: "client", subjectId: client!.id, detail: { name: input.name } }, tx);
+    return client!;
+  });
+}
+
+/**
+ * Saves a client and its contact list: listed contacts are updated or added, contacts left out are
+ * removed. All or nothing.
+ */
+export async function updateClient({ shopId, clientId, actorUserId, input }: { shopId: string; clientId: string; actorUserId: string; input: ClientInput }) {
+  const accounts = await userIdsByEmail(input.contacts.map((c) => c.email));
+  return db.transaction(async (tx) => {
+    const [client] = await tx
+      .update(clients)
+      .set({ name: input.name, notes: input.notes, taxExempt: input.taxExempt })
+      .where(and(eq(clients.id, clientId), eq(clients.shopId, shopId)))
+      .returning();
+    if (!client) return undefined;
+    const keep = input.contacts.flatMap((c) => (c.id ? [c.id] : []));
+    await tx
+      .delete(clientContacts)
+      .where(keep.length ? and(eq(clientContacts.clientId, clientId), notInArray(clientContacts.id, keep)) : eq(clientContacts.clientId, clientId));
+    for (const c of input.contacts) {
+      if (c.id) {
+        const [updated] = await tx
+          .update(clientContacts)
+          .set({ name: c.name, email: c.email, phone: c.phone })
+          .where(and(eq(clientContacts.id, c.id), eq(clientContacts.clientId, clientId)))
+          .returning({ id: clientContacts.id, userId: clientContacts.userId });
+        if (!updated) throw new ContactMissingError();
+        if (!updated.userId && accounts.has(c.email)) await tx.update(clientContacts).set({ userId: accounts.get(c.email)! }).where(eq(clientContacts.id, c.id));
+      } else {
+        await tx.insert(clientContacts).values({ clientId, name: c.name, email: c.email, phone: c.phone, userId: accounts.get(c.email) ?? null });
+      }
+    }
+    await recordAudit({ shopId, actorUserId, action: "client.updated", subjectType: "client", subjectId: clientId, detail: { name: input.name } }, tx);
+    return client;
+  });
+}
+
+export class ContactMissingError extends Error {
+  constructor() {
+    super("A contact on this form was removed meanwhile. Reload the page and try again.");
+  }
+}
+
+export async function setClientArchived({ shopId, clientId, archived, actorUserId }: { shopId: string; clientId: string; archived: boolean; actorUserId: string }) {
+  return db.transaction(async (tx) => {
+    const [row] = await tx
+      .update(clients)
+      .set({ archived })
+      .where(and(eq(clients.id, clientId), eq(clients.shopId, shopId)))
+      .returning({ id: clients.id, name: clients.name });
+    if (row) await recordAudit({ shopId, actorUserId, action: archived ? "client.archived" : "client.restored", subjectType: "client", subjectId: clientId, detail: { name: row.name } }, tx);
+    return row;
+  });
 }

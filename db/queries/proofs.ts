@@ -55,9 +55,9 @@ export async function getProofDocument({ shopId, proofId }: { shopId: string; pr
 }
 
 /** The proof's shop, for routes addressed by proof id alone. */
-export async function findProofShop({ proofId }: { proofId: string }): Promise<{ shopId: string; clientId: string } | undefined> {
+export async function findProofShop({ proofId }: { proofId: string }): Promise<{ shopId: string; clientId: string; jobId: string } | undefined> {
   const [row] = await db
-    .select({ shopId: proofs.shopId, clientId: jobs.clientId })
+    .select({ shopId: proofs.shopId, clientId: jobs.clientId, jobId: jobs.id })
     .from(proofs)
     .innerJoin(jobs, eq(jobs.id, proofs.jobId))
     .where(eq(proofs.id, proofId))

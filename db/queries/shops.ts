@@ -168,3 +168,8 @@ export async function acceptInvitation(input: {
     return { ok: true as const, shopSlug: invite.shopSlug, email: invite.email };
   });
 }
+
+export async function findShopById({ shopId }: { shopId: string }) {
+  const [row] = await db.select({ id: shops.id, slug: shops.slug, name: shops.name }).from(shops).where(eq(shops.id, shopId)).limit(1);
+  return row;
+}

@@ -15,6 +15,8 @@ export const clients = pgTable(
     name: text("name").notNull(),
     notes: text("notes"),
     archived: boolean("archived").notNull().default(false),
+    /** A resale or exempt-organisation certificate is on file: quotes carry no tax. */
+    taxExempt: boolean("tax_exempt").notNull().default(false),
     createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
   },
   (t) => [index("clients_shop").on(t.shopId)],

@@ -7,3 +7,4 @@ export * from "./blanks";
 export * from "./proofs";
 export * from "./review";
 export * from "./production";
+export * from "./orders";

@@ -1,13 +1,14 @@
-import { date, index, pgEnum, pgTable, text, timestamp } from "drizzle-orm/pg-core";
+import { boolean, date, doublePrecision, index, jsonb, pgEnum, pgTable, text, timestamp } from "drizzle-orm/pg-core";
+import { blanks } from "./blanks";
 import { users } from "./auth";
 import { clients } from "./clients";
 import { shops } from "./shops";
 
-/** Our own names for where a job stands, in order. */
-export const JOB_STATUSES = ["drafting", "with-client", "cleared", "on-press", "packed", "collected"] as const;
+import { DECORATION_METHODS, JOB_STATUSES } from "../../lib/jobs";
+
+export { DECORATION_METHODS, JOB_STATUSES };
 export const jobStatus = pgEnum("job_status", JOB_STATUSES);
 
-export const DECORATION_METHODS = ["screen-print", "dtf", "dtg", "htv", "sublimation"] as const;
 export const decorationMethod = pgEnum("decoration_method", DECORATION_METHODS);
 
 export const jobs = pgTable(
@@ -27,6 +28,14 @@ export const jobs = pgTable(
     method: decorationMethod("method").notNull().default("screen-print"),
     dueDate: date("due_date"),
     notes: text("notes"),
+    /** The blank garment (style) and its colour. */
+    blankId: text("blank_id").references(() => blanks.id, { onDelete: "set null" }),
+    garmentColour: text("garment_colour"),
+    /** Print locations, each with its ink colour count (screen print uses it for screens and price). */
+    printLocations: jsonb("print_locations").$type<JobPrintLocation[]>().notNull().default([]),
+    /** DTF: total transfer area per garment, in², for the quote. */
+    dtfAreaIn2: doublePrecision("dtf_area_in2"),
+    rush: boolean("rush").notNull().default(false),
     createdBy: text("created_by").references(() => users.id, { onDelete: "set null" }),
     createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
     updatedAt: timestamp("updated_at", { withTimezone: true }).notNull().defaultNow(),
@@ -35,3 +44,5 @@ export const jobs = pgTable(
 );
 
 export type Job = typeof jobs.$inferSelect;
+
+export type JobPrintLocation = { location: string; colours: number };

@@ -1,4 +1,4 @@
-import { index, pgEnum, pgTable, text, timestamp, uniqueIndex } from "drizzle-orm/pg-core";
+import { index, jsonb, pgEnum, pgTable, text, timestamp, uniqueIndex } from "drizzle-orm/pg-core";
 import { users } from "./auth";
 
 export const memberRole = pgEnum("member_role", ["owner", "designer", "production"]);
@@ -9,6 +9,9 @@ export const shops = pgTable("shops", {
     .$defaultFn(() => crypto.randomUUID()),
   slug: text("slug").notNull().unique(),
   name: text("name").notNull(),
+  /** The shop's price matrix (lib/pricing.ts); null until the owner saves one (the demo matrix is shown). */
+  priceMatrix: jsonb("price_matrix").$type<unknown>(),
+  priceMatrixUpdatedAt: timestamp("price_matrix_updated_at", { withTimezone: true }),
   createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
 });
 

@@ -1,5 +1,9 @@
 import { notFound } from "next/navigation";
+import { quotePanelData } from "@/app/_server/orders";
+import { checkoutReturn } from "@/app/_server/quote-return";
 import { buildReviewProps } from "@/app/_server/review-props";
+import { QuotePanel } from "@/components/orders/QuotePanel";
+import { findProofShop } from "@/db/queries/proofs";
 import { resolveReview } from "@/app/_server/review";
 import { ReviewView } from "@/components/review/ReviewView";
 import { Logo } from "@/components/ui/Logo";
@@ -8,13 +12,17 @@ export const dynamic = "force-dynamic";
 export const metadata = { title: "Proof review", robots: { index: false } };
 
 /** The client's review page for a share link. Works without an account, on a phone first. */
-export default async function ReviewByLinkPage({ params }: { params: Promise<{ token: string }> }) {
+export default async function ReviewByLinkPage({ params, searchParams }: { params: Promise<{ token: string }>; searchParams: Promise<{ checkout?: string }> }) {
   const { token } = await params;
   const access = await resolveReview("link", token);
   // Missing, wrong, withdrawn and expired links all end at the same clear page.
   if (!access.ok) notFound();
   const props = await buildReviewProps(access.reviewer, token);
   if (!props) notFound();
+  const proof = await findProofShop({ proofId: access.reviewer.proofId });
+  const panel = proof ? await quotePanelData(proof.jobId) : null;
+  const returned = panel ? await checkoutReturn((await searchParams).checkout) : undefined;
+  const reviewer = access.reviewer;
   return (
     <div className="min-h-screen">
       <header className="flex items-center justify-between border-b border-paper-300 bg-paper-100 px-gutter py-3">
@@ -23,6 +31,11 @@ export default async function ReviewByLinkPage({ params }: { params: Promise<{ t
       </header>
       <main className="px-3 py-4 sm:px-gutter sm:py-6">
         <ReviewView {...props} />
+        {panel ? (
+          <div className="mx-auto mt-6 max-w-3xl">
+            <QuotePanel data={panel} linkToken={token} canAccept={reviewer.canApprove} returned={returned} />
+          </div>
+        ) : null}
       </main>
     </div>
   );

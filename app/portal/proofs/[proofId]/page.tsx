@@ -1,6 +1,8 @@
 import { notFound, redirect } from "next/navigation";
 import { requireActorPage } from "@/app/_server/access";
+import Link from "next/link";
 import { buildReviewProps } from "@/app/_server/review-props";
+import { findProofShop } from "@/db/queries/proofs";
 import { resolveReview } from "@/app/_server/review";
 import { ReviewView } from "@/components/review/ReviewView";
 
@@ -18,5 +20,17 @@ export default async function PortalProofPage({ params }: { params: Promise<{ pr
   }
   const props = await buildReviewProps(access.reviewer, proofId);
   if (!props) notFound();
-  return <ReviewView {...props} />;
+  const proof = await findProofShop({ proofId });
+  return (
+    <>
+      <ReviewView {...props} />
+      {proof ? (
+        <p className="mt-6 text-center text-sm">
+          <Link href={`/portal/jobs/${proof.jobId}`} className="font-medium text-patina-700 hover:underline">
+            Quote and payments for this job →
+          </Link>
+        </p>
+      ) : null}
+    </>
+  );
 }

@@ -1,40 +1,70 @@
 import Link from "next/link";
 import { requireShopPage } from "@/app/_server/access";
+import { JobBoard } from "@/components/orders/JobBoard";
+import { JobTable, type JobRow } from "@/components/orders/JobTable";
 import { EmptyState } from "@/components/ui/EmptyState";
 import { PageHeader } from "@/components/ui/PageHeader";
-import { StatusBadge } from "@/components/ui/StatusBadge";
 import { listJobs } from "@/db/queries/jobs";
-import { DECORATION_LABELS } from "@/lib/jobs";
+import { can } from "@/lib/access";
+import { JOB_STATUSES, type JobStatus } from "@/lib/jobs";
+import { moneySummary } from "@/lib/quotes";
 
 export const dynamic = "force-dynamic";
 export const metadata = { title: "Jobs" };
 
-export default async function JobsPage({ params }: { params: Promise<{ shop: string }> }) {
+export default async function JobsPage({ params, searchParams }: { params: Promise<{ shop: string }>; searchParams: Promise<{ view?: string }> }) {
   const { shop } = await params;
+  const board = (await searchParams).view === "board";
   const access = await requireShopPage(shop, "jobs.view", `/shops/${shop}/jobs`);
   const jobs = await listJobs({ shopId: access.shop.id });
+  const seesMoney = can(access.role, "prices.view");
+  const rows: JobRow[] = jobs.map((j) => {
+    const summary = moneySummary({ quote: j.money.quote, payments: j.money.paid ? [{ state: "paid", amountCents: j.money.paid }] : [] });
+    return {
+      id: j.id,
+      title: j.title,
+      status: j.status,
+      method: j.method,
+      dueDate: j.dueDate,
+      rush: j.rush,
+      clientId: j.clientId,
+      clientName: j.clientName,
+      garment: j.garmentName,
+      quantity: j.sizeRun.reduce((s, r) => s + r.quantity, 0),
+      sizeRun: j.sizeRun,
+      ...(seesMoney ? { money: { state: summary.state, totalCents: summary.totalCents, paidCents: summary.paidCents, balanceCents: summary.balanceCents } } : {}),
+    };
+  });
+  const movable: readonly JobStatus[] = can(access.role, "jobs.edit") ? JOB_STATUSES : access.role === "production" ? ["cleared", "on-press", "packed", "collected"] : [];
   return (
     <>
-      <PageHeader title="Jobs" lead="Every order, from first proof to pickup." />
+      <PageHeader
+        title="Jobs"
+        lead="Every order, from first proof to pickup."
+        actions={
+          <>
+            <div className="inline-flex rounded-lg border border-paper-300 bg-chalk p-0.5 text-sm" role="group" aria-label="View">
+              <Link href={`/shops/${shop}/jobs`} aria-current={board ? undefined : "page"} className={`rounded-md px-3 py-1.5 ${board ? "text-ink-600" : "bg-ink-800 text-chalk"}`}>
+                List
+              </Link>
+              <Link href={`/shops/${shop}/jobs?view=board`} aria-current={board ? "page" : undefined} className={`rounded-md px-3 py-1.5 ${board ? "bg-ink-800 text-chalk" : "text-ink-600"}`}>
+                Board
+              </Link>
+            </div>
+            {can(access.role, "jobs.edit") ? (
+              <Link href={`/shops/${shop}/jobs/new`} className="btn-primary">
+                New job
+              </Link>
+            ) : null}
+          </>
+        }
+      />
       {jobs.length === 0 ? (
         <EmptyState title="No jobs yet">A job holds a client&apos;s garments, sizes and proofs.</EmptyState>
+      ) : board ? (
+        <JobBoard shopSlug={shop} rows={rows} movable={movable} />
       ) : (
-        <ul className="card divide-y divide-paper-200">
-          {jobs.map((job) => (
-            <li key={job.id}>
-              <Link href={`/shops/${shop}/jobs/${job.id}`} className="flex flex-wrap items-center justify-between gap-3 px-4 py-3 hover:bg-paper-50">
-                <span>
-                  <span className="block font-medium text-ink-900">{job.title}</span>
-                  <span className="block text-sm text-ink-500">
-                    {job.clientName} · {DECORATION_LABELS[job.method]}
-                    {job.dueDate ? ` · due ${job.dueDate}` : ""}
-                  </span>
-                </span>
-                <StatusBadge status={job.status} />
-              </Link>
-            </li>
-          ))}
-        </ul>
+        <JobTable shopSlug={shop} rows={rows} />
       )}
     </>
   );

@@ -4,10 +4,18 @@ import { requireShopPage } from "@/app/_server/access";
 import { EmptyState } from "@/components/ui/EmptyState";
 import { PageHeader } from "@/components/ui/PageHeader";
 import { StatusBadge } from "@/components/ui/StatusBadge";
-import { findJob } from "@/db/queries/jobs";
+import { jobMoney, loadPriceMatrix } from "@/app/_server/orders";
+import { PaymentList } from "@/components/orders/PaymentList";
+import { QuoteLines } from "@/components/orders/QuoteLines";
+import { SendQuoteForm } from "@/components/orders/SendQuoteForm";
+import { findJobDetail } from "@/db/queries/jobs";
 import { listProofsForJob } from "@/db/queries/proofs";
 import { listJobDecisions } from "@/db/queries/review";
+import { can } from "@/lib/access";
+import { LOCATION_LABELS } from "@/lib/garments/locations";
 import { DECORATION_LABELS } from "@/lib/jobs";
+import { formatCents } from "@/lib/pricing";
+import { MONEY_STATE_LABELS, quoteJob, sizeRunTotals, SIZE_GROUPS } from "@/lib/quotes";
 
 export const dynamic = "force-dynamic";
 export const metadata = { title: "Job" };
@@ -15,9 +23,20 @@ export const metadata = { title: "Job" };
 export default async function JobPage({ params }: { params: Promise<{ shop: string; jobId: string }> }) {
   const { shop, jobId } = await params;
   const access = await requireShopPage(shop, "jobs.view", `/shops/${shop}/jobs/${jobId}`);
-  const job = await findJob({ shopId: access.shop.id, jobId });
-  if (!job) notFound();
-  const [proofs, decisions] = await Promise.all([listProofsForJob({ shopId: access.shop.id, jobId }), listJobDecisions({ shopId: access.shop.id, jobId })]);
+  const detail = await findJobDetail({ shopId: access.shop.id, jobId });
+  if (!detail) notFound();
+  const { job, client, blank, sizeRun } = detail;
+  const seesMoney = can(access.role, "prices.view");
+  const canEdit = can(access.role, "jobs.edit");
+  const [proofs, decisions, money, prices] = await Promise.all([
+    listProofsForJob({ shopId: access.shop.id, jobId }),
+    listJobDecisions({ shopId: access.shop.id, jobId }),
+    seesMoney ? jobMoney(jobId) : null,
+    seesMoney ? loadPriceMatrix(access.shop.id) : null,
+  ]);
+  const live = prices ? quoteJob({ ...job, sizeRun, garmentName: blank?.name ?? null }, prices.matrix, { taxExempt: client.taxExempt }) : null;
+  const totals = sizeRunTotals(sizeRun);
+  const locations = (job.printLocations ?? []) as Array<{ location: string; colours: number }>;
   return (
     <>
       <p className="mb-2 text-sm">
@@ -36,13 +55,140 @@ export default async function JobPage({ params }: { params: Promise<{ shop: stri
         actions={
           <>
             <StatusBadge status={job.status} />
+            {canEdit ? (
+              <Link href={`/shops/${shop}/jobs/${jobId}/edit`} className="btn-quiet px-3 py-1.5">
+                Edit job
+              </Link>
+            ) : null}
             <Link href={`/shops/${shop}/jobs/${jobId}/production`} className="btn-quiet px-3 py-1.5">
               Production
             </Link>
           </>
         }
       />
-      {job.notes ? <p className="mb-6 max-w-prose text-ink-700">{job.notes}</p> : null}
+      <div className="mb-8 grid gap-6 lg:grid-cols-[minmax(0,3fr)_minmax(0,2fr)]">
+        <section className="card space-y-4 p-5" aria-label="Job details">
+          <dl className="grid gap-x-6 gap-y-2 text-sm sm:grid-cols-2">
+            <div>
+              <dt className="text-ink-500">Client</dt>
+              <dd>
+                <Link href={`/shops/${shop}/clients/${client.id}`} className="text-patina-700 hover:underline">
+                  {client.name}
+                </Link>
+                {client.taxExempt ? <span className="ml-1 text-xs text-ink-500">(tax exempt)</span> : null}
+              </dd>
+            </div>
+            <div>
+              <dt className="text-ink-500">Garment</dt>
+              <dd>
+                {blank?.name ?? "Not chosen yet"}
+                {job.garmentColour ? `, ${job.garmentColour}` : ""}
+              </dd>
+            </div>
+            <div>
+              <dt className="text-ink-500">Print locations</dt>
+              <dd>
+                {locations.length === 0
+                  ? "None yet"
+                  : locations.map((l) => `${(LOCATION_LABELS as Record<string, string>)[l.location] ?? l.location}${job.method === "screen-print" ? ` (${l.colours} ${l.colours === 1 ? "colour" : "colours"})` : ""}`).join(", ")}
+              </dd>
+            </div>
+            <div>
+              <dt className="text-ink-500">Timing</dt>
+              <dd>{job.rush ? "Rush" : "Standard"}{job.dueDate ? `, due ${job.dueDate}` : ""}</dd>
+            </div>
+            {job.method === "dtf" ? (
+              <div>
+                <dt className="text-ink-500">Transfer area per garment</dt>
+                <dd className="measure">{job.dtfAreaIn2 ?? "—"} in²</dd>
+              </div>
+            ) : null}
+          </dl>
+          {job.notes ? <p className="max-w-prose text-sm text-ink-700">{job.notes}</p> : null}
+          <div>
+            <h2 className="mb-2 text-base">
+              Size run <span className="measure font-normal text-ink-500">· {totals.total} pieces</span>
+            </h2>
+            {sizeRun.length === 0 ? (
+              <p className="text-sm text-ink-600">No quantities yet.</p>
+            ) : (
+              <table className="text-sm" data-testid="job-size-run">
+                <tbody>
+                  {SIZE_GROUPS.filter((g) => totals.byGroup[g.key]).map((g) => (
+                    <tr key={g.key}>
+                      <th scope="row" className="pr-3 text-left font-medium text-ink-600">
+                        {g.label}
+                      </th>
+                      {sizeRun
+                        .filter((r) => g.sizes.includes(r.size))
+                        .map((r) => (
+                          <td key={r.size} className="px-2 py-1 text-center">
+                            <span className="block text-xs text-ink-500">{r.size}</span>
+                            <span className="measure">{r.quantity}</span>
+                          </td>
+                        ))}
+                    </tr>
+                  ))}
+                </tbody>
+              </table>
+            )}
+          </div>
+        </section>
+
+        {money && live ? (
+          <section className="card space-y-4 p-5" aria-label="Quote and payments" data-testid="job-money">
+            <div className="flex items-baseline justify-between gap-2">
+              <h2 className="text-lg">Quote and payments</h2>
+              <span className="rounded-full bg-paper-200 px-2.5 py-0.5 text-xs font-medium" data-testid="money-state">
+                {MONEY_STATE_LABELS[money.summary.state]}
+              </span>
+            </div>
+            {money.quote ? (
+              <div className="space-y-1 text-sm">
+                <p>
+                  Quote Q{money.quote.number} {money.quote.state === "accepted" ? `accepted by ${money.quote.acceptedName} on ${money.quote.acceptedAt?.toLocaleString("en-US", { dateStyle: "medium", timeStyle: "short" })}` : `sent ${money.quote.sentAt.toLocaleString("en-US", { dateStyle: "medium", timeStyle: "short" })}, not yet accepted`}.
+                </p>
+                <dl className="grid grid-cols-3 gap-2 pt-2 text-center">
+                  <div className="rounded-lg bg-paper-100 p-2">
+                    <dt className="text-xs text-ink-500">Total</dt>
+                    <dd className="measure font-semibold">{formatCents(money.summary.totalCents)}</dd>
+                  </div>
+                  <div className="rounded-lg bg-patina-50 p-2">
+                    <dt className="text-xs text-ink-500">Paid</dt>
+                    <dd className="measure font-semibold" data-testid="paid-amount">
+                      {formatCents(money.summary.paidCents)}
+                    </dd>
+                  </div>
+                  <div className="rounded-lg bg-ochre-50 p-2">
+                    <dt className="text-xs text-ink-500">Balance due</dt>
+                    <dd className="measure font-semibold" data-testid="balance-due">
+                      {formatCents(money.summary.balanceCents)}
+                    </dd>
+                  </div>
+                </dl>
+              </div>
+            ) : (
+              <p className="text-sm text-ink-600">No quote sent yet. This is the price from your matrix today:</p>
+            )}
+            {live.ok ? (
+              <details open={!money.quote} className="rounded-lg border border-paper-300 p-3">
+                <summary className="cursor-pointer text-sm font-medium">{money.quote ? "Price from the matrix today" : "Lines"}</summary>
+                <div className="mt-2">
+                  <QuoteLines quote={live.quote} />
+                </div>
+              </details>
+            ) : (
+              <p className="rounded-lg bg-ochre-50 p-3 text-sm text-ochre-800">{live.message}</p>
+            )}
+            {prices?.isDemo ? <p className="text-xs text-ink-500">These are demo prices. The owner sets the shop&apos;s own under Prices.</p> : null}
+            {canEdit && live.ok && money.summary.state !== "paid-in-full" ? <SendQuoteForm shopSlug={shop} jobId={jobId} replaces={money.quote?.number ?? null} /> : null}
+            <div>
+              <h3 className="mb-1 text-sm font-semibold">Payments</h3>
+              <PaymentList payments={money.payments} />
+            </div>
+          </section>
+        ) : null}
+      </div>
       <h2 className="mb-3 text-lg">Proofs</h2>
       {proofs.length === 0 ? (
         <EmptyState title="No proofs yet">A proof places the client&apos;s art on a blank at true size.</EmptyState>

@@ -1,0 +1,72 @@
+"use client";
+
+import Link from "next/link";
+import { useRouter } from "next/navigation";
+import { useOptimistic, useState, useTransition } from "react";
+import { setJobStatusAction } from "@/app/shops/[shop]/jobs/actions";
+import { DECORATION_LABELS, JOB_STATUS_LABELS, JOB_STATUSES, type JobStatus } from "@/lib/jobs";
+import { MONEY_STATE_LABELS } from "@/lib/quotes";
+import { Notice } from "./Notice";
+import type { JobRow } from "./JobTable";
+
+/** Jobs in columns by status. Each card moves with its own menu, so the board works by keyboard too. */
+export function JobBoard({ shopSlug, rows, movable }: { shopSlug: string; rows: JobRow[]; movable: readonly JobStatus[] }) {
+  const router = useRouter();
+  const [error, setError] = useState<string>();
+  const [, startTransition] = useTransition();
+  const [optimistic, move] = useOptimistic(rows, (state, change: { id: string; status: JobStatus }) => state.map((r) => (r.id === change.id ? { ...r, status: change.status } : r)));
+
+  const onMove = (id: string, status: JobStatus) =>
+    startTransition(async () => {
+      setError(undefined);
+      move({ id, status });
+      const result = await setJobStatusAction({ shopSlug, jobId: id, status });
+      if (!result.ok) setError(result.error);
+      router.refresh();
+    });
+
+  return (
+    <div className="space-y-3">
+      {error ? <Notice tone="error">{error}</Notice> : null}
+      <div className="grid gap-3 overflow-x-auto pb-2 md:grid-cols-3 xl:grid-cols-6" data-testid="job-board">
+        {JOB_STATUSES.map((status) => {
+          const cards = optimistic.filter((r) => r.status === status);
+          return (
+            <section key={status} aria-label={JOB_STATUS_LABELS[status]} className="min-w-52 rounded-card bg-paper-100 p-2">
+              <h2 className="mb-2 flex items-center justify-between px-1 text-sm font-semibold">
+                {JOB_STATUS_LABELS[status]} <span className="measure font-normal text-ink-500">{cards.length}</span>
+              </h2>
+              <ul className="space-y-2">
+                {cards.map((job) => (
+                  <li key={job.id} className="card p-3 text-sm" data-testid="board-card">
+                    <Link href={`/shops/${shopSlug}/jobs/${job.id}`} className="font-medium text-ink-900 hover:underline">
+                      {job.title}
+                    </Link>
+                    <p className="text-ink-600">{job.clientName}</p>
+                    <p className="measure mt-1 text-xs text-ink-500">
+                      {job.quantity} pcs · {DECORATION_LABELS[job.method]}
+                      {job.dueDate ? ` · due ${job.dueDate}` : ""}
+                    </p>
+                    {job.money ? <p className="mt-1 text-xs text-patina-800">{MONEY_STATE_LABELS[job.money.state]}</p> : null}
+                    {movable.length ? (
+                      <label className="mt-2 flex items-center gap-2 text-xs text-ink-600">
+                        Move to
+                        <select className="field-input py-1 text-xs" value={job.status} onChange={(e) => onMove(job.id, e.target.value as JobStatus)} aria-label={`Move ${job.title} to`}>
+                          {JOB_STATUSES.map((s) => (
+                            <option key={s} value={s} disabled={s !== job.status && !movable.includes(s)}>
+                              {JOB_STATUS_LABELS[s]}
+                            </option>
+                          ))}
+                        </select>
+                      </label>
+                    ) : null}
+                  </li>
+                ))}
+              </ul>
+            </section>
+          );
+        })}
+      </div>
+    </div>
+  );
+}

@@ -1,0 +1,16 @@
+export type NoticeTone = "ok" | "warn" | "error";
+
+const TONES: Record<NoticeTone, string> = {
+  ok: "bg-patina-100 text-patina-800",
+  warn: "bg-ochre-100 text-ochre-800",
+  error: "bg-brick-100 text-brick-800",
+};
+
+/** A short message under a form or panel; errors are announced at once, the rest politely. */
+export function Notice({ tone, children, testId }: { tone: NoticeTone; children: React.ReactNode; testId?: string }) {
+  return (
+    <div role={tone === "error" ? "alert" : "status"} data-testid={testId} className={`rounded-lg px-3 py-2 text-sm ${TONES[tone]}`}>
+      {children}
+    </div>
+  );
+}
