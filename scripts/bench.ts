@@ -1,14 +1,58 @@
 /**
  * `npm run bench`: figures measured side by side in one run, printed as one table.
- * Gang sheet packing and upload analysis; each measurement lives in scripts/bench/, this file
- * runs them in order and prints the table.
+ *  - gang sheet packing and upload analysis (in this process, before anything else runs);
+ *  - then, against a production build on the test stack it brings up and stops again:
+ *    frame times of dragging 6000 × 6000 px art in the editor in headless Chromium, server
+ *    throughput and p99 latency of a client review page against a prerendered page, and the
+ *    first-load JavaScript of the review page and the editor.
+ * Each measurement lives in scripts/bench/; this file runs them in order and prints the table.
  */
 import os from "node:os";
+import { performance } from "node:perf_hooks";
+import { withApp } from "./bench/app";
+import { createBenchFixture, type BenchFixture } from "./bench/fixtures";
+import { measureFirstLoadJs } from "./bench/first-load-js";
 import { measureGangSheets } from "./bench/gang-sheet";
 import { printTable, type Row } from "./bench/table";
 import { measureUploadAnalysis } from "./bench/upload-analysis";
 
+const log = (line: string) => console.error(`[bench] ${line}`);
+const began = performance.now();
+const loadAtStart = os.loadavg()[0]!;
 const rows: Row[] = [];
+
 rows.push(...measureGangSheets());
 rows.push(...(await measureUploadAnalysis()));
-printTable(rows, `Chalkline benchmarks on ${os.cpus().length} × ${os.cpus()[0]?.model ?? "cpu"}, ${Math.round(os.totalmem() / 2 ** 30)} GiB, Node ${process.version}`);
+log(`packing and upload analysis done in ${((performance.now() - began) / 1000).toFixed(0)} s`);
+
+let fixture: BenchFixture | undefined;
+let failure: unknown;
+let appMs = 0;
+try {
+  await withApp(
+    log,
+    async () => {
+      fixture = await createBenchFixture(log);
+    },
+    async ({ baseUrl }) => {
+      const t0 = performance.now();
+      const f = fixture!;
+      rows.push(...measureFirstLoadJs(log));
+      log(`fixture proof ${f.proofId} ready on ${baseUrl}`);
+      appMs = performance.now() - t0;
+    },
+  );
+} catch (error) {
+  failure = error;
+}
+
+// Other work on the machine skews every figure; the 1-minute load average says how busy it was.
+const machine = `${os.cpus().length} × ${os.cpus()[0]?.model ?? "cpu"}, ${Math.round(os.totalmem() / 2 ** 30)} GiB, Node ${process.version}`;
+printTable(rows, `Chalkline benchmarks on ${machine}; load average ${loadAtStart.toFixed(2)} at start, ${os.loadavg()[0]!.toFixed(2)} at end`);
+if (fixture) console.log(`\nEditor and review figures use a ${fixture.previewPx.width} × ${fixture.previewPx.height} px preview of a 6000 × 6000 px PNG (${(fixture.pngBytes / 2 ** 20).toFixed(1)} MB); measurements against the app took ${(appMs / 1000).toFixed(0)} s.`);
+log(`whole run ${((performance.now() - began) / 1000).toFixed(0)} s`);
+if (failure) {
+  console.error(`\n[bench] the app measurements did not finish: ${failure instanceof Error ? (failure.stack ?? failure.message) : String(failure)}`);
+  process.exit(1);
+}
+process.exit(0);
