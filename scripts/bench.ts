@@ -9,10 +9,14 @@
  */
 import os from "node:os";
 import { performance } from "node:perf_hooks";
+import { DEMO_PASSWORD } from "../db/seed";
 import { withApp } from "./bench/app";
+import { launchChromium } from "./bench/browser";
+import { measureEditorDrag } from "./bench/editor-drag";
 import { createBenchFixture, type BenchFixture } from "./bench/fixtures";
 import { measureFirstLoadJs } from "./bench/first-load-js";
 import { measureGangSheets } from "./bench/gang-sheet";
+import { measurePageScripts } from "./bench/page-scripts";
 import { printTable, type Row } from "./bench/table";
 import { measureUploadAnalysis } from "./bench/upload-analysis";
 
@@ -38,7 +42,13 @@ try {
       const t0 = performance.now();
       const f = fixture!;
       rows.push(...measureFirstLoadJs(log));
-      log(`fixture proof ${f.proofId} ready on ${baseUrl}`);
+      const browser = await launchChromium();
+      try {
+        rows.push(...(await measurePageScripts({ browser, baseUrl, fixture: f, password: DEMO_PASSWORD })));
+        rows.push(...(await measureEditorDrag({ browser, baseUrl, fixture: f, password: DEMO_PASSWORD, log })));
+      } finally {
+        await browser.close();
+      }
       appMs = performance.now() - t0;
     },
   );
