@@ -17,6 +17,7 @@ import { createBenchFixture, type BenchFixture } from "./bench/fixtures";
 import { measureFirstLoadJs } from "./bench/first-load-js";
 import { measureGangSheets } from "./bench/gang-sheet";
 import { measurePageScripts } from "./bench/page-scripts";
+import { measureReviewLoad } from "./bench/review-load";
 import { printTable, type Row } from "./bench/table";
 import { measureUploadAnalysis } from "./bench/upload-analysis";
 
@@ -49,6 +50,7 @@ try {
       } finally {
         await browser.close();
       }
+      rows.push(...(await measureReviewLoad({ baseUrl, token: f.reviewToken, proofName: "Team tee", log })));
       appMs = performance.now() - t0;
     },
   );
