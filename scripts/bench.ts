@@ -1,85 +1,70 @@
 /**
  * `npm run bench`: figures measured side by side in one run, printed as one table.
- * Today: gang sheet packing (length and area efficiency of our packer against the reference
- * packers on the same fixed 50-transfer mix, the area lower bound, and time for 500 transfers)
- * and upload analysis against sharp's bare decode and resize of the same file.
+ *  - gang sheet packing and upload analysis (in this process, before anything else runs);
+ *  - then, against a production build on the test stack it brings up and stops again:
+ *    frame times of dragging 6000 × 6000 px art in the editor in headless Chromium, server
+ *    throughput and p99 latency of a client review page against a prerendered page, and the
+ *    first-load JavaScript of the review page and the editor.
+ * Each measurement lives in scripts/bench/; this file runs them in order and prints the table.
  */
-import { performance } from "node:perf_hooks";
 import os from "node:os";
-import sharp from "sharp";
-import { BENCH_MIX_50, comparePackers, expandTransfers, packGangSheet, DEFAULT_PACKER } from "../lib/production/packing";
+import { performance } from "node:perf_hooks";
+import { DEMO_PASSWORD } from "../db/seed";
+import { withApp } from "./bench/app";
+import { launchChromium } from "./bench/browser";
+import { measureEditorDrag } from "./bench/editor-drag";
+import { createBenchFixture, type BenchFixture } from "./bench/fixtures";
+import { measureFirstLoadJs } from "./bench/first-load-js";
+import { measureGangSheets } from "./bench/gang-sheet";
+import { measurePageScripts } from "./bench/page-scripts";
+import { measureReviewLoad } from "./bench/review-load";
+import { printTable, type Row } from "./bench/table";
+import { measureUploadAnalysis } from "./bench/upload-analysis";
 
-type Row = { benchmark: string; subject: string; value: string; against: string; ratio: string };
+const log = (line: string) => console.error(`[bench] ${line}`);
+const began = performance.now();
+const loadAtStart = os.loadavg()[0]!;
 const rows: Row[] = [];
 
-function median(values: number[]): number {
-  const s = [...values].sort((a, b) => a - b);
-  return s[Math.floor(s.length / 2)]!;
+rows.push(...measureGangSheets());
+rows.push(...(await measureUploadAnalysis()));
+log(`packing and upload analysis done in ${((performance.now() - began) / 1000).toFixed(0)} s`);
+
+let fixture: BenchFixture | undefined;
+let failure: unknown;
+let appMs = 0;
+try {
+  await withApp(
+    log,
+    async () => {
+      fixture = await createBenchFixture(log);
+    },
+    async ({ baseUrl }) => {
+      const t0 = performance.now();
+      const f = fixture!;
+      rows.push(...measureFirstLoadJs(log));
+      const browser = await launchChromium();
+      try {
+        rows.push(...(await measurePageScripts({ browser, baseUrl, fixture: f, password: DEMO_PASSWORD })));
+        rows.push(...(await measureEditorDrag({ browser, baseUrl, fixture: f, password: DEMO_PASSWORD, log })));
+      } finally {
+        await browser.close();
+      }
+      rows.push(...(await measureReviewLoad({ baseUrl, token: f.reviewToken, proofName: "Team tee", log })));
+      appMs = performance.now() - t0;
+    },
+  );
+} catch (error) {
+  failure = error;
 }
 
-function time(fn: () => unknown, runs: number): number {
-  const samples: number[] = [];
-  for (let i = 0; i < runs; i += 1) {
-    const t = performance.now();
-    fn();
-    samples.push(performance.now() - t);
-  }
-  return median(samples);
+// Other work on the machine skews every figure; the 1-minute load average says how busy it was.
+const machine = `${os.cpus().length} × ${os.cpus()[0]?.model ?? "cpu"}, ${Math.round(os.totalmem() / 2 ** 30)} GiB, Node ${process.version}`;
+printTable(rows, `Chalkline benchmarks on ${machine}; load average ${loadAtStart.toFixed(2)} at start, ${os.loadavg()[0]!.toFixed(2)} at end`);
+if (fixture) console.log(`\nEditor and review figures use a ${fixture.previewPx.width} × ${fixture.previewPx.height} px preview of a 6000 × 6000 px PNG (${(fixture.pngBytes / 2 ** 20).toFixed(1)} MB); measurements against the app took ${(appMs / 1000).toFixed(0)} s.`);
+log(`whole run ${((performance.now() - began) / 1000).toFixed(0)} s`);
+if (failure) {
+  console.error(`\n[bench] the app measurements did not finish: ${failure instanceof Error ? (failure.stack ?? failure.message) : String(failure)}`);
+  process.exit(1);
 }
-
-async function timeAsync(fn: () => Promise<unknown>, runs: number): Promise<number> {
-  const samples: number[] = [];
-  for (let i = 0; i < runs; i += 1) {
-    const t = performance.now();
-    await fn();
-    samples.push(performance.now() - t);
-  }
-  return median(samples);
-}
-
-// Gang sheet: fixed 50-transfer mix on a 22 in roll, 0.25 in gaps, turning allowed.
-const pieces = expandTransfers(BENCH_MIX_50, 0);
-const comparison = comparePackers(pieces, { rollWidthIn: 22, gapIn: 0.25, allowRotation: true, maxSheetLengthIn: 600 });
-const own = comparison.rows.find((r) => r.algorithm === "own")!;
-for (const r of comparison.rows) {
-  rows.push({
-    benchmark: "gang sheet, 50 transfers, 22 in roll",
-    subject: `${r.algorithm}${r.algorithm === DEFAULT_PACKER ? " (used)" : ""}`,
-    value: `${r.totalLengthIn.toFixed(2)} in, ${(r.efficiency * 100).toFixed(1)}% of area`,
-    against: `lower bound ${comparison.areaLowerBoundIn.toFixed(2)} in`,
-    ratio: `${(r.totalLengthIn / comparison.areaLowerBoundIn).toFixed(3)}× bound; ${(r.totalLengthIn / own.totalLengthIn).toFixed(3)}× own`,
-  });
-}
-const big = expandTransfers(
-  BENCH_MIX_50.map((item) => ({ ...item, quantity: item.quantity * 10 })),
-  0,
-);
-const packMs = time(() => packGangSheet({ pieces: big, rollWidthIn: 22, gapIn: 0.25, allowRotation: true, maxSheetLengthIn: 600 }), 3);
-const refMs = time(() => packGangSheet({ pieces: big, rollWidthIn: 22, gapIn: 0.25, allowRotation: true, maxSheetLengthIn: 600, algorithm: "maxrects" }), 3);
-rows.push({ benchmark: "gang sheet, 500 transfers", subject: `${DEFAULT_PACKER} packer time`, value: `${packMs.toFixed(0)} ms`, against: `maxrects ${refMs.toFixed(0)} ms`, ratio: `${(packMs / refMs).toFixed(2)}×` });
-
-// Upload analysis of a 24-megapixel PNG against sharp's bare decode and resize of the same file.
-const { analyzeArtwork } = await import("../app/_server/artwork/analyze");
-const w = 6000;
-const h = 4000;
-const noise = Buffer.alloc(w * h * 4);
-for (let i = 0; i < noise.length; i += 4) {
-  const x = (i / 4) % w;
-  const y = Math.floor(i / 4 / w);
-  noise[i] = (x * 7) & 255;
-  noise[i + 1] = (y * 5) & 255;
-  noise[i + 2] = ((x + y) * 3) & 255;
-  noise[i + 3] = x > 300 && x < w - 300 && y > 200 && y < h - 200 ? 255 : 0;
-}
-const png = await sharp(noise, { raw: { width: w, height: h, channels: 4 } }).png({ compressionLevel: 3 }).toBuffer();
-const bareMs = await timeAsync(() => sharp(png, { limitInputPixels: false }).resize(2048, 2048, { fit: "inside" }).webp().toBuffer(), 3);
-const analysisMs = await timeAsync(() => analyzeArtwork(png, { name: "bench.png", type: "image/png" }), 3);
-rows.push({ benchmark: "upload analysis, 24 MP PNG", subject: "full analysis", value: `${analysisMs.toFixed(0)} ms`, against: `sharp decode+resize ${bareMs.toFixed(0)} ms`, ratio: `${(analysisMs / bareMs).toFixed(2)}×` });
-
-const widths = { benchmark: 0, subject: 0, value: 0, against: 0, ratio: 0 };
-for (const r of rows) for (const k of Object.keys(widths) as Array<keyof Row>) widths[k] = Math.max(widths[k], r[k].length, k.length);
-const line = (r: Row) => (Object.keys(widths) as Array<keyof Row>).map((k) => r[k].padEnd(widths[k])).join(" | ");
-console.log(`\nChalkline benchmarks on ${os.cpus().length} × ${os.cpus()[0]?.model ?? "cpu"}, ${Math.round(os.totalmem() / 2 ** 30)} GiB, Node ${process.version}\n`);
-console.log(line({ benchmark: "benchmark", subject: "subject", value: "measured", against: "side by side", ratio: "ratio" }));
-console.log((Object.keys(widths) as Array<keyof Row>).map((k) => "-".repeat(widths[k])).join("-|-"));
-for (const r of rows) console.log(line(r));
+process.exit(0);
