@@ -7,6 +7,7 @@ import { useFieldArray, useForm, type FieldPath } from "react-hook-form";
 import { createClientAction, setClientArchivedAction, updateClientAction } from "@/app/shops/[shop]/clients/actions";
 import { clientFormSchema, type ClientFormValues } from "./schemas";
 import { Notice } from "./Notice";
+import { useHydrated } from "./useHydrated";
 
 type Props = {
   shopSlug: string;
@@ -18,6 +19,7 @@ type Props = {
 
 export function ClientForm({ shopSlug, clientId, archived = false, canEdit, defaults }: Props) {
   const router = useRouter();
+  const hydrated = useHydrated();
   const [notice, setNotice] = useState<{ tone: "ok" | "error"; text: string }>();
   const [archiving, startArchive] = useTransition();
   const {
@@ -59,7 +61,7 @@ export function ClientForm({ shopSlug, clientId, archived = false, canEdit, defa
 
   const contactErrors = errors.contacts;
   return (
-    <form onSubmit={onSubmit} noValidate className="card space-y-5 p-5" aria-label={clientId ? "Client details" : "New client"}>
+    <form onSubmit={onSubmit} noValidate className="card space-y-5 p-5" data-hydrated={hydrated} aria-label={clientId ? "Client details" : "New client"}>
       <fieldset disabled={!canEdit} className="space-y-5">
         <div>
           <label htmlFor="client-name" className="field-label">

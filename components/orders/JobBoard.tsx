@@ -7,11 +7,13 @@ import { setJobStatusAction } from "@/app/shops/[shop]/jobs/actions";
 import { DECORATION_LABELS, JOB_STATUS_LABELS, JOB_STATUSES, type JobStatus } from "@/lib/jobs";
 import { MONEY_STATE_LABELS } from "@/lib/quotes";
 import { Notice } from "./Notice";
+import { useHydrated } from "@/components/orders/useHydrated";
 import type { JobRow } from "./JobTable";
 
 /** Jobs in columns by status. Each card moves with its own menu, so the board works by keyboard too. */
 export function JobBoard({ shopSlug, rows, movable }: { shopSlug: string; rows: JobRow[]; movable: readonly JobStatus[] }) {
   const router = useRouter();
+  const hydrated = useHydrated();
   const [error, setError] = useState<string>();
   const [, startTransition] = useTransition();
   const [optimistic, move] = useOptimistic(rows, (state, change: { id: string; status: JobStatus }) => state.map((r) => (r.id === change.id ? { ...r, status: change.status } : r)));
@@ -26,7 +28,7 @@ export function JobBoard({ shopSlug, rows, movable }: { shopSlug: string; rows: 
     });
 
   return (
-    <div className="space-y-3">
+    <div className="space-y-3" data-hydrated={hydrated}>
       {error ? <Notice tone="error">{error}</Notice> : null}
       <div className="grid gap-3 overflow-x-auto pb-2 md:grid-cols-3 xl:grid-cols-6" data-testid="job-board">
         {JOB_STATUSES.map((status) => {

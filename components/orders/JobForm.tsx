@@ -11,6 +11,7 @@ import { DECORATION_LABELS, DECORATION_METHODS } from "@/lib/jobs";
 import type { PriceMatrix } from "@/lib/pricing";
 import { PRINT_LOCATION_OPTIONS, quoteJob } from "@/lib/quotes";
 import { Notice } from "./Notice";
+import { useHydrated } from "./useHydrated";
 import { QuoteLines } from "./QuoteLines";
 import { jobFormSchema, type JobFormValues } from "./schemas";
 import { SizeRunGrid } from "./SizeRunGrid";
@@ -30,6 +31,7 @@ type Props = {
 
 export function JobForm({ shopSlug, jobId, defaults, clients, blanks, matrix }: Props) {
   const router = useRouter();
+  const hydrated = useHydrated();
   const [notice, setNotice] = useState<string>();
   const {
     register,
@@ -94,7 +96,7 @@ export function JobForm({ shopSlug, jobId, defaults, clients, blanks, matrix }: 
 
   const err = (m?: string) => (m ? <p className="field-error">{m}</p> : null);
   return (
-    <form onSubmit={onSubmit} noValidate aria-label={jobId ? "Edit job" : "New job"} className="grid gap-6 lg:grid-cols-[minmax(0,3fr)_minmax(0,2fr)]">
+    <form onSubmit={onSubmit} noValidate aria-label={jobId ? "Edit job" : "New job"} data-hydrated={hydrated} className="grid gap-6 lg:grid-cols-[minmax(0,3fr)_minmax(0,2fr)]">
       <div className="card space-y-5 p-5">
         <div className="grid gap-4 sm:grid-cols-2">
           <div className="sm:col-span-2">

@@ -16,6 +16,7 @@ import Papa from "papaparse";
 import Link from "next/link";
 import { useMemo, useState } from "react";
 import { StatusBadge } from "@/components/ui/StatusBadge";
+import { useHydrated } from "@/components/orders/useHydrated";
 import { DECORATION_LABELS, JOB_STATUS_LABELS, JOB_STATUSES, type DecorationMethod, type JobStatus } from "@/lib/jobs";
 import { formatCents } from "@/lib/pricing";
 import { MONEY_STATE_LABELS, sizeRunTable, type MoneyState } from "@/lib/quotes";
@@ -49,6 +50,7 @@ const PAGE_SIZES = [10, 25, 50];
 
 export function JobTable({ shopSlug, rows }: { shopSlug: string; rows: JobRow[] }) {
   const showMoney = rows.some((r) => r.money);
+  const hydrated = useHydrated();
   const [sorting, setSorting] = useState<SortingState>([{ id: "dueDate", desc: false }]);
   const [filters, setFilters] = useState<ColumnFiltersState>([]);
   const [search, setSearch] = useState("");
@@ -135,7 +137,7 @@ export function JobTable({ shopSlug, rows }: { shopSlug: string; rows: JobRow[] 
 
   const { pageIndex, pageSize } = table.getState().pagination;
   return (
-    <div className="space-y-3">
+    <div className="space-y-3" data-hydrated={hydrated}>
       <div className="card flex flex-wrap items-end gap-3 p-3" role="search" aria-label="Find jobs">
         <div className="min-w-48 flex-1">
           <label htmlFor="job-search" className="field-label">

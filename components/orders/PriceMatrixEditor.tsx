@@ -8,12 +8,13 @@ import { savePricesAction } from "@/app/shops/[shop]/prices/actions";
 import type { PriceMatrix } from "@/lib/pricing";
 import { JOB_SIZE_ORDER } from "@/lib/quotes";
 import { Notice } from "./Notice";
+import { useHydrated } from "./useHydrated";
 import { priceFormSchema, toPriceForm, type PriceForm } from "./price-form";
 
 type Tiered = "dtf" | "dtg" | "htv" | "sublimation";
 const num = { valueAsNumber: true } as const;
 
-function Cell({ path, register, errors, label, step = "0.01", disabled, prefix }: { path: string; register: UseFormRegister<PriceForm>; errors: FieldErrors<PriceForm>; label: string; step?: string; disabled: boolean; prefix?: string }) {
+function Cell({ path, register, errors, label, step = "0.01", disabled, prefix, initial }: { path: string; register: UseFormRegister<PriceForm>; errors: FieldErrors<PriceForm>; label: string; step?: string; disabled: boolean; prefix?: string; initial: PriceForm }) {
   const error = (get(errors, path) as { message?: string } | undefined)?.message;
   return (
     <span className="relative block">
@@ -26,6 +27,8 @@ function Cell({ path, register, errors, label, step = "0.01", disabled, prefix }
         title={error ?? label}
         aria-invalid={error ? true : undefined}
         disabled={disabled}
+        // The server-rendered page shows the numbers before the form script takes over.
+        defaultValue={get(initial, path) as number | undefined}
         className={`field-input measure w-24 py-1 text-right text-sm ${prefix ? "pl-5" : ""} ${error ? "border-brick-500 bg-brick-50" : ""}`}
         {...register(path as FieldPath<PriceForm>, num)}
       />
@@ -35,9 +38,11 @@ function Cell({ path, register, errors, label, step = "0.01", disabled, prefix }
 
 export function PriceMatrixEditor({ shopSlug, matrix, canEdit }: { shopSlug: string; matrix: PriceMatrix; canEdit: boolean }) {
   const router = useRouter();
+  const hydrated = useHydrated();
   const [notice, setNotice] = useState<{ tone: "ok" | "error"; text: string }>();
   const [screenLocation, setScreenLocation] = useState(0);
-  const form = useForm<PriceForm, unknown, PriceMatrix>({ resolver: zodResolver(priceFormSchema), defaultValues: toPriceForm(matrix) });
+  const [initial] = useState(() => toPriceForm(matrix));
+  const form = useForm<PriceForm, unknown, PriceMatrix>({ resolver: zodResolver(priceFormSchema), defaultValues: initial });
   const { register, control, handleSubmit, setValue, getValues, setError, formState } = form;
   const { errors, isSubmitting, isDirty } = formState;
   const values = useWatch({ control }) as PriceForm;
@@ -96,7 +101,7 @@ export function PriceMatrixEditor({ shopSlug, matrix, canEdit }: { shopSlug: str
   const breaksColumn = (m: Tiered | "screenPrint", i: number) => (
     <th scope="row" className="whitespace-nowrap py-1 pr-2 text-left font-normal">
       <span className="flex items-center gap-1">
-        <Cell path={`${m}.quantityBreaks.${i}`} register={register} errors={errors} label={`Quantity break ${i + 1}`} step="1" disabled={disabled} />
+        <Cell path={`${m}.quantityBreaks.${i}`} register={register} errors={errors} initial={initial} label={`Quantity break ${i + 1}`} step="1" disabled={disabled} />
         <span className="text-xs text-ink-500">+ pcs</span>
         {canEdit && values[m].quantityBreaks.length > 1 ? (
           <button type="button" className="text-xs text-brick-700 hover:underline" onClick={() => removeBreak(m, i)} aria-label={`Remove break ${i + 1}`}>
@@ -136,7 +141,7 @@ export function PriceMatrixEditor({ shopSlug, matrix, canEdit }: { shopSlug: str
                   {breaksColumn(m, i)}
                   {Array.from({ length: width }, (_, l) => (
                     <td key={l} className="py-1 pr-2">
-                      <Cell path={`${m}.pricesCents.${i}.${l}`} register={register} errors={errors} label={`${title}, break ${i + 1}, ${l + 1} locations, dollars per garment`} disabled={disabled} prefix="$" />
+                      <Cell path={`${m}.pricesCents.${i}.${l}`} register={register} errors={errors} initial={initial} label={`${title}, break ${i + 1}, ${l + 1} locations, dollars per garment`} disabled={disabled} prefix="$" />
                     </td>
                   ))}
                 </tr>
@@ -168,7 +173,7 @@ export function PriceMatrixEditor({ shopSlug, matrix, canEdit }: { shopSlug: str
   const formError = (path: string) => (get(errors, path) as { message?: string } | undefined)?.message ?? (get(errors, `${path}.root`) as { message?: string } | undefined)?.message;
 
   return (
-    <form onSubmit={onSubmit} noValidate className="space-y-6" aria-label="Price matrix">
+    <form onSubmit={onSubmit} noValidate className="space-y-6" data-hydrated={hydrated} aria-label="Price matrix">
       {!canEdit ? <Notice tone="warn">You can see the shop&apos;s prices. Only the owner can change them.</Notice> : null}
 
       <section className="card grid gap-4 p-5 sm:grid-cols-2 lg:grid-cols-4" aria-label="Terms">
@@ -181,13 +186,13 @@ export function PriceMatrixEditor({ shopSlug, matrix, canEdit }: { shopSlug: str
         ).map(([path, label, step]) => (
           <label key={path} className="block">
             <span className="field-label">{label}</span>
-            <Cell path={path} register={register} errors={errors} label={label} step={step} disabled={disabled} />
+            <Cell path={path} register={register} errors={errors} initial={initial} label={label} step={step} disabled={disabled} />
             {formError(path) ? <span className="field-error block">{formError(path)}</span> : null}
           </label>
         ))}
         <label className="block">
           <span className="field-label">Blank garment, each</span>
-          <Cell path="garmentCostCents.default" register={register} errors={errors} label="Blank garment cost, dollars" disabled={disabled} prefix="$" />
+          <Cell path="garmentCostCents.default" register={register} errors={errors} initial={initial} label="Blank garment cost, dollars" disabled={disabled} prefix="$" />
         </label>
       </section>
 
@@ -199,7 +204,7 @@ export function PriceMatrixEditor({ shopSlug, matrix, canEdit }: { shopSlug: str
           </div>
           <label className="block">
             <span className="field-label">Setup, per screen</span>
-            <Cell path="screenPrint.setupFeePerScreenCents" register={register} errors={errors} label="Setup fee per screen, dollars" disabled={disabled} prefix="$" />
+            <Cell path="screenPrint.setupFeePerScreenCents" register={register} errors={errors} initial={initial} label="Setup fee per screen, dollars" disabled={disabled} prefix="$" />
           </label>
         </div>
         <div className="flex flex-wrap gap-1" role="tablist" aria-label="Number of locations">
@@ -229,7 +234,7 @@ export function PriceMatrixEditor({ shopSlug, matrix, canEdit }: { shopSlug: str
                   {breaksColumn("screenPrint", i)}
                   {Array.from({ length: spColours }, (_, c) => (
                     <td key={c} className="py-1 pr-2">
-                      <Cell path={`screenPrint.pricesCents.${i}.${loc}.${c}`} register={register} errors={errors} label={`Screen print, break ${i + 1}, ${loc + 1} locations, ${c + 1} colours, dollars per garment`} disabled={disabled} prefix="$" />
+                      <Cell path={`screenPrint.pricesCents.${i}.${loc}.${c}`} register={register} errors={errors} initial={initial} label={`Screen print, break ${i + 1}, ${loc + 1} locations, ${c + 1} colours, dollars per garment`} disabled={disabled} prefix="$" />
                     </td>
                   ))}
                 </tr>
@@ -273,15 +278,15 @@ export function PriceMatrixEditor({ shopSlug, matrix, canEdit }: { shopSlug: str
         <div className="flex flex-wrap gap-4">
           <label className="block">
             <span className="field-label">Cents per in²</span>
-            <Cell path="dtf.centsPerSquareInch" register={register} errors={errors} label="DTF cents per square inch" step="0.01" disabled={disabled} />
+            <Cell path="dtf.centsPerSquareInch" register={register} errors={errors} initial={initial} label="DTF cents per square inch" step="0.01" disabled={disabled} />
           </label>
           <label className="block">
             <span className="field-label">Per inch of sheet</span>
-            <Cell path="dtf.centsPerInchOfSheet" register={register} errors={errors} label="DTF dollars per inch of gang sheet" disabled={disabled} prefix="$" />
+            <Cell path="dtf.centsPerInchOfSheet" register={register} errors={errors} initial={initial} label="DTF dollars per inch of gang sheet" disabled={disabled} prefix="$" />
           </label>
           <label className="block">
             <span className="field-label">Roll width (in)</span>
-            <Cell path="dtf.rollWidthIn" register={register} errors={errors} label="DTF roll width, inches" step="0.25" disabled={disabled} />
+            <Cell path="dtf.rollWidthIn" register={register} errors={errors} initial={initial} label="DTF roll width, inches" step="0.25" disabled={disabled} />
           </label>
         </div>
       </section>
@@ -304,7 +309,7 @@ export function PriceMatrixEditor({ shopSlug, matrix, canEdit }: { shopSlug: str
                   <option key={s}>{s}</option>
                 ))}
               </select>
-              <Cell path={`sizeUpcharges.${i}.cents`} register={register} errors={errors} label={`Upcharge ${i + 1}, dollars per garment`} disabled={disabled} prefix="$" />
+              <Cell path={`sizeUpcharges.${i}.cents`} register={register} errors={errors} initial={initial} label={`Upcharge ${i + 1}, dollars per garment`} disabled={disabled} prefix="$" />
               {canEdit ? (
                 <button type="button" className="text-xs text-brick-700 hover:underline" onClick={() => update("sizeUpcharges", getValues("sizeUpcharges").filter((_, j) => j !== i))}>
                   Remove

@@ -7,6 +7,7 @@ import type { QuotePanelData } from "@/app/_server/orders";
 import { formatCents } from "@/lib/pricing";
 import { MONEY_STATE_LABELS, PAYMENT_KIND_LABELS, type PaymentKind } from "@/lib/quotes";
 import { Notice } from "./Notice";
+import { useHydrated } from "./useHydrated";
 import { QuoteLines } from "./QuoteLines";
 
 async function post<T>(url: string, body: unknown): Promise<T> {
@@ -22,6 +23,7 @@ async function post<T>(url: string, body: unknown): Promise<T> {
  */
 export function QuotePanel({ data, linkToken, canAccept, returned }: { data: QuotePanelData; linkToken?: string; canAccept: boolean; returned?: "paid" | "pending" | "cancelled" | "unknown" }) {
   const router = useRouter();
+  const hydrated = useHydrated();
   const { quote, summary } = data;
   const currency = quote.snapshot.quote.currency;
   const money = (c: number) => formatCents(c, currency);
@@ -39,7 +41,7 @@ export function QuotePanel({ data, linkToken, canAccept, returned }: { data: Quo
 
   const job = quote.snapshot.job;
   return (
-    <section className="card space-y-4 p-5" aria-label="Quote" data-testid="quote-panel">
+    <section className="card space-y-4 p-5" aria-label="Quote" data-testid="quote-panel" data-hydrated={hydrated}>
       <div className="flex flex-wrap items-baseline justify-between gap-2">
         <h2 className="text-lg">Quote Q{quote.number}</h2>
         <span className="rounded-full bg-paper-200 px-2.5 py-0.5 text-xs font-medium" data-testid="quote-state">

@@ -38,18 +38,39 @@ export function authSecret(): string {
 
 /**
  * CHALKLINE_PORT_OFFSET moves every test port (database, fakes, app) by the same amount, so a
- * second checkout on this machine can run its tests beside the first. Dev ports never move.
+ * second checkout on this machine can run its tests beside the first. The fakes sit 100 ports
+ * apart, so use a multiple of 1000 (1000, 2000…) or an offset under 40. Dev ports never move.
  */
 export function testPortOffset(): number {
   const raw = process.env.CHALKLINE_PORT_OFFSET;
   if (!raw) return 0;
   const n = Number(raw);
-  if (!Number.isInteger(n) || n < 0 || n > 1000) throw new Error(`CHALKLINE_PORT_OFFSET must be a whole number from 0 to 1000 (got "${raw}")`);
+  if (!Number.isInteger(n) || n < 0 || n > 9000) throw new Error(`CHALKLINE_PORT_OFFSET must be a whole number from 0 to 9000 (got "${raw}")`);
   return n;
 }
 
-export async function bringUpStack({ mode, port }: { mode: StackMode; port: number }): Promise<Stack> {
+export async function bringUpStack(opts: { mode: StackMode; port: number }): Promise<Stack> {
   const closers: Array<() => Promise<void>> = [];
+  try {
+    return await bringUp(opts, closers);
+  } catch (error) {
+    // Whatever came up before the failure goes down again, so a retry finds its ports free.
+    await closeAll(closers);
+    throw error;
+  }
+}
+
+async function closeAll(closers: Array<() => Promise<void>>): Promise<void> {
+  for (const close of closers.reverse()) {
+    try {
+      await close();
+    } catch (error) {
+      log(`shutdown: ${error instanceof Error ? error.message : String(error)}`);
+    }
+  }
+}
+
+async function bringUp({ mode, port }: { mode: StackMode; port: number }, closers: Array<() => Promise<void>>): Promise<Stack> {
   const offset = mode === "test" ? testPortOffset() : 0;
   const suffix = offset ? `-${offset}` : "";
   const target = mode === "test" ? { ...TEST_DB, port: TEST_DB.port + offset, dataDir: TEST_DB.dataDir + suffix } : DEV_DB;
@@ -123,15 +144,7 @@ export async function bringUpStack({ mode, port }: { mode: StackMode; port: numb
   return {
     env,
     databaseUrl: pg.url,
-    shutdown: async () => {
-      for (const close of closers.reverse()) {
-        try {
-          await close();
-        } catch (error) {
-          log(`shutdown: ${error instanceof Error ? error.message : String(error)}`);
-        }
-      }
-    },
+    shutdown: () => closeAll(closers),
   };
 }
 
