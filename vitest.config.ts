@@ -16,6 +16,8 @@ export default defineConfig({
           name: "unit",
           include: ["tests/unit/**/*.test.{ts,tsx}"],
           environment: "node",
+          // Image analysis and property tests are CPU-bound; on a busy 2-core machine they need room.
+          testTimeout: 30_000,
         },
       },
       {
@@ -24,6 +26,7 @@ export default defineConfig({
           name: "component",
           include: ["tests/component/**/*.test.tsx"],
           environment: "jsdom",
+          testTimeout: 30_000,
         },
       },
       {

@@ -17,10 +17,11 @@ export default async function ReviewByLinkPage({ params, searchParams }: { param
   const access = await resolveReview("link", token);
   // Missing, wrong, withdrawn and expired links all end at the same clear page.
   if (!access.ok) notFound();
-  const props = await buildReviewProps(access.reviewer, token);
+  const [props, panel] = await Promise.all([
+    buildReviewProps(access.reviewer, token),
+    findProofShop({ proofId: access.reviewer.proofId }).then((proof) => (proof ? quotePanelData(proof.jobId) : null)),
+  ]);
   if (!props) notFound();
-  const proof = await findProofShop({ proofId: access.reviewer.proofId });
-  const panel = proof ? await quotePanelData(proof.jobId) : null;
   const returned = panel ? await checkoutReturn((await searchParams).checkout) : undefined;
   const reviewer = access.reviewer;
   return (
