@@ -112,43 +112,47 @@ export function PriceMatrixEditor({ shopSlug, matrix, canEdit }: { shopSlug: str
     </th>
   );
 
+  /** Quantity breaks down the side, one priced column per location (or colour) count. */
+  const priceGrid = (m: Tiered | "screenPrint", columns: number, unit: string, cellPath: (i: number, c: number) => string, cellLabel: (i: number, c: number) => string) => (
+    <div className="overflow-x-auto">
+      <table className="text-sm">
+        <thead>
+          <tr className="text-left text-xs uppercase tracking-wide text-ink-500">
+            <th scope="col" className="pb-1 pr-2 font-medium">
+              Quantity
+            </th>
+            {Array.from({ length: columns }, (_, c) => (
+              <th key={c} scope="col" className="pb-1 pr-2 font-medium">
+                {c + 1} {c === 0 ? unit : `${unit}s`}
+              </th>
+            ))}
+          </tr>
+        </thead>
+        <tbody>
+          {values[m].quantityBreaks.map((_, i) => (
+            <tr key={i}>
+              {breaksColumn(m, i)}
+              {Array.from({ length: columns }, (_, c) => (
+                <td key={c} className="py-1 pr-2">
+                  <Cell path={cellPath(i, c)} register={register} errors={errors} initial={initial} label={cellLabel(i, c)} disabled={disabled} prefix="$" />
+                </td>
+              ))}
+            </tr>
+          ))}
+        </tbody>
+      </table>
+    </div>
+  );
+
   const tierTable = (m: Tiered, title: string, lead: string) => {
-    const t = values[m];
-    const width = t.pricesCents[0]?.length ?? 0;
+    const width = values[m].pricesCents[0]?.length ?? 0;
     return (
       <section key={m} className="card space-y-3 p-5" aria-label={title}>
         <div>
           <h2 className="text-lg">{title}</h2>
           <p className="text-sm text-ink-600">{lead}</p>
         </div>
-        <div className="overflow-x-auto">
-          <table className="text-sm">
-            <thead>
-              <tr className="text-left text-xs uppercase tracking-wide text-ink-500">
-                <th scope="col" className="pb-1 pr-2 font-medium">
-                  Quantity
-                </th>
-                {Array.from({ length: width }, (_, l) => (
-                  <th key={l} scope="col" className="pb-1 pr-2 font-medium">
-                    {l + 1} {l === 0 ? "location" : "locations"}
-                  </th>
-                ))}
-              </tr>
-            </thead>
-            <tbody>
-              {t.quantityBreaks.map((_, i) => (
-                <tr key={i}>
-                  {breaksColumn(m, i)}
-                  {Array.from({ length: width }, (_, l) => (
-                    <td key={l} className="py-1 pr-2">
-                      <Cell path={`${m}.pricesCents.${i}.${l}`} register={register} errors={errors} initial={initial} label={`${title}, break ${i + 1}, ${l + 1} locations, dollars per garment`} disabled={disabled} prefix="$" />
-                    </td>
-                  ))}
-                </tr>
-              ))}
-            </tbody>
-          </table>
-        </div>
+        {priceGrid(m, width, "location", (i, l) => `${m}.pricesCents.${i}.${l}`, (i, l) => `${title}, break ${i + 1}, ${l + 1} locations, dollars per garment`)}
         {canEdit ? (
           <div className="flex flex-wrap gap-2">
             <button type="button" className="btn-quiet px-3 py-1" onClick={() => addBreak(m)}>
@@ -214,33 +218,8 @@ export function PriceMatrixEditor({ shopSlug, matrix, canEdit }: { shopSlug: str
             </button>
           ))}
         </div>
-        <div className="overflow-x-auto" role="tabpanel">
-          <table className="text-sm">
-            <thead>
-              <tr className="text-left text-xs uppercase tracking-wide text-ink-500">
-                <th scope="col" className="pb-1 pr-2 font-medium">
-                  Quantity
-                </th>
-                {Array.from({ length: spColours }, (_, c) => (
-                  <th key={c} scope="col" className="pb-1 pr-2 font-medium">
-                    {c + 1} {c === 0 ? "colour" : "colours"}
-                  </th>
-                ))}
-              </tr>
-            </thead>
-            <tbody>
-              {sp.quantityBreaks.map((_, i) => (
-                <tr key={i}>
-                  {breaksColumn("screenPrint", i)}
-                  {Array.from({ length: spColours }, (_, c) => (
-                    <td key={c} className="py-1 pr-2">
-                      <Cell path={`screenPrint.pricesCents.${i}.${loc}.${c}`} register={register} errors={errors} initial={initial} label={`Screen print, break ${i + 1}, ${loc + 1} locations, ${c + 1} colours, dollars per garment`} disabled={disabled} prefix="$" />
-                    </td>
-                  ))}
-                </tr>
-              ))}
-            </tbody>
-          </table>
+        <div role="tabpanel">
+          {priceGrid("screenPrint", spColours, "colour", (i, c) => `screenPrint.pricesCents.${i}.${loc}.${c}`, (i, c) => `Screen print, break ${i + 1}, ${loc + 1} locations, ${c + 1} colours, dollars per garment`)}
         </div>
         {canEdit ? (
           <div className="flex flex-wrap gap-2">
