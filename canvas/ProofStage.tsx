@@ -1,7 +1,7 @@
 "use client";
 
 import type Konva from "konva";
-import { useEffect, useMemo, useRef } from "react";
+import { memo, useEffect, useMemo, useRef } from "react";
 import { Group, Image as KonvaImage, Layer, Line, Rect, Stage, Text, Transformer } from "react-konva";
 import type { LocationSpec } from "@/lib/garments/locations";
 import type { Point } from "@/lib/garments/types";
@@ -73,27 +73,7 @@ export default function ProofStage(props: Props) {
     tr.getLayer()?.batchDraw();
   }, [props.selectedId, props.editable, props.placements, view]);
 
-  const garment = useMemo(() => {
-    const body = flat(silhouette.outline, view);
-    const neck = flat(silhouette.neckline, view);
-    return {
-      body,
-      neck,
-      hood: silhouette.hood ? flat(silhouette.hood, view) : null,
-      pocket: silhouette.pocket ? flat(silhouette.pocket, view) : null,
-      sleeves: (silhouette.sleeves ?? []).map((p) => flat(p, view)),
-      handles: (silhouette.handles ?? []).map((p) => flat(p, view)),
-      rightEdge: flat(silhouette.bodyEdge, view),
-      leftEdge: flat(silhouette.bodyEdge.map((p) => ({ x: -p.x, y: p.y })), view),
-    };
-  }, [silhouette, view]);
 
-  const top = toStage(view, { x: 0, y: silhouette.hps.left.y - (silhouette.hood && silhouette.hoodLayer === "behind" ? 12 : 2) });
-  const bottom = toStage(view, { x: 0, y: silhouette.hemY + 2 });
-  const bodyBottomY = silhouette.lowerBoundaryY;
-
-  const collarLines: number[] = [];
-  for (let inch = 1; inch <= Math.min(16, Math.floor(bodyBottomY)); inch += 1) collarLines.push(inch);
 
   function commitNode(id: string, node: Konva.Image) {
     const scaleX = node.scaleX();
@@ -159,70 +139,7 @@ export default function ProofStage(props: Props) {
         props.onPan(-e.evt.deltaX, -e.evt.deltaY);
       }}
     >
-      <Layer listening={false}>
-        <Rect x={0} y={0} width={width} height={height} fill="#ece6d9" />
-        {(props.figure ?? []).map((shape, i) => (
-          <Line key={`fig${i}`} points={flat(shape, view)} closed fill="#c9b8a6" stroke="#a8957f" strokeWidth={1} />
-        ))}
-        {garment.handles.slice(1).map((h, i) => (
-          <Line key={`hb${i}`} points={h} closed fill={shade(colourHex, -0.12)} stroke={ink.seam} strokeWidth={1} />
-        ))}
-        {garment.hood && silhouette.hoodLayer === "behind" ? (
-          <Line points={garment.hood} closed fill={shade(colourHex, -0.1)} stroke={ink.seam} strokeWidth={1.2} />
-        ) : null}
-        <Line points={garment.body} closed fill={colourHex} stroke={ink.seam} strokeWidth={1.5} shadowColor="#181a1e" shadowBlur={18} shadowOpacity={0.18} shadowOffsetY={6} />
-        {garment.sleeves.map((sl, i) => (
-          <Line key={`sl${i}`} points={sl} closed stroke={ink.seam} strokeWidth={1} dash={[4, 3]} />
-        ))}
-        {garment.neck.length ? <Line points={garment.neck} stroke={ink.seam} strokeWidth={2.5} lineCap="round" /> : null}
-        {garment.pocket ? <Line points={garment.pocket} closed stroke={ink.seam} strokeWidth={1.2} dash={[5, 3]} /> : null}
-        {garment.hood && silhouette.hoodLayer === "over" ? (
-          <Line points={garment.hood} closed fill={shade(colourHex, 0.05)} stroke={ink.seam} strokeWidth={1.2} />
-        ) : null}
-        {garment.handles.slice(0, 1).map((h, i) => (
-          <Line key={`hf${i}`} points={h} closed fill={shade(colourHex, -0.05)} stroke={ink.seam} strokeWidth={1} />
-        ))}
-      </Layer>
-
-      <Layer listening={false}>
-        {/* Side seams and armhole seams: art must keep clear of these. */}
-        <Line points={garment.rightEdge} stroke="#b7791f" strokeWidth={2} opacity={0.9} />
-        <Line points={garment.leftEdge} stroke="#b7791f" strokeWidth={2} opacity={0.9} />
-        {/* Center line. */}
-        <Line points={[top.x, top.y, bottom.x, bottom.y]} stroke={ink.guide} strokeWidth={1} dash={[6, 4]} opacity={0.8} />
-        {/* Whole inches below the collar, across the center. */}
-        {silhouette.neckline.length
-          ? collarLines.map((inch) => {
-              const a = toStage(view, { x: -1.5, y: inch });
-              const b = toStage(view, { x: 1.5, y: inch });
-              return (
-                <Group key={`c${inch}`}>
-                  <Line points={[a.x, a.y, b.x, b.y]} stroke={ink.guide} strokeWidth={1} opacity={0.55} />
-                  {s >= 10 ? <Text x={b.x + 4} y={b.y - 6} text={`${inch}″`} fontSize={10} fill={ink.label} opacity={0.8} /> : null}
-                </Group>
-              );
-            })
-          : null}
-        {props.specs.map((spec) => {
-          const a = toStage(view, { x: spec.printArea.x, y: spec.printArea.y });
-          const area = spec.printArea;
-          const centre = toStage(view, { x: area.x + area.width / 2, y: area.y + area.height / 2 });
-          return (
-            <Group key={spec.location} x={centre.x} y={centre.y} rotation={spec.axisRotationDeg}>
-              <Rect
-                x={-(area.width * s) / 2}
-                y={-(area.height * s) / 2}
-                width={area.width * s}
-                height={area.height * s}
-                stroke={ink.guide}
-                strokeWidth={1.5}
-                dash={[8, 5]}
-              />
-              <Text x={-(area.width * s) / 2} y={-(area.height * s) / 2 - 14} text={`${spec.label} print area`} fontSize={11} fill={ink.label} visible={a.y > RULER_PX} />
-            </Group>
-          );
-        })}
-      </Layer>
+      <GarmentLayers view={view} silhouette={silhouette} colourHex={colourHex} width={width} height={height} figure={props.figure} specs={props.specs} />
 
       <Layer>
         {props.placements.map((p) => {
@@ -317,10 +234,111 @@ export default function ProofStage(props: Props) {
           })}
         </Layer>
       ) : null}
-      <Rulers width={width} height={height} view={view} unit={props.unit} />
+      <MemoRulers width={width} height={height} view={view} unit={props.unit} />
     </Stage>
   );
 }
+
+type GarmentLayersProps = Pick<Props, "view" | "silhouette" | "colourHex" | "width" | "height" | "figure" | "specs">;
+
+/**
+ * The garment, its seams, guides and print areas. Memoised: dragging art changes none of its
+ * props, so Konva never redraws the blurred garment shadow mid-drag.
+ */
+const GarmentLayers = memo(function GarmentLayers({ view, silhouette, colourHex, width, height, figure, specs }: GarmentLayersProps) {
+  const s = scaleOf(view);
+  const ink = inkOn(colourHex);
+  const garment = useMemo(() => {
+    const body = flat(silhouette.outline, view);
+    const neck = flat(silhouette.neckline, view);
+    return {
+      body,
+      neck,
+      hood: silhouette.hood ? flat(silhouette.hood, view) : null,
+      pocket: silhouette.pocket ? flat(silhouette.pocket, view) : null,
+      sleeves: (silhouette.sleeves ?? []).map((p) => flat(p, view)),
+      handles: (silhouette.handles ?? []).map((p) => flat(p, view)),
+      rightEdge: flat(silhouette.bodyEdge, view),
+      leftEdge: flat(silhouette.bodyEdge.map((p) => ({ x: -p.x, y: p.y })), view),
+    };
+  }, [silhouette, view]);
+
+  const top = toStage(view, { x: 0, y: silhouette.hps.left.y - (silhouette.hood && silhouette.hoodLayer === "behind" ? 12 : 2) });
+  const bottom = toStage(view, { x: 0, y: silhouette.hemY + 2 });
+  const collarLines: number[] = [];
+  for (let inch = 1; inch <= Math.min(16, Math.floor(silhouette.lowerBoundaryY)); inch += 1) collarLines.push(inch);
+  return (
+    <>
+      <Layer listening={false}>
+        <Rect x={0} y={0} width={width} height={height} fill="#ece6d9" />
+        {(figure ?? []).map((shape, i) => (
+          <Line key={`fig${i}`} points={flat(shape, view)} closed fill="#c9b8a6" stroke="#a8957f" strokeWidth={1} />
+        ))}
+        {garment.handles.slice(1).map((h, i) => (
+          <Line key={`hb${i}`} points={h} closed fill={shade(colourHex, -0.12)} stroke={ink.seam} strokeWidth={1} />
+        ))}
+        {garment.hood && silhouette.hoodLayer === "behind" ? (
+          <Line points={garment.hood} closed fill={shade(colourHex, -0.1)} stroke={ink.seam} strokeWidth={1.2} />
+        ) : null}
+        <Line points={garment.body} closed fill={colourHex} stroke={ink.seam} strokeWidth={1.5} shadowColor="#181a1e" shadowBlur={18} shadowOpacity={0.18} shadowOffsetY={6} />
+        {garment.sleeves.map((sl, i) => (
+          <Line key={`sl${i}`} points={sl} closed stroke={ink.seam} strokeWidth={1} dash={[4, 3]} />
+        ))}
+        {garment.neck.length ? <Line points={garment.neck} stroke={ink.seam} strokeWidth={2.5} lineCap="round" /> : null}
+        {garment.pocket ? <Line points={garment.pocket} closed stroke={ink.seam} strokeWidth={1.2} dash={[5, 3]} /> : null}
+        {garment.hood && silhouette.hoodLayer === "over" ? (
+          <Line points={garment.hood} closed fill={shade(colourHex, 0.05)} stroke={ink.seam} strokeWidth={1.2} />
+        ) : null}
+        {garment.handles.slice(0, 1).map((h, i) => (
+          <Line key={`hf${i}`} points={h} closed fill={shade(colourHex, -0.05)} stroke={ink.seam} strokeWidth={1} />
+        ))}
+      </Layer>
+
+      <Layer listening={false}>
+        {/* Side seams and armhole seams: art must keep clear of these. */}
+        <Line points={garment.rightEdge} stroke="#b7791f" strokeWidth={2} opacity={0.9} />
+        <Line points={garment.leftEdge} stroke="#b7791f" strokeWidth={2} opacity={0.9} />
+        {/* Center line. */}
+        <Line points={[top.x, top.y, bottom.x, bottom.y]} stroke={ink.guide} strokeWidth={1} dash={[6, 4]} opacity={0.8} />
+        {/* Whole inches below the collar, across the center. */}
+        {silhouette.neckline.length
+          ? collarLines.map((inch) => {
+              const a = toStage(view, { x: -1.5, y: inch });
+              const b = toStage(view, { x: 1.5, y: inch });
+              return (
+                <Group key={`c${inch}`}>
+                  <Line points={[a.x, a.y, b.x, b.y]} stroke={ink.guide} strokeWidth={1} opacity={0.55} />
+                  {s >= 10 ? <Text x={b.x + 4} y={b.y - 6} text={`${inch}″`} fontSize={10} fill={ink.label} opacity={0.8} /> : null}
+                </Group>
+              );
+            })
+          : null}
+        {specs.map((spec) => {
+          const a = toStage(view, { x: spec.printArea.x, y: spec.printArea.y });
+          const area = spec.printArea;
+          const centre = toStage(view, { x: area.x + area.width / 2, y: area.y + area.height / 2 });
+          return (
+            <Group key={spec.location} x={centre.x} y={centre.y} rotation={spec.axisRotationDeg}>
+              <Rect
+                x={-(area.width * s) / 2}
+                y={-(area.height * s) / 2}
+                width={area.width * s}
+                height={area.height * s}
+                stroke={ink.guide}
+                strokeWidth={1.5}
+                dash={[8, 5]}
+              />
+              <Text x={-(area.width * s) / 2} y={-(area.height * s) / 2 - 14} text={`${spec.label} print area`} fontSize={11} fill={ink.label} visible={a.y > RULER_PX} />
+            </Group>
+          );
+        })}
+      </Layer>
+
+    </>
+  );
+});
+
+const MemoRulers = memo(Rulers);
 
 function Rulers({ width, height, view, unit }: { width: number; height: number; view: View; unit: LengthUnit }) {
   const s = scaleOf(view);

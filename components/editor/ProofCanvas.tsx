@@ -110,20 +110,21 @@ export function ProofCanvas(props: Props) {
 
   const effectiveZoom = zoom ?? fitted;
   const panIn = pan.side === props.side ? pan : { x: 0, y: 0 };
-  const view: View | null =
-    effectiveZoom !== null && size.width
-      ? (() => {
-          const scale = props.pxPerInch * effectiveZoom;
-          const centre = centredOrigin({ box: garmentBox, viewportWidth: size.width, viewportHeight: size.height, scale });
-          return { originX: centre.originX - panIn.x * scale, originY: centre.originY - panIn.y * scale, pxPerInch: props.pxPerInch, zoom: effectiveZoom };
-        })()
-      : null;
+  // One view object per real change of zoom, size or pan, so a drag does not redraw the garment.
+  const viewW = size.width;
+  const viewH = size.height;
+  const view: View | null = useMemo(() => {
+    if (effectiveZoom === null || !viewW) return null;
+    const scale = props.pxPerInch * effectiveZoom;
+    const centre = centredOrigin({ box: garmentBox, viewportWidth: viewW, viewportHeight: viewH, scale });
+    return { originX: centre.originX - panIn.x * scale, originY: centre.originY - panIn.y * scale, pxPerInch: props.pxPerInch, zoom: effectiveZoom };
+  }, [effectiveZoom, viewW, viewH, garmentBox, props.pxPerInch, panIn.x, panIn.y]);
 
   const sidePlacements = props.placements.filter((p) => sideOf(p.location) === props.side);
+  const locationKey = [...new Set(sidePlacements.map((p) => p.location))].sort().join(",");
   const specs = useMemo(() => {
-    const wanted = new Set(sidePlacements.map((p) => p.location));
     const list: LocationSpec[] = [];
-    for (const location of wanted) {
+    for (const location of locationKey ? (locationKey.split(",") as Placement["location"][]) : []) {
       try {
         list.push(locationSpec({ location, category: props.category, group: props.group, measurements: props.measurements, silhouette }));
       } catch {
@@ -131,7 +132,7 @@ export function ProofCanvas(props: Props) {
       }
     }
     return list;
-  }, [sidePlacements, props.category, props.group, props.measurements, silhouette]);
+  }, [locationKey, props.category, props.group, props.measurements, silhouette]);
 
   const images2 = useMemo(() => {
     const out: Record<string, HTMLImageElement | undefined> = {};
