@@ -1,0 +1,29 @@
+import "server-only";
+import { NextResponse } from "next/server";
+import type { z } from "zod";
+import { resolveQuoteAccess, type QuoteAccess } from "@/app/_server/orders";
+import { takeToken } from "@/app/_server/rate-limit";
+import { clientIp } from "@/app/_server/review";
+
+type Granted<T> = { ok: true; body: T; access: Extract<QuoteAccess, { ok: true }>; ip: string | null };
+
+/**
+ * The shared front half of the client's quote routes: read and check the body, find who is
+ * asking (signed-in contact or review link in `link`), and apply the per-quote rate limit.
+ */
+export async function readQuoteRequest<S extends z.ZodType<{ link?: string }>>(
+  request: Request,
+  quoteId: string,
+  schema: S,
+  limit: { bucket: string; capacity: number; refillPerMinute: number },
+): Promise<Granted<z.infer<S>> | { ok: false; response: NextResponse }> {
+  const parsed = schema.safeParse(await request.json().catch(() => undefined));
+  if (!parsed.success) return { ok: false, response: NextResponse.json({ error: parsed.error.issues[0]?.message ?? "That could not be read." }, { status: 400 }) };
+  const access = await resolveQuoteAccess(quoteId, parsed.data.link);
+  if (!access.ok) return { ok: false, response: NextResponse.json({ error: access.message }, { status: access.status }) };
+  const ip = clientIp(request);
+  if (!takeToken(`${limit.bucket}:${quoteId}:${ip ?? "?"}`, limit)) {
+    return { ok: false, response: NextResponse.json({ error: "Too many tries. Wait a minute and try again." }, { status: 429 }) };
+  }
+  return { ok: true, body: parsed.data, access, ip };
+}
