@@ -89,7 +89,7 @@ describe("security headers", () => {
 });
 
 describe("pages under the policy", () => {
-  it("signs in, edits and saves in the editor, uploads art and opens a review link without a single CSP violation", async () => {
+  it("signs up and in, edits and saves in the editor, uploads art, opens a review link, production and the portal without a single CSP violation", async () => {
     const dir = mkdtempSync(path.join(tmpdir(), "chalkline-csp-"));
     const file = path.join(dir, "csp-check-badge.png");
     writeFileSync(
@@ -149,8 +149,27 @@ describe("pages under the policy", () => {
     await review.getByRole("button", { name: "Pin note" }).click();
     await review.getByTestId("note").filter({ hasText: "security policy" }).waitFor();
 
+    // The production page and the client's own portal run under the same policy.
+    await page.goto(`/shops/${DEMO_SHOP}/jobs`);
+    await page.getByRole("link", { name: /Spring season team tees/ }).click();
+    await page.getByRole("link", { name: "Production" }).click();
+    await page.getByTestId("grading-summary").first().waitFor();
+    const clientContext = await newContext(browser, { viewport: { width: 1280, height: 900 } });
+    const clientViolations = await watchCsp(clientContext);
+    const clientPage = await clientContext.newPage();
+    await signIn(clientPage, "client@chalkline.test");
+    await clientPage.goto("/portal");
+    const portalProof = clientPage.locator('a[href^="/portal/proofs/"]').first();
+    if ((await portalProof.count()) > 0) {
+      await portalProof.click();
+      await clientPage.waitForURL(/\/portal\/proofs\//);
+      await clientPage.locator("[data-testid=proof-canvas][data-scale]").waitFor();
+    }
+
     expect(violations).toEqual([]);
     expect(visitorViolations).toEqual([]);
+    expect(clientViolations).toEqual([]);
+    await clientContext.close();
     await visitor.close();
     await context.close();
   });
