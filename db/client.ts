@@ -22,6 +22,15 @@ function createPool(): Pool {
   pool.on("error", (error) => {
     console.error("[db] idle connection error:", error.message);
   });
+  // The pool listens for errors only while a client is idle. A client that is checked out (say
+  // between two statements of a transaction) when the database goes away would otherwise emit an
+  // unhandled "error" and take the process down. Its query fails instead, and the pool drops it
+  // on release because it is no longer queryable; the next query opens a fresh connection.
+  pool.on("connect", (client) => {
+    client.on("error", (error) => {
+      console.error("[db] connection lost:", error.message);
+    });
+  });
   return pool;
 }
 

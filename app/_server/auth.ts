@@ -21,11 +21,41 @@ const credentialsSchema = z.object({
   password: z.string().min(1).max(200),
 });
 
+/** Password attempts per e-mail address: 10 at once, then one every 12 s. */
+const SIGN_IN_LIMIT = { capacity: 10, refillPerMinute: 5 };
+export const SIGN_IN_LIMIT_MESSAGE = "Too many sign-in attempts. Wait a minute and try again.";
+
+/** Takes one password attempt for this address; false once it has used them up. */
+export function takeSignInAttempt(rawEmail: string): boolean {
+  return takeToken(`sign-in:${normalizeEmail(rawEmail)}`, SIGN_IN_LIMIT);
+}
+
 let options: NextAuthOptions | undefined;
+
+/**
+ * Session cookies: next-auth's own, httpOnly and SameSite=Lax. When the app's URL is https they are
+ * also Secure and carry the __Secure- / __Host- prefixes (`useSecureCookies`); on plain http (local
+ * development and tests) the browser would drop Secure cookies, so they are not.
+ */
+export function usesSecureCookies(env: Record<string, string | undefined> = process.env): boolean {
+  return (env.NEXTAUTH_URL ?? env.APP_URL ?? "").startsWith("https://");
+}
+
+/** The session, callback and CSRF cookies, spelled out so the policy is ours and tested (the names are next-auth's). */
+export function authCookies(secure: boolean): NonNullable<NextAuthOptions["cookies"]> {
+  const options = { httpOnly: true, sameSite: "lax" as const, path: "/", secure };
+  const prefix = secure ? "__Secure-" : "";
+  return {
+    sessionToken: { name: `${prefix}next-auth.session-token`, options },
+    callbackUrl: { name: `${prefix}next-auth.callback-url`, options },
+    // __Host-: only ever sent to this exact host, over https, for the whole site.
+    csrfToken: { name: `${secure ? "__Host-" : ""}next-auth.csrf-token`, options },
+  };
+}
 
 export function getAuthOptions(): NextAuthOptions {
   if (options) return options;
-  const secure = (process.env.NEXTAUTH_URL ?? "").startsWith("https://");
+  const secure = usesSecureCookies();
   options = {
     adapter: DrizzleAdapter(getDb(), {
       usersTable: users,
@@ -36,6 +66,7 @@ export function getAuthOptions(): NextAuthOptions {
     secret: process.env.NEXTAUTH_SECRET ?? process.env.AUTH_SECRET,
     session: { strategy: "jwt", maxAge: 30 * 24 * 3600 },
     useSecureCookies: secure,
+    cookies: authCookies(secure),
     pages: { signIn: "/sign-in", verifyRequest: "/sign-in/check-email", error: "/sign-in" },
     providers: [
       CredentialsProvider({
@@ -45,10 +76,8 @@ export function getAuthOptions(): NextAuthOptions {
         async authorize(raw) {
           const parsed = credentialsSchema.safeParse(raw);
           if (!parsed.success) return null;
+          // Attempts are counted per address in the route handler, before this runs (429 past the limit).
           const email = normalizeEmail(parsed.data.email);
-          if (!takeToken(`sign-in:${email}`, { capacity: 10, refillPerMinute: 5 })) {
-            throw new Error("Too many sign-in attempts. Wait a minute and try again.");
-          }
           const user = await findUserByEmail({ email });
           if (!user?.passwordHash) return null;
           const ok = await bcrypt.compare(parsed.data.password, user.passwordHash);

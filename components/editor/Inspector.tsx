@@ -140,7 +140,7 @@ export function Inspector(props: Props) {
                 >
                   <span className="min-w-0">
                     <span className="block font-medium">{LOCATION_LABELS[p.location]}</span>
-                    <span className="block truncate text-xs text-ink-500">
+                    <span className="block truncate text-xs text-ink-600">
                       {artName(p.artworkId)} · {sideOf(p.location)}
                     </span>
                   </span>

@@ -71,7 +71,7 @@ export function LengthField({ label, valueIn, unit, disabled, allowNegative, hin
             }
           }}
         />
-        <span className="pointer-events-none absolute inset-y-0 right-2 flex items-center text-xs text-ink-400">{unit}</span>
+        <span className="pointer-events-none absolute inset-y-0 right-2 flex items-center text-xs text-ink-500">{unit}</span>
       </div>
       {error ? (
         <p id={`${id}-err`} className="mt-1 text-xs text-brick-700">

@@ -10,6 +10,7 @@ import type { PlacementCommit } from "@/canvas/ProofStage";
 import { addPlacement, nudge, removePlacement, resize, setGarment, updatePlacement, type ProofDoc } from "@/lib/editor/document";
 import { nextZoom } from "@/lib/editor/view";
 import { LOCATION_LABELS, locationSpec, locationsFor, sideOf, type PrintLocation } from "@/lib/garments/locations";
+import { formatLength } from "@/lib/units";
 import { CATEGORY_INFO, type GarmentCategory, type GarmentMeasurements, type SizeGroup } from "@/lib/garments/types";
 import { defaultPlacement } from "@/lib/placement/model";
 import type { ArtShape } from "@/lib/artwork/advice";
@@ -109,6 +110,7 @@ function EditorBody(props: Props & { store: EditorStore }) {
   );
 
   const selected = doc.placements.find((p) => p.id === selectedId) ?? null;
+  const selectedArtName = props.artworks.find((a) => a.id === selected?.artworkId)?.name ?? "no art";
   const shownSelected = selected && live?.id === selected.id ? { ...selected, ...live.patch } : selected;
 
   // Keyboard: arrows nudge 1/8 in (shift: 1 in), undo and redo.
@@ -236,7 +238,21 @@ function EditorBody(props: Props & { store: EditorStore }) {
       ) : null}
 
       <div className="flex min-h-0 flex-1 flex-col lg:flex-row">
-        <div className="relative min-h-[55vh] flex-1 lg:min-h-0" tabIndex={0} aria-label="Garment canvas. Select art, then use the arrow keys to nudge it by 1/8 inch, or by 1 inch with Shift.">
+        <div
+          className="relative min-h-[55vh] flex-1 focus-visible:-outline-offset-4 lg:min-h-0"
+          tabIndex={0}
+          role="application"
+          aria-roledescription="garment canvas"
+          aria-label="Garment canvas"
+          aria-describedby="canvas-selection canvas-keys"
+          data-testid="canvas-focus"
+        >
+          <p id="canvas-selection" className="sr-only" aria-live="polite">
+            {selected ? `Selected: ${LOCATION_LABELS[selected.location]}, ${selectedArtName}, ${formatLength(selected.widthIn, unit)} wide, ${formatLength(selected.belowCollarIn, unit)} below the collar.` : "No print selected. Choose one under Prints on this proof."}
+          </p>
+          <p id="canvas-keys" className="sr-only">
+            {props.canEdit ? "Arrow keys nudge the selected print by 1/8 inch, or by 1 inch with Shift. Ctrl+Z undoes." : "You can look at this proof but not change it."}
+          </p>
           <ProofCanvas
             category={blank.category}
             group={sizeRow.group}

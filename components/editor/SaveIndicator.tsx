@@ -25,10 +25,11 @@ export function SaveIndicator({ status, editable, onTakeTheirs, onKeepMine }: Pr
     pending: { text: "Unsaved changes…", tone: "bg-paper-200 text-ink-700" },
     saving: { text: "Saving…", tone: "bg-paper-200 text-ink-700" },
     offline: { text: "Offline: changes kept, retrying", tone: "bg-ochre-100 text-ochre-800" },
+    retrying: { text: "Not saved yet: changes kept, retrying", tone: "bg-ochre-100 text-ochre-800" },
     refused: { text: "Not saved", tone: "bg-brick-100 text-brick-800" },
   };
   const { text, tone } = look[status.kind];
-  const detail = status.kind === "offline" || status.kind === "refused" ? status.message : undefined;
+  const detail = status.kind === "offline" || status.kind === "retrying" || status.kind === "refused" ? status.message : undefined;
   return (
     <span role="status" aria-live="polite" data-testid="save-status" data-state={status.kind} title={detail} className={`rounded-full px-2.5 py-0.5 text-xs font-medium ${tone}`}>
       {text}

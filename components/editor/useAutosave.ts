@@ -10,6 +10,7 @@ export type SaveStatus =
   | { kind: "pending" }
   | { kind: "saving" }
   | { kind: "offline"; message: string; retryInMs: number }
+  | { kind: "retrying"; message: string; retryInMs: number }
   | { kind: "conflict"; message: string; version: number; doc: ProofDoc }
   | { kind: "refused"; message: string };
 
@@ -85,9 +86,10 @@ export function useAutosave(opts: { proofId: string; store: EditorStore; initial
       return;
     }
     if (result.kind === "error") {
+      // Chalkline answered but could not store the edit (its database is down): same retries.
       const wait = RETRY_STEPS_MS[Math.min(attempt.current, RETRY_STEPS_MS.length - 1)]!;
       attempt.current += 1;
-      setStatus({ kind: "offline", message: result.message, retryInMs: wait });
+      setStatus({ kind: "retrying", message: result.message, retryInMs: wait });
       timer.current = setTimeout(() => void flushRef.current(), wait);
       return;
     }

@@ -27,9 +27,19 @@ function toPlacement(row: typeof placements.$inferSelect): Placement {
   };
 }
 
-/** A proof with everything the editor and the review views draw. Scoped to the shop: other shops get nothing. */
+/**
+ * A proof with everything the editor and the review views draw. Scoped to the shop: other shops get nothing.
+ * Read in one repeatable-read snapshot, so the version, the garment and the placements always belong
+ * to the same save even while another save commits between the queries.
+ */
 export async function getProofDocument({ shopId, proofId }: { shopId: string; proofId: string }): Promise<ProofDocument | undefined> {
-  const [row] = await db
+  return db.transaction((tx) => readProofDocument(tx, { shopId, proofId }), { isolationLevel: "repeatable read", accessMode: "read only" });
+}
+
+type Reader = Pick<typeof db, "select">;
+
+async function readProofDocument(reader: Reader, { shopId, proofId }: { shopId: string; proofId: string }): Promise<ProofDocument | undefined> {
+  const [row] = await reader
     .select({ proof: proofs, blank: blanks, job: { id: jobs.id, title: jobs.title, clientId: clients.id, clientName: clients.name, method: jobs.method } })
     .from(proofs)
     .innerJoin(blanks, eq(blanks.id, proofs.blankId))
@@ -38,10 +48,10 @@ export async function getProofDocument({ shopId, proofId }: { shopId: string; pr
     .where(and(eq(proofs.id, proofId), eq(proofs.shopId, shopId)))
     .limit(1);
   if (!row) return undefined;
-  const placementRows = await db.select().from(placements).where(eq(placements.proofId, proofId)).orderBy(asc(placements.sortOrder));
+  const placementRows = await reader.select().from(placements).where(eq(placements.proofId, proofId)).orderBy(asc(placements.sortOrder));
   const artIds = [...new Set(placementRows.map((p) => p.artworkId).filter((id): id is string => !!id))];
   // The client's art and the shop's own, plus anything already placed (even an older version).
-  const art = await db
+  const art = await reader
     .select(artworkSummary)
     .from(artworks)
     .where(
@@ -102,23 +112,33 @@ export type SaveProofResult =
 /**
  * Saves the whole editable state of a proof if nobody saved since `baseVersion`.
  * A stale save changes nothing and returns the fresh document instead.
+ *
+ * Concurrency: the proof row is locked first, so two saves of one proof run one after the other
+ * and the second sees the first's version; the update itself still only matches
+ * `version = baseVersion`. The revision row is read with a share lock, so a save waits for an
+ * approval being recorded at that moment and then starts the next letter instead of writing into
+ * the approved one.
  */
 export async function saveProof(input: SaveProofInput): Promise<SaveProofResult> {
   const outcome = await db.transaction(async (tx) => {
+    const [current] = await tx
+      .select({ revision: proofs.revision, version: proofs.version })
+      .from(proofs)
+      .where(and(eq(proofs.id, input.proofId), eq(proofs.shopId, input.shopId)))
+      .for("update");
+    if (!current || current.version !== input.baseVersion) return null;
     // An approved revision is locked: the first edit after approval starts the next letter.
-    const [current] = await tx.select({ revision: proofs.revision }).from(proofs).where(and(eq(proofs.id, input.proofId), eq(proofs.shopId, input.shopId)));
-    let revision = current?.revision;
-    if (revision) {
-      const [frozen] = await tx
-        .select({ state: proofRevisions.state })
-        .from(proofRevisions)
-        .where(and(eq(proofRevisions.proofId, input.proofId), eq(proofRevisions.letter, revision)));
-      if (frozen?.state === "approved") revision = nextRevisionLetter(revision);
-    }
+    let revision = current.revision;
+    const [frozen] = await tx
+      .select({ state: proofRevisions.state })
+      .from(proofRevisions)
+      .where(and(eq(proofRevisions.proofId, input.proofId), eq(proofRevisions.letter, revision)))
+      .for("share");
+    if (frozen?.state === "approved") revision = nextRevisionLetter(revision);
     const [updated] = await tx
       .update(proofs)
       .set({
-        ...(revision ? { revision } : {}),
+        revision,
         version: sql`${proofs.version} + 1`,
         size: input.size,
         colourName: input.colourName,

@@ -4,7 +4,7 @@ import path from "node:path";
 import { repoRoot, run, sleep } from "./proc";
 
 const NEXT_BIN = path.join(repoRoot, "node_modules", "next", "dist", "bin", "next");
-const SOURCES = ["app", "components", "canvas", "db", "lib", "public", "fonts", "next.config.ts", "tailwind.config.ts", "postcss.config.mjs", "package-lock.json", "tsconfig.json"];
+const SOURCES = ["app", "components", "canvas", "db", "lib", "public", "fonts", "next.config.ts", "proxy.ts", "tailwind.config.ts", "postcss.config.mjs", "package-lock.json", "tsconfig.json"];
 
 function newestMtime(entry: string): number {
   const full = path.join(repoRoot, entry);

@@ -57,3 +57,35 @@ export function firstLink(text: string, pathPart: string): string {
   expect(link, `a link containing ${pathPart}`).toBeTruthy();
   return link!;
 }
+
+export type CspViolation = { page: string; directive: string; blocked: string; sample: string };
+
+/**
+ * Collects Content Security Policy violations from every page of a context: the browser's
+ * `securitypolicyviolation` events and its "Refused to …" console errors.
+ */
+export async function watchCsp(context: BrowserContext): Promise<CspViolation[]> {
+  const found: CspViolation[] = [];
+  await context.exposeBinding("__reportCspViolation", ({ page }, v: Omit<CspViolation, "page">) => {
+    found.push({ page: page.url(), ...v });
+  });
+  await context.addInitScript(() => {
+    document.addEventListener(
+      "securitypolicyviolation",
+      (e) => {
+        const report = (window as unknown as { __reportCspViolation?: (v: unknown) => void }).__reportCspViolation;
+        report?.({ directive: e.effectiveDirective || e.violatedDirective, blocked: e.blockedURI, sample: e.sample });
+      },
+      true,
+    );
+  });
+  const watch = (page: Page) =>
+    page.on("console", (message) => {
+      if (message.type() === "error" && /Content Security Policy|Refused to (load|execute|apply|connect|evaluate|frame|create)/i.test(message.text())) {
+        found.push({ page: page.url(), directive: "console", blocked: "", sample: message.text().slice(0, 300) });
+      }
+    });
+  context.pages().forEach(watch);
+  context.on("page", watch);
+  return found;
+}

@@ -94,7 +94,7 @@ export function ArtLibrary({ shopSlug, canEdit, clients, initialClientId, art }:
               </div>
               <div className="space-y-2 p-4">
                 <div className="flex items-baseline justify-between gap-2">
-                  <h3 className="truncate font-medium">{a.name}</h3>
+                  <h2 className="truncate text-base font-medium">{a.name}</h2>
                   <span className="shrink-0 text-xs text-ink-500">v{a.version}</span>
                 </div>
                 <p className="text-xs text-ink-500">{clientName(a.clientId)}</p>

@@ -1,60 +1,22 @@
 "use server";
 
-import { z } from "zod";
 import { resolveShopAccess } from "@/app/_server/access";
-import { getProofDocument, listShopArtworks, saveProof } from "@/db/queries/proofs";
-import { proofDocSchema, type ProofDoc } from "@/lib/editor/document";
-import { toEditorDoc } from "@/lib/editor/from-server";
+import { DB_DOWN_MESSAGE, invalidSave, saveProofSchema, saveProofWithAccess, type SaveProofInput, type SaveProofResponse } from "@/app/_server/proof-save";
 
-const saveSchema = z.object({
-  shopSlug: z.string().min(1).max(80),
-  proofId: z.string().min(1).max(80),
-  baseVersion: z.number().int().positive(),
-  doc: proofDocSchema,
-});
-
-export type SaveProofResponse =
-  | { ok: true; version: number; savedAt: string; revision: string }
-  | { ok: false; kind: "conflict"; message: string; version: number; doc: ProofDoc }
-  | { ok: false; kind: "invalid" | "denied" | "missing" | "error"; message: string };
+export type { SaveProofResponse } from "@/app/_server/proof-save";
 
 /** Autosave: the whole document, guarded by the version the editor last saw. */
-export async function saveProofAction(input: z.input<typeof saveSchema>): Promise<SaveProofResponse> {
-  const parsed = saveSchema.safeParse(input);
-  if (!parsed.success) {
-    const issue = parsed.error.issues[0];
-    return { ok: false, kind: "invalid", message: issue ? `Not saved: ${issue.message}` : "Not saved: the proof data is not valid." };
-  }
-  const access = await resolveShopAccess(parsed.data.shopSlug, "proofs.edit");
-  if (access.kind !== "ok") return { ok: false, kind: "denied", message: access.message };
-  const { shop, actor } = access.access;
-  const { doc, proofId, baseVersion } = parsed.data;
-
-  const current = await getProofDocument({ shopId: shop.id, proofId });
-  if (!current) return { ok: false, kind: "missing", message: "This proof no longer exists." };
-  if (!current.blank.sizeChart.some((row) => row.size === doc.size)) {
-    return { ok: false, kind: "invalid", message: `Not saved: size ${doc.size} is not in this blank's size chart.` };
-  }
-  const artIds = new Set(current.artworks.map((a) => a.id));
-  const unknownArt = doc.placements.find((p) => p.artworkId && !artIds.has(p.artworkId));
-  if (unknownArt) {
-    const shopArt = await listShopArtworks({ shopId: shop.id, ids: [unknownArt.artworkId!] });
-    if (shopArt.length === 0) return { ok: false, kind: "invalid", message: "Not saved: that artwork is not in this shop's library." };
-  }
-
+export async function saveProofAction(input: SaveProofInput): Promise<SaveProofResponse> {
+  const parsed = saveProofSchema.safeParse(input);
+  if (!parsed.success) return invalidSave(parsed.error);
+  let access;
   try {
-    const result = await saveProof({ shopId: shop.id, proofId, baseVersion, ...doc, userId: actor.id });
-    if (result.kind === "saved") return { ok: true, version: result.version, savedAt: result.updatedAt.toISOString(), revision: result.revision };
-    if (result.kind === "missing") return { ok: false, kind: "missing", message: "This proof no longer exists." };
-    return {
-      ok: false,
-      kind: "conflict",
-      message: "Someone else saved this proof after you opened it. Your change was not saved.",
-      version: result.current.proof.version,
-      doc: toEditorDoc(result.current),
-    };
+    access = await resolveShopAccess(parsed.data.shopSlug, "proofs.edit");
   } catch (error) {
-    console.error("[proof save]", error);
-    return { ok: false, kind: "error", message: "Not saved: the database did not answer. Your edits are kept and will be retried." };
+    // Access is read from the database too; while it is down the editor keeps the edits and retries.
+    console.error("[proof save] access", error instanceof Error ? error.message : error);
+    return { ok: false, kind: "error", message: DB_DOWN_MESSAGE };
   }
+  if (access.kind !== "ok") return { ok: false, kind: "denied", message: access.message };
+  return saveProofWithAccess(access.access, parsed.data);
 }

@@ -1,0 +1,45 @@
+import type { Page } from "playwright-core";
+import { expect } from "vitest";
+import { DEMO_SHOP } from "./support";
+
+export type ProofJson = {
+  id: string;
+  version: number;
+  garment: { size: string; category: string };
+  placements: Array<{ id: string; widthIn: number; heightIn: number; offsetFromCenterIn: number; belowCollarIn: number; rotationDeg: number }>;
+};
+
+/** Opens the demo "Team tee" proof from the jobs list and waits for its art to be drawn. */
+export async function openTeeProof(page: Page, zoom = 0.3): Promise<string> {
+  await page.goto(`/shops/${DEMO_SHOP}/jobs`);
+  await page.getByRole("link", { name: /Spring season team tees/ }).click();
+  await page.getByRole("link", { name: /Team tee/ }).click();
+  await page.waitForURL(/\/proofs\//);
+  const proofId = new URL(page.url()).pathname.split("/").pop()!;
+  await page.goto(`/shops/${DEMO_SHOP}/proofs/${proofId}?zoom=${zoom}`);
+  await waitForArt(page);
+  return proofId;
+}
+
+export async function waitForArt(page: Page): Promise<void> {
+  await page.locator("[data-testid=proof-canvas][data-scale]").waitFor();
+  await page.waitForFunction(() => {
+    const konva = (window as unknown as { Konva?: { stages: Array<{ findOne: (s: string) => unknown }> } }).Konva;
+    return !!konva?.stages?.[0]?.findOne(".art");
+  });
+}
+
+export async function fetchProof(page: Page, id: string): Promise<ProofJson> {
+  const response = await page.request.get(`/api/proofs/${id}`);
+  expect(response.status()).toBe(200);
+  return (await response.json()) as ProofJson;
+}
+
+/** Waits for the edit just made to be saved: the indicator leaves "saved", then comes back to it. */
+export async function waitSaved(page: Page, timeout = 15_000): Promise<void> {
+  await page
+    .locator("[data-testid=save-status]:not([data-state=saved])")
+    .waitFor({ timeout: 3_000 })
+    .catch(() => undefined);
+  await page.locator("[data-testid=save-status][data-state=saved]").waitFor({ timeout });
+}
