@@ -64,6 +64,40 @@ describe("accessibility of the main pages (axe, WCAG 2.2 AA)", () => {
     await audit(page, "art library");
   });
 
+  it("jobs list and board, a job with its quote, the job form, clients and prices", async () => {
+    await page.goto(`/shops/${DEMO_SHOP}/jobs`);
+    await audit(page, "jobs list");
+    await page.goto(`/shops/${DEMO_SHOP}/jobs?view=board`);
+    await audit(page, "jobs board");
+    await page.goto(`/shops/${DEMO_SHOP}/jobs/new`);
+    await audit(page, "new job form");
+    await page.getByRole("button", { name: "Create job" }).click();
+    await page.locator(".field-error").first().waitFor();
+    await audit(page, "new job form with errors");
+    await page.goto(`/shops/${DEMO_SHOP}/jobs`);
+    await page.getByRole("link", { name: /Spring season team tees/ }).click();
+    await page.getByTestId("job-money").waitFor();
+    await audit(page, "job page with quote and payments");
+    await page.goto(`/shops/${DEMO_SHOP}/clients`);
+    await audit(page, "clients");
+    await page.goto(`/shops/${DEMO_SHOP}/clients/new`);
+    await audit(page, "new client form");
+    await page.goto(`/shops/${DEMO_SHOP}/prices`);
+    await audit(page, "price matrix");
+  });
+
+  it("the client's jobs", async () => {
+    const clientContext = await newContext(browser, { viewport: { width: 420, height: 900 } });
+    const client = await clientContext.newPage();
+    await signIn(client, "client@chalkline.test");
+    await client.goto("/portal");
+    await audit(client, "client portal");
+    await client.getByRole("link", { name: /Spring season team tees/ }).click();
+    await client.waitForURL(/\/portal\/jobs\//);
+    await audit(client, "client job page");
+    await clientContext.close();
+  });
+
   it("the proof editor", async () => {
     await openTeeProof(page);
     await audit(page, "editor");
