@@ -36,10 +36,11 @@ export async function saveProofAction(input: z.input<typeof saveSchema>): Promis
     return { ok: false, kind: "invalid", message: `Not saved: size ${doc.size} is not in this blank's size chart.` };
   }
   const artIds = new Set(current.artworks.map((a) => a.id));
-  const unknownArt = doc.placements.find((p) => p.artworkId && !artIds.has(p.artworkId));
-  if (unknownArt) {
-    const shopArt = await listShopArtworks({ shopId: shop.id, ids: [unknownArt.artworkId!] });
-    if (shopArt.length === 0) return { ok: false, kind: "invalid", message: "Not saved: that artwork is not in this shop's library." };
+  // Every placed art that the proof does not list yet must be the shop's own, not only the first one.
+  const unknownArt = [...new Set(doc.placements.flatMap((p) => (p.artworkId && !artIds.has(p.artworkId) ? [p.artworkId] : [])))];
+  if (unknownArt.length) {
+    const shopArt = await listShopArtworks({ shopId: shop.id, ids: unknownArt });
+    if (shopArt.length < unknownArt.length) return { ok: false, kind: "invalid", message: "Not saved: that artwork is not in this shop's library." };
   }
 
   try {
