@@ -16,7 +16,9 @@ const saveSchema = z.object({
 export type SaveProofResponse =
   | { ok: true; version: number; savedAt: string; revision: string }
   | { ok: false; kind: "conflict"; message: string; version: number; doc: ProofDoc }
-  | { ok: false; kind: "invalid" | "denied" | "missing" | "error"; message: string };
+  | { ok: false; kind: "invalid" | "denied" | "missing" | "error"; message: string; status?: number };
+
+const DENIED_STATUS = { anonymous: 401, forbidden: 403, "not-found": 404 } as const;
 
 /** Autosave: the whole document, guarded by the version the editor last saw. */
 export async function saveProofAction(input: z.input<typeof saveSchema>): Promise<SaveProofResponse> {
@@ -26,12 +28,12 @@ export async function saveProofAction(input: z.input<typeof saveSchema>): Promis
     return { ok: false, kind: "invalid", message: issue ? `Not saved: ${issue.message}` : "Not saved: the proof data is not valid." };
   }
   const access = await resolveShopAccess(parsed.data.shopSlug, "proofs.edit");
-  if (access.kind !== "ok") return { ok: false, kind: "denied", message: access.message };
+  if (access.kind !== "ok") return { ok: false, kind: "denied", message: access.message, status: DENIED_STATUS[access.kind] };
   const { shop, actor } = access.access;
   const { doc, proofId, baseVersion } = parsed.data;
 
   const current = await getProofDocument({ shopId: shop.id, proofId });
-  if (!current) return { ok: false, kind: "missing", message: "This proof no longer exists." };
+  if (!current) return { ok: false, kind: "missing", message: "This proof no longer exists.", status: 404 };
   if (!current.blank.sizeChart.some((row) => row.size === doc.size)) {
     return { ok: false, kind: "invalid", message: `Not saved: size ${doc.size} is not in this blank's size chart.` };
   }
@@ -46,7 +48,7 @@ export async function saveProofAction(input: z.input<typeof saveSchema>): Promis
   try {
     const result = await saveProof({ shopId: shop.id, proofId, baseVersion, ...doc, userId: actor.id });
     if (result.kind === "saved") return { ok: true, version: result.version, savedAt: result.updatedAt.toISOString(), revision: result.revision };
-    if (result.kind === "missing") return { ok: false, kind: "missing", message: "This proof no longer exists." };
+    if (result.kind === "missing") return { ok: false, kind: "missing", message: "This proof no longer exists.", status: 404 };
     return {
       ok: false,
       kind: "conflict",
