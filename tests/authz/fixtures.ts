@@ -239,6 +239,6 @@ export async function buildAuthzFixture(): Promise<AuthzFixture> {
     ids,
     secrets: [jobTitle, siblingTitle, secondTitle, proofName, unsentName, artName, secondArtName, noteBody, `Matrix Rowing Club ${tag}`],
     clientSecrets: [secondTitle, secondArtName, `Matrix Rowing Club ${tag}`],
-    money: [formatCents(quote.totalCents), formatCents(quote.depositCents), formatCents(siblingQuote.totalCents), "totalCents", "depositCents", "balanceCents"],
+    money: [...new Set([formatCents(quote.totalCents), formatCents(quote.depositCents), formatCents(siblingQuote.totalCents)]), "totalCents", "depositCents", "balanceCents"],
   };
 }
