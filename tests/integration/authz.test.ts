@@ -212,7 +212,8 @@ beforeAll(async () => {
     const failedExport = await createExport({ shopId: f.shop.id, jobId: f.ids.secondClientJobId, kind: "spec-sheet", params: {}, requestedBy: f.users.owner.id });
     await markExport(failedExport, { state: "failed", message: "Failed for the matrix." });
     const { link } = await createShareLink({ shopId: f.shop.id, proofId: f.ids.proofId, permission: "comment", expiresAt: null, recipientEmail: null, recipientName: null, createdBy: f.users.designer.id });
-    const { token } = await createInvitation({ shopId: f.shop.id, email: `joiner-${f.tag}-${actor}@example.test`, role: "designer", invitedBy: f.users.owner.id });
+    // Invitations to the second shop: whoever accepts them, the demo shop's team stays as it is.
+    const { token } = await createInvitation({ shopId: f.other.id, email: `joiner-${f.tag}-${actor}@example.test`, role: "production", invitedBy: f.users.other.id });
     perActor[actor] = { oldArt, newArt, failedExport, linkId: link.id, inviteToken: token };
   }
 });
