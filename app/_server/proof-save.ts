@@ -18,7 +18,7 @@ export type SaveProofInput = z.input<typeof saveProofSchema>;
 export type SaveProofResponse =
   | { ok: true; version: number; savedAt: string; revision: string }
   | { ok: false; kind: "conflict"; message: string; version: number; doc: ProofDoc }
-  | { ok: false; kind: "invalid" | "denied" | "missing" | "error"; message: string };
+  | { ok: false; kind: "invalid" | "denied" | "missing" | "error"; message: string; status?: number };
 
 export const CONFLICT_MESSAGE = "Someone else saved this proof after you opened it. Your change was not saved.";
 export const DB_DOWN_MESSAGE = "Not saved: the database did not answer. Your edits are kept and will be retried.";
@@ -35,25 +35,26 @@ export function invalidSave(error: z.ZodError): SaveProofResponse {
  * and the art, then writes only if nobody saved since `baseVersion`.
  */
 export async function saveProofWithAccess(access: ShopAccess, input: { proofId: string; baseVersion: number; doc: ProofDoc }): Promise<SaveProofResponse> {
-  if (!can(access.role, "proofs.edit")) return { ok: false, kind: "denied", message: "Your role in this shop does not allow this." };
+  if (!can(access.role, "proofs.edit")) return { ok: false, kind: "denied", message: "Your role in this shop does not allow this.", status: 403 };
   const { shop, actor } = access;
   const { doc, proofId, baseVersion } = input;
   try {
     const current = await getProofDocument({ shopId: shop.id, proofId });
-    if (!current) return { ok: false, kind: "missing", message: "This proof no longer exists." };
+    if (!current) return { ok: false, kind: "missing", message: "This proof no longer exists.", status: 404 };
     if (!current.blank.sizeChart.some((row) => row.size === doc.size)) {
       return { ok: false, kind: "invalid", message: `Not saved: size ${doc.size} is not in this blank's size chart.` };
     }
     const artIds = new Set(current.artworks.map((a) => a.id));
-    const unknownArt = doc.placements.find((p) => p.artworkId && !artIds.has(p.artworkId));
-    if (unknownArt) {
-      const shopArt = await listShopArtworks({ shopId: shop.id, ids: [unknownArt.artworkId!] });
-      if (shopArt.length === 0) return { ok: false, kind: "invalid", message: "Not saved: that artwork is not in this shop's library." };
+    // Every placed art that the proof does not list yet must be the shop's own, not only the first one.
+    const unknownArt = [...new Set(doc.placements.flatMap((p) => (p.artworkId && !artIds.has(p.artworkId) ? [p.artworkId] : [])))];
+    if (unknownArt.length) {
+      const shopArt = await listShopArtworks({ shopId: shop.id, ids: unknownArt });
+      if (shopArt.length < unknownArt.length) return { ok: false, kind: "invalid", message: "Not saved: that artwork is not in this shop's library." };
     }
 
     const result = await saveProof({ shopId: shop.id, proofId, baseVersion, ...doc, userId: actor.id });
     if (result.kind === "saved") return { ok: true, version: result.version, savedAt: result.updatedAt.toISOString(), revision: result.revision };
-    if (result.kind === "missing") return { ok: false, kind: "missing", message: "This proof no longer exists." };
+    if (result.kind === "missing") return { ok: false, kind: "missing", message: "This proof no longer exists.", status: 404 };
     return { ok: false, kind: "conflict", message: CONFLICT_MESSAGE, version: result.current.proof.version, doc: toEditorDoc(result.current) };
   } catch (error) {
     console.error("[proof save]", error instanceof Error ? error.message : error);

@@ -40,7 +40,8 @@ export async function resolveReview(kind: string, key: string): Promise<ReviewAc
   if (membership && can(membership.role, "jobs.view")) {
     return { ok: true, reviewer: { kind: "shop", actor, role: membership.role, shopId: owner.shopId, proofId: key, canComment: can(membership.role, "proofs.edit"), canApprove: false, displayName: actor.name ?? actor.email } };
   }
-  if (actor.contacts.some((c) => c.shopId === owner.shopId && c.clientId === owner.clientId)) {
+  // A client reaches a proof only once a revision was sent to them, never the shop's working copy.
+  if (actor.contacts.some((c) => c.shopId === owner.shopId && c.clientId === owner.clientId) && (await latestRevision({ proofId: key }))) {
     return { ok: true, reviewer: { kind: "client", actor, shopId: owner.shopId, proofId: key, canComment: true, canApprove: true, displayName: actor.name ?? actor.email } };
   }
   return { ok: false, status: 404, message: "Not found." };

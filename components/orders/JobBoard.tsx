@@ -55,7 +55,7 @@ export function JobBoard({ shopSlug, rows, movable }: { shopSlug: string; rows: 
                         Move to
                         <select className="field-input py-1 text-xs" value={job.status} onChange={(e) => onMove(job.id, e.target.value as JobStatus)} aria-label={`Move ${job.title} to`}>
                           {JOB_STATUSES.map((s) => (
-                            <option key={s} value={s} disabled={s !== job.status && !movable.includes(s)}>
+                            <option key={s} value={s} disabled={s !== job.status && (!movable.includes(s) || (movable.length < JOB_STATUSES.length && !movable.includes(job.status)))}>
                               {JOB_STATUS_LABELS[s]}
                             </option>
                           ))}

@@ -1,4 +1,4 @@
-import type { NextRequest } from "next/server";
+import { NextResponse, type NextRequest } from "next/server";
 import { createRouteHandler } from "uploadthing/next";
 import { uploadthingConfig } from "@/app/_server/uploadthing-config";
 import { authorizeArtworkUpload, ourFileRouter } from "./core";
@@ -6,6 +6,8 @@ import { authorizeArtworkUpload, ourFileRouter } from "./core";
 const handlers = createRouteHandler({ router: ourFileRouter, config: uploadthingConfig() });
 
 export const GET = handlers.GET;
+
+const DENIED_STATUS = { anonymous: 401, forbidden: 403, "not-found": 404 } as const;
 
 /**
  * Upload requests from the browser are authorised here, in the request's own context, before the
@@ -22,7 +24,9 @@ export async function POST(req: NextRequest): Promise<Response> {
     const input = body && typeof body === "object" ? (body as { input?: unknown }).input : undefined;
     const shopSlug = input && typeof input === "object" ? (input as { shopSlug?: unknown }).shopSlug : undefined;
     if (typeof shopSlug === "string" && shopSlug.length > 0 && shopSlug.length <= 80) {
-      await authorizeArtworkUpload(req, shopSlug);
+      const access = await authorizeArtworkUpload(req, shopSlug);
+      // The SDK knows no "sign in" or "not found" error, so a refusal is answered here, in its error shape.
+      if (access.kind !== "ok") return NextResponse.json({ message: access.message }, { status: DENIED_STATUS[access.kind] });
     }
   }
   return handlers.POST(req);

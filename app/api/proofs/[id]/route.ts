@@ -10,7 +10,10 @@ export const dynamic = "force-dynamic";
 const idSchema = z.string().min(1).max(80);
 const notFound = () => NextResponse.json({ error: "Not found." }, { status: 404 });
 
-/** A proof with garment, size, version and placements (each with computed warnings). */
+/**
+ * A proof's working copy with garment, size, version and placements (each with computed warnings),
+ * for the shop's team. Clients see only what was sent to them, through the review routes.
+ */
 export async function GET(_request: Request, { params }: { params: Promise<{ id: string }> }) {
   const parsed = idSchema.safeParse((await params).id);
   if (!parsed.success) return notFound();
@@ -19,8 +22,7 @@ export async function GET(_request: Request, { params }: { params: Promise<{ id:
   const owner = await findProofShop({ proofId: parsed.data });
   if (!owner) return notFound();
   const membership = actor.memberships.find((m) => m.shopId === owner.shopId);
-  const isOwnClient = actor.contacts.some((c) => c.shopId === owner.shopId && c.clientId === owner.clientId);
-  if (!(membership && can(membership.role, "jobs.view")) && !isOwnClient) return notFound();
+  if (!(membership && can(membership.role, "jobs.view"))) return notFound();
   const document = await getProofDocument({ shopId: owner.shopId, proofId: parsed.data });
   if (!document) return notFound();
   return NextResponse.json(proofToJson(document), { headers: { "Cache-Control": "no-store" } });

@@ -4,6 +4,7 @@ import { revalidatePath } from "next/cache";
 import { z } from "zod";
 import { deniedAction, resolveShopAccess, type ActionResult } from "@/app/_server/access";
 import { replaceArtwork } from "@/db/queries/artworks";
+import { listShopArtworks } from "@/db/queries/proofs";
 
 const replaceSchema = z.object({
   shopSlug: z.string().min(1).max(80),
@@ -18,6 +19,10 @@ export async function replaceArtworkAction(input: z.input<typeof replaceSchema>)
   const access = await resolveShopAccess(parsed.data.shopSlug, "proofs.edit");
   if (access.kind !== "ok") return deniedAction(access);
   try {
+    const ids = [...new Set([parsed.data.oldId, parsed.data.newId])];
+    if ((await listShopArtworks({ shopId: access.access.shop.id, ids })).length < ids.length) {
+      return { ok: false, error: "That artwork is not in this shop's library.", status: 404 };
+    }
     const result = await replaceArtwork({ shopId: access.access.shop.id, oldId: parsed.data.oldId, newId: parsed.data.newId, userId: access.access.actor.id });
     if ("error" in result) return { ok: false, error: result.error };
     revalidatePath(`/shops/${parsed.data.shopSlug}/art`);

@@ -9,7 +9,7 @@ import { sendMailSafely } from "@/app/_server/mail";
 import { loadPriceMatrix } from "@/app/_server/orders";
 import { fieldErrorsByPath, jobFormSchema, jobStatusSchema } from "@/components/orders/schemas";
 import { findClient } from "@/db/queries/clients";
-import { blankUsableByShop, clientBelongsToShop, createJob, findJobDetail, setJobStatus, updateJob } from "@/db/queries/jobs";
+import { blankUsableByShop, clientBelongsToShop, createJob, findJob, findJobDetail, setJobStatus, updateJob } from "@/db/queries/jobs";
 import { sendQuote } from "@/db/queries/orders";
 import { can } from "@/lib/access";
 import { formatCents } from "@/lib/pricing";
@@ -52,8 +52,13 @@ export async function setJobStatusAction(input: unknown): Promise<ActionResult<{
   const { role, shop, actor } = access.access;
   // Production moves jobs along the press (cleared → on press → packed → collected); the rest needs jobs.edit.
   const pressSteps = ["cleared", "on-press", "packed", "collected"];
-  if (!can(role, "jobs.edit") && !(role === "production" && pressSteps.includes(parsed.data.status))) {
-    return { ok: false, error: "Your role can move jobs only between the press steps.", status: 403 };
+  if (!can(role, "jobs.edit")) {
+    const job = role === "production" ? await findJob({ shopId: shop.id, jobId: parsed.data.jobId }) : undefined;
+    if (role === "production" && !job) return { ok: false, error: "Not found.", status: 404 };
+    // Only the shop's makers clear a job for print; production takes it from there.
+    if (!(role === "production" && job && pressSteps.includes(job.status) && pressSteps.includes(parsed.data.status))) {
+      return { ok: false, error: "Your role can move jobs only between the press steps, once a job is cleared to print.", status: 403 };
+    }
   }
   const job = await setJobStatus({ shopId: shop.id, jobId: parsed.data.jobId, status: parsed.data.status, actorUserId: actor.id });
   if (!job) return { ok: false, error: "Not found.", status: 404 };

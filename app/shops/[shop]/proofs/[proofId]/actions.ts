@@ -5,6 +5,8 @@ import { DB_DOWN_MESSAGE, invalidSave, saveProofSchema, saveProofWithAccess, typ
 
 export type { SaveProofResponse } from "@/app/_server/proof-save";
 
+const DENIED_STATUS = { anonymous: 401, forbidden: 403, "not-found": 404 } as const;
+
 /** Autosave: the whole document, guarded by the version the editor last saw. */
 export async function saveProofAction(input: SaveProofInput): Promise<SaveProofResponse> {
   const parsed = saveProofSchema.safeParse(input);
@@ -17,6 +19,6 @@ export async function saveProofAction(input: SaveProofInput): Promise<SaveProofR
     console.error("[proof save] access", error instanceof Error ? error.message : error);
     return { ok: false, kind: "error", message: DB_DOWN_MESSAGE };
   }
-  if (access.kind !== "ok") return { ok: false, kind: "denied", message: access.message };
+  if (access.kind !== "ok") return { ok: false, kind: "denied", message: access.message, status: DENIED_STATUS[access.kind] };
   return saveProofWithAccess(access.access, parsed.data);
 }

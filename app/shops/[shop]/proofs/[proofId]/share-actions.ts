@@ -4,7 +4,7 @@ import { z } from "zod";
 import { deniedAction, resolveShopAccess, type ActionResult } from "@/app/_server/access";
 import { appUrl } from "@/app/_server/config";
 import { notifyProofSent } from "@/app/_server/notify";
-import { getProofDocument } from "@/db/queries/proofs";
+import { findProofShop, getProofDocument } from "@/db/queries/proofs";
 import { createShareLink, listShareLinks, revokeShareLink, sendRevision } from "@/db/queries/review";
 
 const shareSchema = z.object({
@@ -55,6 +55,7 @@ export async function listShareLinksAction(input: { shopSlug: string; proofId: s
   if (!parsed.success) return { ok: false, error: "Unknown proof." };
   const access = await resolveShopAccess(parsed.data.shopSlug, "jobs.view");
   if (access.kind !== "ok") return deniedAction(access);
+  if ((await findProofShop({ proofId: parsed.data.proofId }))?.shopId !== access.access.shop.id) return { ok: false, error: "Not found.", status: 404 };
   const links = await listShareLinks({ shopId: access.access.shop.id, proofId: parsed.data.proofId });
   return {
     ok: true,
@@ -77,6 +78,6 @@ export async function revokeShareLinkAction(input: { shopSlug: string; linkId: s
   const access = await resolveShopAccess(parsed.data.shopSlug, "proofs.edit");
   if (access.kind !== "ok") return deniedAction(access);
   const row = await revokeShareLink({ shopId: access.access.shop.id, linkId: parsed.data.linkId, userId: access.access.actor.id });
-  if (!row) return { ok: false, error: "That link is already withdrawn or does not exist." };
+  if (!row) return { ok: false, error: "That link is already withdrawn or does not exist.", status: 404 };
   return { ok: true, data: null };
 }
