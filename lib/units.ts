@@ -117,6 +117,8 @@ function gcd(a: number, b: number): number {
 function formatEighths(value: number): string {
   const sign = value < 0 ? "-" : "";
   const totalEighths = Math.round(Math.abs(value) / EIGHTH_IN);
+  // Past 2^53 eighths no fraction is left to show (and Infinity would send gcd round forever).
+  if (!Number.isSafeInteger(totalEighths)) return String(Math.round(value));
   if (totalEighths === 0) return "0";
   const whole = Math.floor(totalEighths / 8);
   const rest = totalEighths % 8;
@@ -128,7 +130,8 @@ function formatEighths(value: number): string {
 
 function formatDecimal(value: number, digits: number, trim: boolean): string {
   let text = value.toFixed(digits);
-  if (trim && text.includes(".")) text = text.replace(/\.?0+$/, "");
+  // toFixed writes 1e21 and up with an exponent, whose zeros are not trailing decimals.
+  if (trim && text.includes(".") && !text.includes("e")) text = text.replace(/\.?0+$/, "");
   if (/^-0(\.0*)?$/.test(text)) text = text.slice(1);
   return text;
 }
@@ -142,7 +145,10 @@ export function formatLength(value: number, unit: LengthUnit, opts: FormatLength
   if (!Number.isFinite(value)) return withUnit ? `— ${unit}` : "—";
   let text: string;
   if (unit === "cm") {
-    text = formatDecimal(value * CM_PER_INCH, opts.digits ?? 1, false);
+    const cm = value * CM_PER_INCH;
+    // Past about 7e307 in, the centimetres overflow to Infinity: show the same dash.
+    if (!Number.isFinite(cm)) return withUnit ? `— ${unit}` : "—";
+    text = formatDecimal(cm, opts.digits ?? 1, false);
   } else if (opts.decimal) {
     text = formatDecimal(value, opts.digits ?? 2, true);
   } else {
