@@ -14,11 +14,13 @@ export type ChartRow = { size: string; group: SizeGroup; measurements: GarmentMe
  * Ideal width = the designed width, scaled by how the location's typical width for that size
  * compares with the size it was designed on, and never above the allowed width.
  */
-export function gradingSizes(args: { category: GarmentCategory; chart: ChartRow[]; sizeRun: Array<{ size: string; quantity: number }>; placement: Placement; designedOn: string }): { sizes: GradingSize[]; missing: string[] } {
+export function gradingSizes(args: { category: GarmentCategory; chart: ChartRow[]; sizeRun: Array<{ size: string; quantity: number }>; placement: Placement; designedOn: string }): { sizes: GradingSize[]; missing: string[]; noRoom: string[] } {
   const base = args.chart.find((r) => r.size === args.designedOn) ?? args.chart[0]!;
   const baseSpec = locationSpec({ location: args.placement.location, category: args.category, group: base.group, measurements: base.measurements });
   const sizes: GradingSize[] = [];
   const missing: string[] = [];
+  // Sizes whose chart leaves this location no room at all: grading needs an allowance above 0.
+  const noRoom: string[] = [];
   for (const entry of args.sizeRun) {
     const row = args.chart.find((r) => r.size === entry.size);
     if (!row) {
@@ -28,9 +30,13 @@ export function gradingSizes(args: { category: GarmentCategory; chart: ChartRow[
     const spec = locationSpec({ location: args.placement.location, category: args.category, group: row.group, measurements: row.measurements });
     const ratio = baseSpec.typicalWidth > 0 ? spec.typicalWidth / baseSpec.typicalWidth : 1;
     const allowed = Math.max(0, spec.maxWidth);
+    if (!(allowed > 0)) {
+      noRoom.push(entry.size);
+      continue;
+    }
     sizes.push({ size: entry.size, quantity: entry.quantity, allowedWidthIn: allowed, idealWidthIn: Math.min(allowed, args.placement.widthIn * ratio) });
   }
-  return { sizes, missing };
+  return { sizes, missing, noRoom };
 }
 
 export type SizePrint = { size: string; quantity: number; widthIn: number; heightIn: number; belowCollarIn: number; offsetFromCenterIn: number; transfer: string };

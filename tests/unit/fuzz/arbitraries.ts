@@ -80,28 +80,47 @@ const nudgedCatalogRow = fc
   .map(({ blank, pick, factors }) => {
     const row = blank.sizes[pick % blank.sizes.length]!;
     const entries = Object.entries(row.measurements).map(([k, v], i) => [k, (v as number) * factors[i]!]);
-    return { category: blank.category, group: row.group, size: row.size, measurements: Object.fromEntries(entries) as unknown as GarmentMeasurements };
+    return {
+      category: blank.category,
+      group: row.group,
+      size: row.size,
+      measurements: Object.fromEntries(entries) as unknown as GarmentMeasurements,
+    };
   });
 
-export type GeneratedGarment = { category: GarmentCategory; group: SizeGroup; size: string; measurements: GarmentMeasurements };
+export type GeneratedGarment = {
+  category: GarmentCategory;
+  group: SizeGroup;
+  size: string;
+  measurements: GarmentMeasurements;
+};
 
 function isValidRow(g: GeneratedGarment): boolean {
-  return sizeRowSchemaFor(g.category).safeParse({ size: g.size, group: g.group, measurements: g.measurements }).success;
+  return sizeRowSchemaFor(g.category).safeParse({
+    size: g.size,
+    group: g.group,
+    measurements: g.measurements,
+  }).success;
+}
+
+/** One size of a garment of the given category, anywhere in the schema's range. */
+export function garmentOf(category: GarmentCategory): fc.Arbitrary<GeneratedGarment> {
+  return fc
+    .record({
+      group: fc.constantFrom(...SIZE_GROUPS),
+      measurements: CATEGORY_INFO[category].isTote
+        ? (toteMeasurements as fc.Arbitrary<GarmentMeasurements>)
+        : apparelMeasurements(category),
+    })
+    .map(({ group, measurements }): GeneratedGarment => ({ category, group, size: "G", measurements }))
+    .filter(isValidRow);
 }
 
 /** One size of a garment: anything the size chart schema accepts, half from the whole range, half near the catalog. */
-export const garment: fc.Arbitrary<GeneratedGarment> = fc
-  .oneof(
-    fc
-      .record({ category: fc.constantFrom(...GARMENT_CATEGORIES), group: fc.constantFrom(...SIZE_GROUPS) })
-      .chain(({ category, group }) =>
-        (CATEGORY_INFO[category].isTote ? (toteMeasurements as fc.Arbitrary<GarmentMeasurements>) : apparelMeasurements(category)).map(
-          (measurements): GeneratedGarment => ({ category, group, size: "G", measurements }),
-        ),
-      ),
-    nudgedCatalogRow,
-  )
-  .filter(isValidRow);
+export const garment: fc.Arbitrary<GeneratedGarment> = fc.oneof(
+  fc.constantFrom(...GARMENT_CATEGORIES).chain(garmentOf),
+  nudgedCatalogRow.filter(isValidRow),
+);
 
 /** Any finite number, with extra weight on the ranges a garment lives in. */
 export const finite = fc.oneof(
@@ -111,7 +130,9 @@ export const finite = fc.oneof(
 );
 
 /** A placement with any finite numbers in it: valid or not, on any location. */
-export function placementOn(location: fc.Arbitrary<PrintLocation> = fc.constantFrom(...PRINT_LOCATIONS)): fc.Arbitrary<Placement> {
+export function placementOn(
+  location: fc.Arbitrary<PrintLocation> = fc.constantFrom(...PRINT_LOCATIONS),
+): fc.Arbitrary<Placement> {
   return fc.record({
     id: fc.constant("p"),
     location,
@@ -136,7 +157,8 @@ export function nonFinitePaths(value: unknown, path = "$", out: string[] = []): 
   } else if (Array.isArray(value)) {
     value.forEach((v, i) => nonFinitePaths(v, `${path}[${i}]`, out));
   } else if (value && typeof value === "object") {
-    for (const [k, v] of Object.entries(value)) if (typeof v !== "function") nonFinitePaths(v, `${path}.${k}`, out);
+    for (const [k, v] of Object.entries(value))
+      if (typeof v !== "function") nonFinitePaths(v, `${path}.${k}`, out);
   }
   return out;
 }

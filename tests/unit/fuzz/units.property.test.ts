@@ -1,5 +1,5 @@
 import fc from "fast-check";
-import { describe, expect, it } from "vitest";
+import { describe, expect, it, vi } from "vitest";
 import {
   EIGHTH_IN,
   cmToIn,
@@ -17,9 +17,13 @@ import {
   snapToStep,
 } from "@/lib/units";
 
+// Property runs share two cores with other work; give them room beyond the 5 s default.
+vi.setConfig({ testTimeout: 30_000 });
+
 const length = fc.double({ min: -1e6, max: 1e6, noNaN: true });
 const anyDouble = fc.double();
-const closeRel = (a: number, b: number, rel = 1e-12) => Math.abs(a - b) <= rel * Math.max(1, Math.abs(a), Math.abs(b));
+const closeRel = (a: number, b: number, rel = 1e-12) =>
+  Math.abs(a - b) <= rel * Math.max(1, Math.abs(a), Math.abs(b));
 
 describe("unit conversions", () => {
   it("round-trip in ↔ cm, in ↔ mm, deg ↔ rad and in ↔ screen px to within float rounding", () => {
@@ -95,12 +99,22 @@ describe("snapToStep", () => {
 describe("formatLength", () => {
   it("never throws and never prints NaN or Infinity, for any number at all", () => {
     fc.assert(
-      fc.property(anyDouble, fc.constantFrom("in" as const, "cm" as const), fc.boolean(), fc.integer({ min: 0, max: 6 }), (x, unit, decimal, digits) => {
-        for (const text of [formatLength(x, unit), formatLength(x, unit, { decimal, digits }), formatLength(x, unit, { withUnit: false })]) {
-          expect(text).not.toMatch(/NaN|Infinity|undefined/);
-          expect(text.length).toBeGreaterThan(0);
-        }
-      }),
+      fc.property(
+        anyDouble,
+        fc.constantFrom("in" as const, "cm" as const),
+        fc.boolean(),
+        fc.integer({ min: 0, max: 6 }),
+        (x, unit, decimal, digits) => {
+          for (const text of [
+            formatLength(x, unit),
+            formatLength(x, unit, { decimal, digits }),
+            formatLength(x, unit, { withUnit: false }),
+          ]) {
+            expect(text).not.toMatch(/NaN|Infinity|undefined/);
+            expect(text.length).toBeGreaterThan(0);
+          }
+        },
+      ),
       { numRuns: 1000 },
     );
   });
@@ -119,9 +133,12 @@ describe("formatLength", () => {
       fc.property(fc.double({ min: -5000, max: 5000, noNaN: true }), (x) => {
         const eighths = parseLength(formatLength(x, "in"), "in", { allowNegative: true });
         expect(eighths.ok).toBe(true);
-        if (eighths.ok) expect(eighths.inches).toBeCloseTo(Math.sign(x) * Math.round(Math.abs(x) * 8) / 8, 9);
+        if (eighths.ok)
+          expect(eighths.inches).toBeCloseTo((Math.sign(x) * Math.round(Math.abs(x) * 8)) / 8, 9);
 
-        const decimal = parseLength(formatLength(x, "in", { decimal: true, digits: 4 }), "in", { allowNegative: true });
+        const decimal = parseLength(formatLength(x, "in", { decimal: true, digits: 4 }), "in", {
+          allowNegative: true,
+        });
         expect(decimal.ok).toBe(true);
         if (decimal.ok) expect(Math.abs(decimal.inches - x)).toBeLessThanOrEqual(0.00005 + 1e-9);
 
@@ -138,33 +155,48 @@ describe("parseLength", () => {
   const typed = fc.oneof(
     fc.string({ unit: "grapheme", maxLength: 30 }),
     fc.string({ unit: fc.constantFrom(..."0123456789 ./-−,'\"″incmCMINm"), maxLength: 20 }),
-    fc.tuple(fc.nat(1e6), fc.nat(64), fc.integer({ min: 0, max: 64 }), fc.constantFrom("", " in", "cm", " mm", '"', " inches")).map(([w, n, d, u]) => `${w} ${n}/${d}${u}`),
+    fc
+      .tuple(
+        fc.nat(1e6),
+        fc.nat(64),
+        fc.integer({ min: 0, max: 64 }),
+        fc.constantFrom("", " in", "cm", " mm", '"', " inches"),
+      )
+      .map(([w, n, d, u]) => `${w} ${n}/${d}${u}`),
   );
 
   it("never throws on any text; an accepted length is a finite number, zero or more unless negatives are allowed", () => {
     fc.assert(
-      fc.property(typed, fc.constantFrom("in" as const, "cm" as const), fc.boolean(), (text, unit, allowNegative) => {
-        const r = parseLength(text, unit, { allowNegative });
-        if (r.ok) {
-          expect(Number.isFinite(r.inches)).toBe(true);
-          expect(Object.is(r.inches, -0)).toBe(false);
-          if (!allowNegative) expect(r.inches).toBeGreaterThanOrEqual(0);
-        } else {
-          expect(r.message.length).toBeGreaterThan(0);
-        }
-      }),
+      fc.property(
+        typed,
+        fc.constantFrom("in" as const, "cm" as const),
+        fc.boolean(),
+        (text, unit, allowNegative) => {
+          const r = parseLength(text, unit, { allowNegative });
+          if (r.ok) {
+            expect(Number.isFinite(r.inches)).toBe(true);
+            expect(Object.is(r.inches, -0)).toBe(false);
+            if (!allowNegative) expect(r.inches).toBeGreaterThanOrEqual(0);
+          } else {
+            expect(r.message.length).toBeGreaterThan(0);
+          }
+        },
+      ),
       { numRuns: 1000 },
     );
   });
 
   it("reads the same length in cm as 2.54 times the inches (NIST SP 811)", () => {
     fc.assert(
-      fc.property(fc.integer({ min: 0, max: 100_000 }).map((n) => n / 100), (x) => {
-        const asIn = parseLength(`${x} in`, "cm");
-        const asCm = parseLength(`${x * 2.54} cm`, "in");
-        expect(asIn.ok && asCm.ok).toBe(true);
-        if (asIn.ok && asCm.ok) expect(asCm.inches).toBeCloseTo(asIn.inches, 9);
-      }),
+      fc.property(
+        fc.integer({ min: 0, max: 100_000 }).map((n) => n / 100),
+        (x) => {
+          const asIn = parseLength(`${x} in`, "cm");
+          const asCm = parseLength(`${x * 2.54} cm`, "in");
+          expect(asIn.ok && asCm.ok).toBe(true);
+          if (asIn.ok && asCm.ok) expect(asCm.inches).toBeCloseTo(asIn.inches, 9);
+        },
+      ),
     );
   });
 });

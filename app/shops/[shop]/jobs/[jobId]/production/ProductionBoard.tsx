@@ -145,12 +145,12 @@ function GradingPanel(props: {
   const [paper, setPaper] = useState<PaperId>("letter");
   const [mirror, setMirror] = useState(false);
   const [testSize, setTestSize] = useState(proof.size);
-  const { sizes, missing } = useMemo(
+  const { sizes, missing, noRoom } = useMemo(
     () => gradingSizes({ category: proof.blank.category, chart: proof.blank.sizeChart, sizeRun: props.sizeRun, placement, designedOn: proof.size }),
     [proof, placement, props.sizeRun],
   );
   const result = useMemo(() => (sizes.length ? gradeSizeRun(sizes, k) : null), [sizes, k]);
-  const prints = printsPerSize({ placement, sizeRun: props.sizeRun.filter((r) => !missing.includes(r.size)), assignment: result?.assignment ?? null });
+  const prints = printsPerSize({ placement, sizeRun: props.sizeRun.filter((r) => !missing.includes(r.size) && !noRoom.includes(r.size)), assignment: result?.assignment ?? null });
   const frame = useMemo(() => {
     let w = 0;
     let h = 0;
@@ -181,6 +181,7 @@ function GradingPanel(props: {
         </label>
       </div>
       {missing.length ? <p className="mt-1 text-xs text-ochre-800">Not on this blank&apos;s size chart: {missing.join(", ")}.</p> : null}
+      {noRoom.length ? <p className="mt-1 text-xs text-ochre-800">No room for a {placement.label.toLowerCase()} print on size {noRoom.join(", ")}.</p> : null}
       {result ? (
         <p className="mt-2 text-sm text-ink-700" data-testid="grading-summary">
           {result.groups.map((g, i) => `T${i + 1} ${formatLength(g.widthIn, "in")} for ${g.sizes.join(", ")}`).join(" · ")}. Shortfall from ideal: {result.totalShortfall.toFixed(2)} garment-inches.
