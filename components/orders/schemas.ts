@@ -35,7 +35,14 @@ const isoDate = z
   .trim()
   .transform((v) => (v === "" ? null : v))
   .nullable()
-  .refine((v) => v === null || (/^\d{4}-\d{2}-\d{2}$/.test(v) && !Number.isNaN(Date.parse(`${v}T00:00:00Z`))), "Enter a date as YYYY-MM-DD");
+  // A real calendar day: Date.parse rolls 2027-02-31 over to March instead of refusing it, and
+  // PostgreSQL's date refuses both that and year 0000.
+  .refine((v) => v === null || (/^\d{4}-\d{2}-\d{2}$/.test(v) && !v.startsWith("0000") && isCalendarDay(v)), "Enter a date as YYYY-MM-DD");
+
+function isCalendarDay(v: string): boolean {
+  const time = Date.parse(`${v}T00:00:00Z`);
+  return !Number.isNaN(time) && new Date(time).toISOString().slice(0, 10) === v;
+}
 
 export const jobFormSchema = z
   .object({
