@@ -613,7 +613,11 @@ function packMaxRects(
   const order = pieces
     .map((p, ref) => ({ p, ref }))
     .sort((a, b) => Math.max(b.p.widthIn, b.p.heightIn) - Math.max(a.p.widthIn, a.p.heightIn));
-  for (const { p, ref } of order) packer.add(p.widthIn, p.heightIn, { ref });
+  // Our fit check allows FIT_EPS of float noise and the library compares exactly, so a side that
+  // is over the usable roll width or sheet length by no more than that is handed over at it.
+  const limits = [rollWidthIn - 2 * frame.margin, maxSheetLengthIn - 2 * frame.margin];
+  const snap = (side: number) => limits.find((l) => side > l && side <= l + FIT_EPS) ?? side;
+  for (const { p, ref } of order) packer.add(snap(p.widthIn), snap(p.heightIn), { ref });
   const sheets: SheetSpots[] = [];
   let placed = 0;
   for (const bin of packer.bins) {

@@ -14,26 +14,20 @@ vi.setConfig({ testTimeout: 30_000 });
 
 /** A size chart of one category: catalog blanks, or up to six generated rows of the same category. */
 const chart = fc.oneof(
-  fc
-    .constantFrom(...CATALOG)
-    .map((b) => ({
-      category: b.category,
-      rows: b.sizes.map((r): ChartRow => ({ size: r.size, group: r.group, measurements: r.measurements })),
+  fc.constantFrom(...CATALOG).map((b) => ({
+    category: b.category,
+    rows: b.sizes.map((r): ChartRow => ({ size: r.size, group: r.group, measurements: r.measurements })),
+  })),
+  fc.constantFrom(...GARMENT_CATEGORIES).chain((category) =>
+    fc.array(garmentOf(category), { minLength: 1, maxLength: 6 }).map((rows) => ({
+      category,
+      rows: rows.map((g, i): ChartRow => ({
+        size: `S${i}`,
+        group: g.group,
+        measurements: g.measurements,
+      })),
     })),
-  fc
-    .constantFrom(...GARMENT_CATEGORIES)
-    .chain((category) =>
-      fc
-        .array(garmentOf(category), { minLength: 1, maxLength: 6 })
-        .map((rows) => ({
-          category,
-          rows: rows.map((g, i): ChartRow => ({
-            size: `S${i}`,
-            group: g.group,
-            measurements: g.measurements,
-          })),
-        })),
-    ),
+  ),
 );
 
 /** A chart, a placement on one of its locations, a size run over some of its sizes and some it lacks. */
@@ -256,7 +250,10 @@ describe("gang sheets on wild input", () => {
       { maxLength: 5 },
     ),
     // Spares are bounded here: a spare percentage in the millions multiplies the pieces by ten thousand.
-    mostly(fc.integer({ min: 0, max: 20 }), fc.oneof(fc.double({ min: -5, max: 100 }), fc.constantFrom(Number.NaN, Infinity))),
+    mostly(
+      fc.integer({ min: 0, max: 20 }),
+      fc.oneof(fc.double({ min: -5, max: 100 }), fc.constantFrom(Number.NaN, Infinity)),
+    ),
     fc.record({
       rollWidthIn: mostly(fc.constantFrom(11, 13, 22, 24), wildNumber),
       gapIn: mostly(fc.constantFrom(0, 0.125, 0.25), wildNumber),
@@ -312,6 +309,36 @@ describe("gang sheets on wild input", () => {
       { numRuns: 300 },
     );
   });
+});
+
+describe("gang sheets at the edge of the roll", () => {
+  it.each(PACKER_ALGORITHMS)(
+    "%s places a piece that fits the usable width within float noise, as every packer does",
+    (algorithm) => {
+      // 22 in roll, 0.25 in margins: 21.5 in usable; the piece is over by 5e-10 in, inside the shared tolerance.
+      const pieces = [
+        { pieceId: "a#1", itemId: "a", widthIn: 21.5 + 5e-10, heightIn: 3 },
+        { pieceId: "b#1", itemId: "b", widthIn: 3, heightIn: 21.5 + 5e-10 },
+      ];
+      for (const allowRotation of [false, true]) {
+        const result = packGangSheet({
+          pieces,
+          rollWidthIn: 22,
+          edgeMarginIn: 0.25,
+          gapIn: 0.25,
+          allowRotation,
+          maxSheetLengthIn: 24,
+          algorithm,
+        });
+        expect(
+          result.sheets
+            .flatMap((s) => s.placements)
+            .map((p) => p.pieceId)
+            .sort(),
+        ).toEqual(["a#1", "b#1"]);
+      }
+    },
+  );
 });
 
 describe("location limits feed grading sensibly", () => {
