@@ -9,8 +9,12 @@ import { ContactMissingError, createClient, setClientArchived, updateClient } fr
 const ref = z.object({ shopSlug: z.string().min(1).max(80) });
 const idSchema = z.string().min(1).max(80);
 
+/** Postgres unique violation, whether the driver error comes bare or wrapped by drizzle (in `cause`). */
 function uniqueViolation(error: unknown): boolean {
-  return typeof error === "object" && error !== null && "code" in error && (error as { code?: string }).code === "23505";
+  for (let e: unknown = error, depth = 0; e && typeof e === "object" && depth < 4; e = (e as { cause?: unknown }).cause, depth++) {
+    if ((e as { code?: string }).code === "23505") return true;
+  }
+  return false;
 }
 
 function saveFailed(error: unknown): ActionResult<never> {

@@ -6,7 +6,7 @@ import { acceptQuote } from "@/db/queries/orders";
 export const dynamic = "force-dynamic";
 
 const schema = z.object({
-  fullName: z.string().trim().min(3, "Type your full name.").max(120).refine((v) => /\S+\s+\S+/.test(v), "Type your full name: first and last."),
+  fullName: z.string().trim().min(3, "Type your full name.").max(120).refine((v) => /\S\s+\S/.test(v), "Type your full name: first and last."),
   confirmed: z.literal(true, { message: "Tick the box to accept the quote." }),
   link: z.string().max(200).optional(),
 });

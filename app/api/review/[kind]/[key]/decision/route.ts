@@ -13,7 +13,7 @@ const schema = z.discriminatedUnion("decision", [
   z.object({
     decision: z.literal("approved"),
     letter: z.string().regex(/^[A-Z]{1,3}$/),
-    fullName: z.string().trim().min(3, "Type your full name.").max(120).refine((v) => /\S+\s+\S+/.test(v), "Type your full name: first and last."),
+    fullName: z.string().trim().min(3, "Type your full name.").max(120).refine((v) => /\S\s+\S/.test(v), "Type your full name: first and last."),
     confirmed: z.literal(true, { message: "Tick the box to confirm you checked everything." }),
   }),
   z.object({
