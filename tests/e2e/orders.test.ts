@@ -149,8 +149,11 @@ describe("orders, quotes and payments", () => {
     await ready(page);
     const table = page.getByTestId("job-table");
     const rowTexts = () => table.locator("tbody tr").allTextContents();
+    // Other test files add jobs to the same shop, so look for ours by search before filtering.
+    await page.getByLabel("Search").fill("autumn league");
     await page.getByLabel("Status").selectOption("drafting");
     await expect.poll(async () => (await rowTexts()).join("|")).toContain("Autumn league tees");
+    await page.getByLabel("Search").fill("");
     expect((await rowTexts()).every((row) => row.includes("Drafting"))).toBe(true);
     await page.getByLabel("Status").selectOption("");
     await page.getByLabel("Client").selectOption({ label: "Northgate Robotics Club" });
