@@ -7,7 +7,7 @@ export function PageHeader({ title, lead, actions }: { title: string; lead?: Rea
         <h1 className="text-2xl">{title}</h1>
         {lead ? <p className="mt-1 max-w-prose text-ink-600">{lead}</p> : null}
       </div>
-      {actions ? <div className="flex flex-wrap gap-2">{actions}</div> : null}
+      {actions ? <div className="flex flex-wrap items-center gap-2">{actions}</div> : null}
     </div>
   );
 }

@@ -67,7 +67,7 @@ export default async function JobPage({ params }: { params: Promise<{ shop: stri
         }
       />
       <div className="mb-8 grid gap-6 lg:grid-cols-[minmax(0,3fr)_minmax(0,2fr)]">
-        <section className="card space-y-4 p-5" aria-label="Job details">
+        <section className="card h-fit space-y-4 p-5" aria-label="Job details">
           <dl className="grid gap-x-6 gap-y-2 text-sm sm:grid-cols-2">
             <div>
               <dt className="text-ink-500">Client</dt>
