@@ -41,6 +41,7 @@ async function bigArtPng(): Promise<Buffer> {
 
 export async function createBenchFixture(log: (line: string) => void): Promise<BenchFixture> {
   const { analyzeArtwork } = await import("../../app/_server/artwork/analyze");
+  const { artworkColumns } = await import("../../app/_server/artwork/ingest");
   const { insertUploadedArtwork } = await import("../../db/queries/artworks");
   const { findShopBySlug } = await import("../../db/queries/access");
   const { findUserByEmail } = await import("../../db/queries/users");
@@ -64,31 +65,12 @@ export async function createBenchFixture(log: (line: string) => void): Promise<B
   const a = analysed.analysis;
   // No original in upload storage: the editor and the review page only ever draw the stored preview.
   const artworkId = await insertUploadedArtwork({
+    ...artworkColumns(a),
     shopId: shop.id,
     clientId: job.clientId,
     name: "Bench 6000 px art",
-    svg: a.sanitizedSvg,
-    inkWidthPx: a.ink.width,
-    inkHeightPx: a.ink.height,
-    isVector: a.isVector,
     fileKey: null,
     fileUrl: null,
-    mime: a.mime,
-    bytes: a.bytes,
-    widthPx: a.widthPx,
-    heightPx: a.heightPx,
-    densityPpi: a.densityPpi,
-    inkLeftPx: a.ink.left,
-    inkTopPx: a.ink.top,
-    fillRatio: a.fillRatio,
-    shape: a.shape,
-    colourCount: a.colourCount,
-    continuousTone: a.continuousTone,
-    preview: a.preview,
-    previewWidth: a.previewWidth,
-    previewHeight: a.previewHeight,
-    thumbnail: a.thumbnail,
-    notes: a.notes,
     uploadedBy: designer.id,
   });
 

@@ -3,6 +3,34 @@ import { insertUploadedArtwork } from "@/db/queries/artworks";
 import { analyzeArtwork, MAX_UPLOAD_BYTES } from "./analyze";
 import { deleteStoredFile } from "./storage";
 
+type Analysis = Extract<Awaited<ReturnType<typeof analyzeArtwork>>, { ok: true }>["analysis"];
+
+/** The stored columns an analysed upload fills, beside who owns it and where its file is. */
+export function artworkColumns(a: Analysis) {
+  return {
+    svg: a.sanitizedSvg,
+    inkWidthPx: a.ink.width,
+    inkHeightPx: a.ink.height,
+    isVector: a.isVector,
+    mime: a.mime,
+    bytes: a.bytes,
+    widthPx: a.widthPx,
+    heightPx: a.heightPx,
+    densityPpi: a.densityPpi,
+    inkLeftPx: a.ink.left,
+    inkTopPx: a.ink.top,
+    fillRatio: a.fillRatio,
+    shape: a.shape,
+    colourCount: a.colourCount,
+    continuousTone: a.continuousTone,
+    preview: a.preview,
+    previewWidth: a.previewWidth,
+    previewHeight: a.previewHeight,
+    thumbnail: a.thumbnail,
+    notes: a.notes,
+  };
+}
+
 export type IngestInput = {
   fileUrl: string;
   fileKey: string;
@@ -61,31 +89,12 @@ export async function ingestUploadedArtwork(input: IngestInput): Promise<IngestR
   const displayName = input.name.replace(/\.[a-z0-9]+$/i, "").slice(0, 120) || "Untitled art";
   try {
     const artworkId = await insertUploadedArtwork({
+      ...artworkColumns(a),
       shopId: input.shopId,
       clientId: input.clientId,
       name: displayName,
-      svg: a.sanitizedSvg,
-      inkWidthPx: a.ink.width,
-      inkHeightPx: a.ink.height,
-      isVector: a.isVector,
       fileKey: input.fileKey,
       fileUrl: input.fileUrl,
-      mime: a.mime,
-      bytes: a.bytes,
-      widthPx: a.widthPx,
-      heightPx: a.heightPx,
-      densityPpi: a.densityPpi,
-      inkLeftPx: a.ink.left,
-      inkTopPx: a.ink.top,
-      fillRatio: a.fillRatio,
-      shape: a.shape,
-      colourCount: a.colourCount,
-      continuousTone: a.continuousTone,
-      preview: a.preview,
-      previewWidth: a.previewWidth,
-      previewHeight: a.previewHeight,
-      thumbnail: a.thumbnail,
-      notes: a.notes,
       uploadedBy: input.userId,
     });
     // The raw SVG may hold scripts; only the sanitised copy in the database is ever served or printed.
