@@ -15,6 +15,7 @@ import { takeToken } from "./rate-limit";
 import { composeMail } from "./emails";
 import { sendMail } from "./mail";
 import { findContactByEmail } from "@/db/queries/contacts";
+import { parseInput } from "@/lib/input";
 
 const credentialsSchema = z.object({
   email: z.string().trim().email(),
@@ -74,7 +75,7 @@ export function getAuthOptions(): NextAuthOptions {
         name: "E-mail and password",
         credentials: { email: { label: "E-mail", type: "email" }, password: { label: "Password", type: "password" } },
         async authorize(raw) {
-          const parsed = credentialsSchema.safeParse(raw);
+          const parsed = parseInput(credentialsSchema, raw);
           if (!parsed.success) return null;
           // Attempts are counted per address in the route handler, before this runs (429 past the limit).
           const email = normalizeEmail(parsed.data.email);

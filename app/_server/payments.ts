@@ -1,5 +1,6 @@
 import "server-only";
 import Stripe from "stripe";
+import { z } from "zod";
 
 /**
  * The payments SDK client. With STRIPE_FAKE_URL (set by `npm start` / `npm test`) it talks to the
@@ -31,3 +32,38 @@ export function getStripe(): Stripe | null {
 export function webhookSecret(): string | null {
   return process.env.STRIPE_WEBHOOK_SECRET ?? null;
 }
+
+const text = z.string().max(500);
+const optionalText = text.nullish();
+const sessionObject = z.looseObject({
+  id: text,
+  payment_status: optionalText,
+  metadata: z.record(text, text).nullish(),
+  client_reference_id: optionalText,
+  payment_intent: z.union([text, z.looseObject({ id: text })]).nullish(),
+  customer_details: z.looseObject({ email: optionalText }).nullish(),
+  customer_email: optionalText,
+  amount_total: z.number().int().min(0).max(Number.MAX_SAFE_INTEGER).nullish(),
+});
+const intentObject = z.looseObject({
+  id: text,
+  metadata: z.record(text, text).nullish(),
+  receipt_email: optionalText,
+  amount: z.number().int().min(0).max(Number.MAX_SAFE_INTEGER).nullish(),
+  amount_received: z.number().int().min(0).max(Number.MAX_SAFE_INTEGER).nullish(),
+});
+const SESSION_EVENTS = ["checkout.session.completed", "checkout.session.async_payment_succeeded", "checkout.session.expired"];
+
+/**
+ * The parts of a verified event that the webhook reads, checked before anything is applied. The
+ * signature proves who sent it, not that it has the shape we expect: an event this cannot read is
+ * refused (400), never half-applied.
+ */
+export const paymentEventSchema = z
+  .looseObject({ id: z.string().min(1).max(255), type: z.string().min(1).max(255), data: z.looseObject({ object: z.looseObject({}) }) })
+  .superRefine((event, ctx) => {
+    const object = SESSION_EVENTS.includes(event.type) ? sessionObject : event.type === "payment_intent.succeeded" ? intentObject : null;
+    if (!object) return;
+    const parsed = object.safeParse(event.data.object);
+    if (!parsed.success) for (const issue of parsed.error.issues) ctx.addIssue({ ...issue, path: ["data", "object", ...issue.path] } as never);
+  });

@@ -4,6 +4,7 @@ import type { z } from "zod";
 import { resolveQuoteAccess, type QuoteAccess } from "@/app/_server/orders";
 import { takeToken } from "@/app/_server/rate-limit";
 import { clientIp } from "@/app/_server/review";
+import { parseInput, readJson } from "@/lib/input";
 
 type Granted<T> = { ok: true; body: T; access: Extract<QuoteAccess, { ok: true }>; ip: string | null };
 
@@ -17,7 +18,7 @@ export async function readQuoteRequest<S extends z.ZodType<{ link?: string }>>(
   schema: S,
   limit: { bucket: string; capacity: number; refillPerMinute: number },
 ): Promise<Granted<z.infer<S>> | { ok: false; response: NextResponse }> {
-  const parsed = schema.safeParse(await request.json().catch(() => undefined));
+  const parsed = parseInput(schema, await readJson(request));
   if (!parsed.success) return { ok: false, response: NextResponse.json({ error: parsed.error.issues[0]?.message ?? "That could not be read." }, { status: 400 }) };
   const access = await resolveQuoteAccess(quoteId, parsed.data.link);
   if (!access.ok) return { ok: false, response: NextResponse.json({ error: access.message }, { status: access.status }) };

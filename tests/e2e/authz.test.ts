@@ -12,40 +12,11 @@ import { db, getPool } from "@/db/client";
 import { approvals, payments, proofComments } from "@/db/schema";
 import { buildAuthzFixture, type AuthzFixture } from "@/tests/authz/fixtures";
 import { ACTORS, PAGE_ROWS, ROUTE_ROWS, fill, outcomeLabel, rowLabel, type Actor, type HttpOutcome, type PageRow, type RouteRow } from "@/tests/authz/matrix";
-import { BASE_URL } from "./support";
+import { BASE_URL, signInOverHttp } from "./support";
 
 let f: AuthzFixture;
 let ids: Record<string, string>;
 const cookies = {} as Record<Actor, string | null>;
-
-/** Cookie jar: name=value pairs from Set-Cookie headers. */
-function absorb(jar: Map<string, string>, response: Response) {
-  for (const line of response.headers.getSetCookie()) {
-    const [pair] = line.split(";");
-    const at = pair!.indexOf("=");
-    jar.set(pair!.slice(0, at), pair!.slice(at + 1));
-  }
-}
-const header = (jar: Map<string, string>) => [...jar].map(([k, v]) => `${k}=${v}`).join("; ");
-
-/** The credentials sign-in a browser form makes: CSRF token, then the callback; returns the session cookies. */
-async function signIn(email: string, password: string): Promise<string> {
-  const jar = new Map<string, string>();
-  const csrf = await fetch(`${BASE_URL}/api/auth/csrf`);
-  absorb(jar, csrf);
-  const { csrfToken } = (await csrf.json()) as { csrfToken: string };
-  const callback = await fetch(`${BASE_URL}/api/auth/callback/credentials`, {
-    method: "POST",
-    redirect: "manual",
-    headers: { "content-type": "application/x-www-form-urlencoded", cookie: header(jar) },
-    body: new URLSearchParams({ csrfToken, email, password, callbackUrl: `${BASE_URL}/home`, json: "true" }),
-  });
-  absorb(jar, callback);
-  const cookie = header(jar);
-  const session = (await (await fetch(`${BASE_URL}/api/auth/session`, { headers: { cookie } })).json()) as { user?: { email?: string } };
-  if (session.user?.email !== email) throw new Error(`signing in ${email} did not make a session (callback answered ${callback.status})`);
-  return cookie;
-}
 
 type Answer = { status: number; location: string | null; text: string };
 
@@ -102,7 +73,7 @@ beforeAll(async () => {
   f = await buildAuthzFixture();
   ids = { ...f.ids, utVersion: uploadSdkVersion };
   for (const actor of ACTORS) {
-    cookies[actor] = actor === "link" || actor === "anon" ? null : await signIn(f.users[actor].email, f.passwords[actor]);
+    cookies[actor] = actor === "link" || actor === "anon" ? null : await signInOverHttp(f.users[actor].email, f.passwords[actor]);
   }
 });
 

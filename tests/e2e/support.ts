@@ -37,6 +37,35 @@ export async function signIn(page: Page, email: string, password = DEMO_PASSWORD
   await page.waitForURL((url) => !url.pathname.startsWith("/sign-in"));
 }
 
+/** Cookie jar: name=value pairs from Set-Cookie headers. */
+function absorb(jar: Map<string, string>, response: Response) {
+  for (const line of response.headers.getSetCookie()) {
+    const [pair] = line.split(";");
+    const at = pair!.indexOf("=");
+    jar.set(pair!.slice(0, at), pair!.slice(at + 1));
+  }
+}
+const header = (jar: Map<string, string>) => [...jar].map(([k, v]) => `${k}=${v}`).join("; ");
+
+/** The credentials sign-in a browser form makes: CSRF token, then the callback; returns the session cookies. */
+export async function signInOverHttp(email: string, password: string): Promise<string> {
+  const jar = new Map<string, string>();
+  const csrf = await fetch(`${BASE_URL}/api/auth/csrf`);
+  absorb(jar, csrf);
+  const { csrfToken } = (await csrf.json()) as { csrfToken: string };
+  const callback = await fetch(`${BASE_URL}/api/auth/callback/credentials`, {
+    method: "POST",
+    redirect: "manual",
+    headers: { "content-type": "application/x-www-form-urlencoded", cookie: header(jar) },
+    body: new URLSearchParams({ csrfToken, email, password, callbackUrl: `${BASE_URL}/home`, json: "true" }),
+  });
+  absorb(jar, callback);
+  const cookie = header(jar);
+  const session = (await (await fetch(`${BASE_URL}/api/auth/session`, { headers: { cookie } })).json()) as { user?: { email?: string } };
+  if (session.user?.email !== email) throw new Error(`signing in ${email} did not make a session (callback answered ${callback.status})`);
+  return cookie;
+}
+
 export type CaughtMail = { id: string; to: string[]; subject: string; text: string; html: string | null; date: string };
 
 /** Waits for the newest message to an address whose subject matches, from the local mail catcher. */

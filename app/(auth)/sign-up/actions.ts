@@ -5,6 +5,7 @@ import { z } from "zod";
 import type { ActionResult } from "@/app/_server/access";
 import { takeToken } from "@/app/_server/rate-limit";
 import { createShopWithOwner, EmailTakenError } from "@/db/queries/shops";
+import { parseInput } from "@/lib/input";
 
 const signUpSchema = z.object({
   shopName: z.string().trim().min(2, "Give your shop a name of at least 2 characters.").max(80, "Keep the shop name under 80 characters."),
@@ -16,7 +17,7 @@ const signUpSchema = z.object({
 export type SignUpInput = z.input<typeof signUpSchema>;
 
 export async function signUpAction(input: SignUpInput): Promise<ActionResult<{ shopSlug: string }>> {
-  const parsed = signUpSchema.safeParse(input);
+  const parsed = parseInput(signUpSchema, input);
   if (!parsed.success) {
     return { ok: false, error: "Check the highlighted fields.", fieldErrors: z.flattenError(parsed.error).fieldErrors };
   }

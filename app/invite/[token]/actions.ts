@@ -4,6 +4,7 @@ import bcrypt from "bcryptjs";
 import { z } from "zod";
 import type { ActionResult } from "@/app/_server/access";
 import { acceptInvitation } from "@/db/queries/shops";
+import { parseInput } from "@/lib/input";
 
 const schema = z.object({
   token: z.string().min(20).max(200),
@@ -12,7 +13,7 @@ const schema = z.object({
 });
 
 export async function acceptInvitationAction(input: z.input<typeof schema>): Promise<ActionResult<{ shopSlug: string; email: string }>> {
-  const parsed = schema.safeParse(input);
+  const parsed = parseInput(schema, input);
   if (!parsed.success) return { ok: false, error: "Check the highlighted fields.", fieldErrors: z.flattenError(parsed.error).fieldErrors };
   const passwordHash = parsed.data.password ? await bcrypt.hash(parsed.data.password, 10) : undefined;
   const result = await acceptInvitation({ token: parsed.data.token, name: parsed.data.name, passwordHash });

@@ -3,6 +3,7 @@ import { z } from "zod";
 import { getActor } from "@/app/_server/access";
 import { getCalibration, saveCalibration } from "@/db/queries/proofs";
 import { MAX_PX_PER_INCH, MIN_PX_PER_INCH } from "@/lib/editor/view";
+import { parseInput } from "@/lib/input";
 
 export const dynamic = "force-dynamic";
 
@@ -20,7 +21,7 @@ const putSchema = z.object({
 export async function GET(request: NextRequest) {
   const actor = await getActor();
   if (!actor) return NextResponse.json({ error: "Sign in to continue." }, { status: 401 });
-  const parsed = deviceKey.safeParse(request.nextUrl.searchParams.get("device"));
+  const parsed = parseInput(deviceKey, request.nextUrl.searchParams.get("device"));
   if (!parsed.success) return NextResponse.json({ error: parsed.error.issues[0]!.message }, { status: 400 });
   const row = await getCalibration({ userId: actor.id, deviceKey: parsed.data });
   return NextResponse.json({ pxPerInch: row?.pxPerInch ?? null, updatedAt: row?.updatedAt ?? null });
@@ -30,7 +31,7 @@ export async function PUT(request: NextRequest) {
   const actor = await getActor();
   if (!actor) return NextResponse.json({ error: "Sign in to continue." }, { status: 401 });
   const body = await request.json().catch(() => undefined);
-  const parsed = putSchema.safeParse(body);
+  const parsed = parseInput(putSchema, body);
   if (!parsed.success) return NextResponse.json({ error: parsed.error.issues[0]?.message ?? "Invalid calibration." }, { status: 400 });
   await saveCalibration({ userId: actor.id, ...parsed.data });
   return NextResponse.json({ pxPerInch: parsed.data.pxPerInch });

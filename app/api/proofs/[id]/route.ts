@@ -4,6 +4,7 @@ import { getActor } from "@/app/_server/access";
 import { findProofShop, getProofDocument } from "@/db/queries/proofs";
 import { can } from "@/lib/access";
 import { proofToJson } from "@/lib/editor/proof-view";
+import { parseInput } from "@/lib/input";
 
 export const dynamic = "force-dynamic";
 
@@ -15,7 +16,7 @@ const notFound = () => NextResponse.json({ error: "Not found." }, { status: 404 
  * for the shop's team. Clients see only what was sent to them, through the review routes.
  */
 export async function GET(_request: Request, { params }: { params: Promise<{ id: string }> }) {
-  const parsed = idSchema.safeParse((await params).id);
+  const parsed = parseInput(idSchema, (await params).id);
   if (!parsed.success) return notFound();
   const actor = await getActor();
   if (!actor) return NextResponse.json({ error: "Sign in to continue." }, { status: 401 });

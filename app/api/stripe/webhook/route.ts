@@ -1,7 +1,8 @@
 import { NextResponse } from "next/server";
 import type Stripe from "stripe";
 import { handlePaymentEvent } from "@/app/_server/orders";
-import { getStripe, webhookSecret } from "@/app/_server/payments";
+import { getStripe, paymentEventSchema, webhookSecret } from "@/app/_server/payments";
+import { parseInput } from "@/lib/input";
 
 export const dynamic = "force-dynamic";
 
@@ -23,6 +24,8 @@ export async function POST(request: Request) {
   } catch {
     return NextResponse.json({ error: "The signature does not match." }, { status: 400 });
   }
+  // Signed, yet not an event this can read: refused for good, so it is not retried forever.
+  if (!parseInput(paymentEventSchema, event).success) return NextResponse.json({ error: "The event could not be read." }, { status: 400 });
   try {
     const result = await handlePaymentEvent(event);
     return NextResponse.json({ received: true, ...result });

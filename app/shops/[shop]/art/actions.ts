@@ -5,6 +5,7 @@ import { z } from "zod";
 import { deniedAction, resolveShopAccess, type ActionResult } from "@/app/_server/access";
 import { replaceArtwork } from "@/db/queries/artworks";
 import { listShopArtworks } from "@/db/queries/proofs";
+import { parseInput } from "@/lib/input";
 
 const replaceSchema = z.object({
   shopSlug: z.string().min(1).max(80),
@@ -14,7 +15,7 @@ const replaceSchema = z.object({
 
 /** Puts a new version of art in place of the old one wherever it is placed. */
 export async function replaceArtworkAction(input: z.input<typeof replaceSchema>): Promise<ActionResult<{ placements: number; proofs: number }>> {
-  const parsed = replaceSchema.safeParse(input);
+  const parsed = parseInput(replaceSchema, input);
   if (!parsed.success) return { ok: false, error: "Pick the art to replace and its new version." };
   const access = await resolveShopAccess(parsed.data.shopSlug, "proofs.edit");
   if (access.kind !== "ok") return deniedAction(access);

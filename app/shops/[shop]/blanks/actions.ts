@@ -7,6 +7,7 @@ import { deniedAction, resolveShopAccess, type ActionResult } from "@/app/_serve
 import { blankFormSchemaFor, fieldErrorsOf } from "@/components/blanks/blank-form";
 import { duplicateBlank, findBlank, updateBlank } from "@/db/queries/blanks";
 import type { BlankSizeRow } from "@/db/schema";
+import { parseInput } from "@/lib/input";
 
 const NOT_YOURS = "This blank is not yours to edit. Library blanks are shared; make an editable copy first.";
 
@@ -17,7 +18,7 @@ const target = z.object({
 
 /** Copies a visible blank (usually a library one) into the shop, then opens the copy. */
 export async function duplicateBlankAction(input: z.input<typeof target>): Promise<ActionResult> {
-  const parsed = target.safeParse(input);
+  const parsed = parseInput(target, input);
   if (!parsed.success) return { ok: false, error: "That blank could not be found.", status: 400 };
   const access = await resolveShopAccess(parsed.data.shopSlug, "blanks.edit");
   if (access.kind !== "ok") return deniedAction(access);
@@ -35,7 +36,7 @@ const updateInput = target.extend({ values: z.unknown() });
 export async function updateBlankAction(
   input: z.input<typeof updateInput>,
 ): Promise<ActionResult<{ updatedAt: string }>> {
-  const parsed = updateInput.safeParse(input);
+  const parsed = parseInput(updateInput, input);
   if (!parsed.success) return { ok: false, error: "That blank could not be found.", status: 400 };
   const access = await resolveShopAccess(parsed.data.shopSlug, "blanks.edit");
   if (access.kind !== "ok") return deniedAction(access);
@@ -44,7 +45,7 @@ export async function updateBlankAction(
   const blank = await findBlank({ shopId: shop.id, blankId: parsed.data.blankId });
   if (!blank || blank.shopId !== shop.id) return { ok: false, error: NOT_YOURS, status: 404 };
 
-  const values = blankFormSchemaFor(blank.category).safeParse(parsed.data.values);
+  const values = parseInput(blankFormSchemaFor(blank.category), parsed.data.values);
   if (!values.success) {
     return {
       ok: false,

@@ -5,6 +5,7 @@ import { z } from "zod";
 import { deniedAction, resolveShopAccess, type ActionResult } from "@/app/_server/access";
 import { clientFormSchema, fieldErrorsByPath } from "@/components/orders/schemas";
 import { ContactMissingError, createClient, setClientArchived, updateClient } from "@/db/queries/clients";
+import { parseInput } from "@/lib/input";
 
 const ref = z.object({ shopSlug: z.string().min(1).max(80) });
 const idSchema = z.string().min(1).max(80);
@@ -24,8 +25,8 @@ function saveFailed(error: unknown): ActionResult<never> {
 }
 
 export async function createClientAction(input: unknown): Promise<ActionResult<{ id: string }>> {
-  const head = ref.safeParse(input);
-  const parsed = clientFormSchema.safeParse(input);
+  const head = parseInput(ref, input);
+  const parsed = parseInput(clientFormSchema, input);
   if (!head.success) return { ok: false, error: "The request was not complete." };
   if (!parsed.success) return { ok: false, error: "Check the highlighted fields.", fieldErrors: fieldErrorsByPath(parsed.error) };
   const access = await resolveShopAccess(head.data.shopSlug, "clients.edit");
@@ -40,8 +41,8 @@ export async function createClientAction(input: unknown): Promise<ActionResult<{
 }
 
 export async function updateClientAction(input: unknown): Promise<ActionResult<{ id: string }>> {
-  const head = ref.extend({ clientId: idSchema }).safeParse(input);
-  const parsed = clientFormSchema.safeParse(input);
+  const head = parseInput(ref.extend({ clientId: idSchema }), input);
+  const parsed = parseInput(clientFormSchema, input);
   if (!head.success) return { ok: false, error: "The request was not complete." };
   if (!parsed.success) return { ok: false, error: "Check the highlighted fields.", fieldErrors: fieldErrorsByPath(parsed.error) };
   const access = await resolveShopAccess(head.data.shopSlug, "clients.edit");
@@ -57,7 +58,7 @@ export async function updateClientAction(input: unknown): Promise<ActionResult<{
 }
 
 export async function setClientArchivedAction(input: unknown): Promise<ActionResult<{ archived: boolean }>> {
-  const parsed = ref.extend({ clientId: idSchema, archived: z.boolean() }).safeParse(input);
+  const parsed = parseInput(ref.extend({ clientId: idSchema, archived: z.boolean() }), input);
   if (!parsed.success) return { ok: false, error: "The request was not complete." };
   const access = await resolveShopAccess(parsed.data.shopSlug, "clients.edit");
   if (access.kind !== "ok") return deniedAction(access);

@@ -14,6 +14,7 @@ import { sendQuote } from "@/db/queries/orders";
 import { can } from "@/lib/access";
 import { formatCents } from "@/lib/pricing";
 import { quoteJob } from "@/lib/quotes";
+import { parseInput } from "@/lib/input";
 
 const ref = z.object({ shopSlug: z.string().min(1).max(80) });
 const idSchema = z.string().min(1).max(80);
@@ -26,9 +27,9 @@ async function checkReferences(shopId: string, input: { clientId: string; blankI
 }
 
 export async function saveJobAction(input: unknown): Promise<ActionResult<{ id: string }>> {
-  const head = ref.extend({ jobId: idSchema.optional() }).safeParse(input);
+  const head = parseInput(ref.extend({ jobId: idSchema.optional() }), input);
   if (!head.success) return { ok: false, error: "The request was not complete." };
-  const parsed = jobFormSchema.safeParse(input);
+  const parsed = parseInput(jobFormSchema, input);
   if (!parsed.success) return { ok: false, error: "Check the highlighted fields.", fieldErrors: fieldErrorsByPath(parsed.error) };
   const access = await resolveShopAccess(head.data.shopSlug, "jobs.edit");
   if (access.kind !== "ok") return deniedAction(access);
@@ -45,7 +46,7 @@ export async function saveJobAction(input: unknown): Promise<ActionResult<{ id: 
 }
 
 export async function setJobStatusAction(input: unknown): Promise<ActionResult<{ status: string }>> {
-  const parsed = ref.extend({ jobId: idSchema, status: jobStatusSchema }).safeParse(input);
+  const parsed = parseInput(ref.extend({ jobId: idSchema, status: jobStatusSchema }), input);
   if (!parsed.success) return { ok: false, error: parsed.error.issues[0]?.message ?? "The request was not complete." };
   const access = await resolveShopAccess(parsed.data.shopSlug, "jobs.view");
   if (access.kind !== "ok") return deniedAction(access);
@@ -68,7 +69,7 @@ export async function setJobStatusAction(input: unknown): Promise<ActionResult<{
 
 /** Freezes the job's current price as a quote and e-mails it to the client's contacts. */
 export async function sendQuoteAction(input: unknown): Promise<ActionResult<{ quoteId: string; number: number; emailed: number; recipients: number }>> {
-  const parsed = ref.extend({ jobId: idSchema, message: z.string().trim().max(2000).optional() }).safeParse(input);
+  const parsed = parseInput(ref.extend({ jobId: idSchema, message: z.string().trim().max(2000).optional() }), input);
   if (!parsed.success) return { ok: false, error: "The request was not complete." };
   const access = await resolveShopAccess(parsed.data.shopSlug, "jobs.edit");
   if (access.kind !== "ok") return deniedAction(access);

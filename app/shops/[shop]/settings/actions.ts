@@ -8,6 +8,7 @@ import { composeMail } from "@/app/_server/emails";
 import { sendMailSafely } from "@/app/_server/mail";
 import { createInvitation } from "@/db/queries/shops";
 import { ROLE_LABELS, SHOP_ROLES } from "@/lib/access";
+import { parseInput } from "@/lib/input";
 
 const inviteSchema = z.object({
   shopSlug: z.string().min(1).max(80),
@@ -16,7 +17,7 @@ const inviteSchema = z.object({
 });
 
 export async function inviteMemberAction(input: z.input<typeof inviteSchema>): Promise<ActionResult<{ emailed: boolean; link: string }>> {
-  const parsed = inviteSchema.safeParse(input);
+  const parsed = parseInput(inviteSchema, input);
   if (!parsed.success) {
     return { ok: false, error: "Check the highlighted fields.", fieldErrors: z.flattenError(parsed.error).fieldErrors };
   }

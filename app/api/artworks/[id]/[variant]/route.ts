@@ -3,6 +3,7 @@ import { z } from "zod";
 import { getActor } from "@/app/_server/access";
 import { artworkShop, getArtworkImage } from "@/db/queries/artworks";
 import { can } from "@/lib/access";
+import { parseInput } from "@/lib/input";
 
 export const dynamic = "force-dynamic";
 
@@ -11,7 +12,7 @@ const notFound = () => NextResponse.json({ error: "Not found." }, { status: 404 
 
 /** The drawing preview, the thumbnail, or the sanitised SVG of one artwork, for people who may see it. */
 export async function GET(_request: Request, { params }: { params: Promise<{ id: string; variant: string }> }) {
-  const parsed = paramsSchema.safeParse(await params);
+  const parsed = parseInput(paramsSchema, await params);
   if (!parsed.success) return notFound();
   const actor = await getActor();
   if (!actor) return NextResponse.json({ error: "Sign in to continue." }, { status: 401 });

@@ -2,6 +2,7 @@
 
 import { resolveShopAccess } from "@/app/_server/access";
 import { DB_DOWN_MESSAGE, invalidSave, saveProofSchema, saveProofWithAccess, type SaveProofInput, type SaveProofResponse } from "@/app/_server/proof-save";
+import { parseInput } from "@/lib/input";
 
 export type { SaveProofResponse } from "@/app/_server/proof-save";
 
@@ -9,7 +10,7 @@ const DENIED_STATUS = { anonymous: 401, forbidden: 403, "not-found": 404 } as co
 
 /** Autosave: the whole document, guarded by the version the editor last saw. */
 export async function saveProofAction(input: SaveProofInput): Promise<SaveProofResponse> {
-  const parsed = saveProofSchema.safeParse(input);
+  const parsed = parseInput(saveProofSchema, input);
   if (!parsed.success) return invalidSave(parsed.error);
   let access;
   try {

@@ -6,6 +6,7 @@ import { appUrl } from "@/app/_server/config";
 import { notifyProofSent } from "@/app/_server/notify";
 import { findProofShop, getProofDocument } from "@/db/queries/proofs";
 import { createShareLink, listShareLinks, revokeShareLink, sendRevision } from "@/db/queries/review";
+import { parseInput } from "@/lib/input";
 
 const shareSchema = z.object({
   shopSlug: z.string().min(1).max(80),
@@ -21,7 +22,7 @@ export type ShareLinkView = { id: string; permission: "view" | "comment" | "appr
 
 /** Freezes the current state as the revision the client sees, makes a link, and e-mails it when asked. */
 export async function shareProofAction(input: z.input<typeof shareSchema>): Promise<ActionResult<{ url: string; letter: string; emailed: boolean | null }>> {
-  const parsed = shareSchema.safeParse(input);
+  const parsed = parseInput(shareSchema, input);
   if (!parsed.success) return { ok: false, error: parsed.error.issues[0]?.message ?? "Check the form.", fieldErrors: z.flattenError(parsed.error).fieldErrors };
   const access = await resolveShopAccess(parsed.data.shopSlug, "proofs.edit");
   if (access.kind !== "ok") return deniedAction(access);
@@ -51,7 +52,7 @@ export async function shareProofAction(input: z.input<typeof shareSchema>): Prom
 }
 
 export async function listShareLinksAction(input: { shopSlug: string; proofId: string }): Promise<ActionResult<ShareLinkView[]>> {
-  const parsed = z.object({ shopSlug: z.string().min(1).max(80), proofId: z.string().min(1).max(80) }).safeParse(input);
+  const parsed = parseInput(z.object({ shopSlug: z.string().min(1).max(80), proofId: z.string().min(1).max(80) }), input);
   if (!parsed.success) return { ok: false, error: "Unknown proof." };
   const access = await resolveShopAccess(parsed.data.shopSlug, "jobs.view");
   if (access.kind !== "ok") return deniedAction(access);
@@ -73,7 +74,7 @@ export async function listShareLinksAction(input: { shopSlug: string; proofId: s
 }
 
 export async function revokeShareLinkAction(input: { shopSlug: string; linkId: string }): Promise<ActionResult<null>> {
-  const parsed = z.object({ shopSlug: z.string().min(1).max(80), linkId: z.string().min(1).max(80) }).safeParse(input);
+  const parsed = parseInput(z.object({ shopSlug: z.string().min(1).max(80), linkId: z.string().min(1).max(80) }), input);
   if (!parsed.success) return { ok: false, error: "Unknown link." };
   const access = await resolveShopAccess(parsed.data.shopSlug, "proofs.edit");
   if (access.kind !== "ok") return deniedAction(access);

@@ -4,6 +4,7 @@ import { notifyClientComment, notifyShopReply } from "@/app/_server/notify";
 import { takeToken } from "@/app/_server/rate-limit";
 import { clientIp, resolveReview, reviewState } from "@/app/_server/review";
 import { addComment, latestRevision, listShareLinks, setCommentResolved } from "@/db/queries/review";
+import { parseInput, readJson } from "@/lib/input";
 
 export const dynamic = "force-dynamic";
 
@@ -42,7 +43,7 @@ export async function POST(request: Request, { params }: Params) {
   const limitKey = reviewer.kind === "link" ? `comment:${reviewer.link.id}:${clientIp(request) ?? "?"}` : `comment:${reviewer.actor.id}`;
   if (!takeToken(limitKey, { capacity: 12, refillPerMinute: 6 })) return error(429, "That is a lot of notes at once. Wait a minute and try again.");
   const raw = await request.json().catch(() => undefined);
-  const parsed = postSchema.safeParse(raw);
+  const parsed = parseInput(postSchema, raw);
   if (!parsed.success) return error(400, parsed.error.issues[0]?.message ?? "That note could not be read.");
   const input = parsed.data;
   const revision = await latestRevision({ proofId: reviewer.proofId });
@@ -75,7 +76,7 @@ export async function PATCH(request: Request, { params }: Params) {
   const access = await resolveReview(kind, key);
   if (!access.ok) return error(access.status, access.message);
   if (access.reviewer.kind !== "shop" || !access.reviewer.canComment) return error(403, "Only the shop team can resolve notes.");
-  const parsed = patchSchema.safeParse(await request.json().catch(() => undefined));
+  const parsed = parseInput(patchSchema, await readJson(request));
   if (!parsed.success) return error(400, "Say which note to resolve or reopen.");
   const row = await setCommentResolved({ proofId: access.reviewer.proofId, commentId: parsed.data.commentId, resolved: parsed.data.resolved, by: access.reviewer.actor.id });
   if (!row) return error(404, "That note is not on this proof.");

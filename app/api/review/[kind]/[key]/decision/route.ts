@@ -5,6 +5,7 @@ import { takeToken } from "@/app/_server/rate-limit";
 import { clientIp, resolveReview } from "@/app/_server/review";
 import { recordDecision } from "@/db/queries/review";
 import { APPROVAL_STATEMENT } from "@/lib/review/approval";
+import { parseInput, readJson } from "@/lib/input";
 
 export const dynamic = "force-dynamic";
 
@@ -34,7 +35,7 @@ export async function POST(request: Request, { params }: { params: Promise<{ kin
   if (!takeToken(`decision:${reviewer.kind === "link" ? reviewer.link.id : reviewer.actor.id}:${ip ?? "?"}`, { capacity: 6, refillPerMinute: 2 })) {
     return NextResponse.json({ error: "Too many tries. Wait a minute and try again." }, { status: 429 });
   }
-  const parsed = schema.safeParse(await request.json().catch(() => undefined));
+  const parsed = parseInput(schema, await readJson(request));
   if (!parsed.success) return NextResponse.json({ error: parsed.error.issues[0]?.message ?? "That could not be read." }, { status: 400 });
   const input = parsed.data;
   const result = await recordDecision({

@@ -7,6 +7,7 @@ import { enqueueExport } from "@/app/_server/queue";
 import { findJob } from "@/db/queries/jobs";
 import { createExport, findExport, markExport, saveGrading, saveJobSizes } from "@/db/queries/production";
 import { PAPER_SIZES, type PaperId } from "@/lib/production/tiling";
+import { parseInput } from "@/lib/input";
 
 const slug = z.string().min(1).max(80);
 const id = z.string().min(1).max(80);
@@ -21,7 +22,7 @@ const sizesSchema = z.object({
 });
 
 export async function saveSizeRunAction(input: z.input<typeof sizesSchema>): Promise<ActionResult<null>> {
-  const parsed = sizesSchema.safeParse(input);
+  const parsed = parseInput(sizesSchema, input);
   if (!parsed.success) return { ok: false, error: parsed.error.issues[0]?.message ?? "Check the quantities." };
   const access = await resolveShopAccess(parsed.data.shopSlug, "jobs.edit");
   if (access.kind !== "ok") return deniedAction(access);
@@ -41,7 +42,7 @@ const gradingSchema = z.object({
 });
 
 export async function saveGradingAction(input: z.input<typeof gradingSchema>): Promise<ActionResult<null>> {
-  const parsed = gradingSchema.safeParse(input);
+  const parsed = parseInput(gradingSchema, input);
   if (!parsed.success) return { ok: false, error: "That grading could not be read." };
   const access = await resolveShopAccess(parsed.data.shopSlug, "proofs.edit");
   if (access.kind !== "ok") return deniedAction(access);
@@ -78,7 +79,7 @@ const exportSchema = z.discriminatedUnion("kind", [
 
 /** Queues a heavy export for the worker; the page follows its progress. */
 export async function requestExportAction(input: z.input<typeof exportSchema>): Promise<ActionResult<{ exportId: string }>> {
-  const parsed = exportSchema.safeParse(input);
+  const parsed = parseInput(exportSchema, input);
   if (!parsed.success) return { ok: false, error: parsed.error.issues[0]?.message ?? "Check the export settings." };
   const access = await resolveShopAccess(parsed.data.shopSlug, "production.view");
   if (access.kind !== "ok") return deniedAction(access);
@@ -96,7 +97,7 @@ export async function requestExportAction(input: z.input<typeof exportSchema>): 
 }
 
 export async function retryExportAction(input: { shopSlug: string; exportId: string }): Promise<ActionResult<null>> {
-  const parsed = z.object({ shopSlug: slug, exportId: id }).safeParse(input);
+  const parsed = parseInput(z.object({ shopSlug: slug, exportId: id }), input);
   if (!parsed.success) return { ok: false, error: "Unknown export." };
   const access = await resolveShopAccess(parsed.data.shopSlug, "production.view");
   if (access.kind !== "ok") return deniedAction(access);
