@@ -9,13 +9,14 @@ export const MAX_INPUT_DEPTH = 64;
 export const MAX_INPUT_NODES = 200_000;
 
 export const NUL_MESSAGE = "Text cannot contain the NUL character (U+0000).";
+export const BROKEN_TEXT_MESSAGE = "Text contains a broken character (half of a surrogate pair).";
 export const UNREADABLE_MESSAGE = "That could not be read.";
 
 type Finding = { path: PropertyKey[]; message: string } | null;
 
 /**
- * The first thing in a value that no schema should have to see: a NUL character in a string or a
- * key (PostgreSQL text refuses it), nesting deeper than MAX_INPUT_DEPTH, or more than
+ * The first thing in a value that no schema should have to see: a NUL character or a lone
+ * surrogate in a string or a key (PostgreSQL text and json refuse them), nesting deeper than MAX_INPUT_DEPTH, or more than
  * MAX_INPUT_NODES values. Walks without recursion, so hostile depth cannot exhaust the stack.
  */
 export function inputProblem(value: unknown): Finding {
@@ -27,6 +28,8 @@ export function inputProblem(value: unknown): Finding {
     if (nodes > MAX_INPUT_NODES) return { path: [], message: UNREADABLE_MESSAGE };
     if (typeof at === "string") {
       if (at.includes("\u0000")) return { path, message: NUL_MESSAGE };
+      // PostgreSQL's json refuses a lone surrogate; it is no character anyone typed.
+      if (!at.isWellFormed()) return { path, message: BROKEN_TEXT_MESSAGE };
       continue;
     }
     if (!at || typeof at !== "object") continue;
@@ -38,7 +41,7 @@ export function inputProblem(value: unknown): Finding {
       : at instanceof FormData ? [...at.entries()].map(([k, v]) => [k, v] as [PropertyKey, unknown])
       : Object.entries(at);
     for (const [key, child] of entries) {
-      if (typeof key === "string" && key.includes("\u0000")) return { path, message: NUL_MESSAGE };
+      if (typeof key === "string" && (key.includes("\u0000") || !key.isWellFormed())) return { path, message: key.includes("\u0000") ? NUL_MESSAGE : BROKEN_TEXT_MESSAGE };
       stack.push({ value: child, path: [...path, key] });
     }
   }

@@ -6,7 +6,7 @@
  */
 import fc from "fast-check";
 
-const NASTY_STRINGS = [
+export const NASTY_STRINGS = [
   "",
   " ",
   "\u0000",
@@ -60,7 +60,7 @@ const NASTY_STRINGS = [
   "a".repeat(2001),
 ];
 
-const NASTY_NUMBERS = [
+export const NASTY_NUMBERS = [
   0, -0, 1, -1, 0.5, -0.5, 1e-300, 0.1 + 0.2, 7, 12.000001, 60.0001, -60.0001, 99.99, 100, 101, 255, 256, 1000, 1001, 10_000,
   2 ** 31 - 1, 2 ** 31, -(2 ** 31), -(2 ** 31) - 1, 2 ** 32, 2 ** 53 - 1, 2 ** 53, 2 ** 53 + 2, -(2 ** 53), 8.64e15, 8.64e15 + 1,
   1e21, 1e308, -1e308, Number.MAX_VALUE, Number.MIN_VALUE, -Number.MAX_VALUE,
@@ -268,4 +268,25 @@ export function leaks(text: string): string | null {
   ];
   for (const [pattern, what] of patterns) if (pattern.test(text)) return `${what}: ${text.match(pattern)![0].slice(0, 120)}`;
   return null;
+}
+
+/**
+ * Every leaf of a valid input set, in turn, to every edge value of another type or range: numbers
+ * to the number edges, strings to the string edges, and any node to null, [] and {}. Deterministic;
+ * at most `limit` cases, spread evenly over the list.
+ */
+export function boundaryCases(base: unknown, limit = 600): unknown[] {
+  const cases: unknown[] = [];
+  for (const at of pathsOf(base)) {
+    let node: unknown = base;
+    for (const step of at) node = (node as Record<string | number, unknown>)[step];
+    const values: unknown[] = [null, [], {}];
+    if (typeof node === "number") values.push(...NASTY_NUMBERS, "1", true);
+    else if (typeof node === "string") values.push(...NASTY_STRINGS, 0, 2 ** 31);
+    else if (typeof node === "boolean") values.push("true", 1, 0);
+    for (const value of values) cases.push(apply(clone(base), at, { kind: "replace", value }));
+  }
+  if (cases.length <= limit) return cases;
+  const step = cases.length / limit;
+  return Array.from({ length: limit }, (_, i) => cases[Math.floor(i * step)]);
 }

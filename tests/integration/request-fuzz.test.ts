@@ -24,7 +24,7 @@ import { createInvitation } from "@/db/queries/shops";
 import { DEFAULT_PRICE_MATRIX } from "@/lib/pricing";
 import { readAppSurface } from "@/tests/authz/app-surface";
 import { buildAuthzFixture, LIBRARY_TEE, type AuthzFixture, type FixtureUser } from "@/tests/authz/fixtures";
-import { actionInput, hostileSegment, leaks, rawBody, type RawBody } from "@/tests/fuzz/hostile";
+import { actionInput, boundaryCases, hostileSegment, leaks, rawBody, type RawBody } from "@/tests/fuzz/hostile";
 
 const session = vi.hoisted(() => ({ user: null as null | { id: string; email: string; name: string | null } }));
 vi.mock("@/app/_server/auth", async (importOriginal) => ({
@@ -152,6 +152,14 @@ async function actionBases(): Promise<Record<string, unknown>> {
   };
 }
 
+/** An error's name, message (without drizzle's echo of the query) and cause, with where it came from. */
+function describeError(error: unknown): string {
+  if (!(error instanceof Error)) return show(error);
+  const cause = error.cause instanceof Error ? ` (cause: ${error.cause.message})` : "";
+  const frame = error.stack?.split("\n").find((l) => l.includes("/work/") && !l.includes("node_modules"))?.trim() ?? "";
+  return `${error.name}: ${error.message.split("\nparams:")[0]!.slice(0, 200)}${cause} ${frame}`;
+}
+
 type Result = { ok?: unknown; error?: unknown; message?: unknown };
 
 /** One server action call: it must answer { ok } (or end in Next's redirect/not-found signal). */
@@ -164,7 +172,7 @@ async function callAction(target: string, fn: (input: unknown) => Promise<unknow
     const digest = (error as { digest?: unknown } | null)?.digest;
     if (typeof digest === "string" && digest.startsWith("NEXT_REDIRECT")) return void accept(target.replace(/ as \w+$/, ""));
     if (typeof digest === "string" && digest.startsWith("NEXT_HTTP_ERROR_FALLBACK")) return;
-    problems.push({ target, input: show(input), what: `threw ${error instanceof Error ? `${error.name}: ${error.message} ${error.stack?.split("\n").slice(1, 5).join(" ")}` : show(error)}` });
+    problems.push({ target, input: show(input), what: `threw ${describeError(error)}` });
     return;
   }
   const r = result as Result | null;
@@ -220,7 +228,7 @@ async function callRoute(target: string, handler: Handler, url: string, method: 
   } catch (error) {
     const digest = (error as { digest?: unknown } | null)?.digest;
     if (typeof digest === "string" && digest.startsWith("NEXT_HTTP_ERROR_FALLBACK;404")) return;
-    problems.push({ target, input, what: `threw ${error instanceof Error ? `${error.name}: ${error.message}` : show(error)}` });
+    problems.push({ target, input, what: `threw ${describeError(error)}` });
     return;
   }
   const text = await response.text();
@@ -368,13 +376,14 @@ describe(`request fuzzing, direct calls (seed ${SEED})`, () => {
       const fn = ((await import(/* @vite-ignore */ path.join(repoRoot, file))) as Record<string, (input: unknown) => Promise<unknown>>)[name]!;
       const runs = name === "signUpAction" || name === "acceptInvitationAction" ? Math.round(PER_ACTION / 3) : PER_ACTION;
       // The valid input itself first, as its owner: it must get through, so the deep path runs.
-      const cases: Array<[Caller, unknown]> = [["other", bases[name]], ...fc.sample(fc.tuple(caller, actionInput(bases[name])), { numRuns: runs, seed: SEED + n })];
+      const edges = name === "signUpAction" || name === "acceptInvitationAction" ? [] : boundaryCases(bases[name], Math.round(200 * SCALE));
+      const cases: Array<[Caller, unknown]> = [["other", bases[name]], ...edges.map((e): [Caller, unknown] => ["other", e]), ...fc.sample(fc.tuple(caller, actionInput(bases[name])), { numRuns: Math.max(1, runs - edges.length), seed: SEED + n })];
       const started = performance.now();
       for (const [who, input] of cases) {
         signInAs(who);
         await callAction(`action ${name} as ${who}`, fn, input);
       }
-      console.log(`[fuzz] ${name}: ${runs} inputs in ${Math.round(performance.now() - started)} ms`);
+      console.log(`[fuzz] ${name}: ${cases.length} inputs in ${Math.round(performance.now() - started)} ms`);
     }
     session.user = null;
     expect(report("action")).toEqual([]);
@@ -393,7 +402,9 @@ describe(`request fuzzing, direct calls (seed ${SEED})`, () => {
     for (const [n, route] of bodyRoutes().entries()) {
       const handler = (await load(route.file))[route.method]!;
       const valid: RawBody = { text: JSON.stringify(route.base()), contentType: "application/json", label: "valid" };
-      const cases: Array<[Caller, RawBody]> = [["other", valid], ...fc.sample(fc.tuple(caller, rawBody(route.base())), { numRuns: PER_ROUTE, seed: SEED + 100 + n })];
+      const edges = boundaryCases(route.base(), Math.round(120 * SCALE)).map((e): [Caller, RawBody] => ["other", { text: JSON.stringify(e ?? null), contentType: "application/json", label: "edge" }]);
+      const random = fc.sample(fc.tuple(caller, rawBody(route.base())), { numRuns: PER_ROUTE - edges.length, seed: SEED + 100 + n });
+      const cases: Array<[Caller, RawBody]> = [["other", valid], ...edges, ...random];
       const started = performance.now();
       for (const [who, body] of cases) {
         signInAs(who);
@@ -402,7 +413,7 @@ describe(`request fuzzing, direct calls (seed ${SEED})`, () => {
         if (route.signed) headers["stripe-signature"] = stripe.webhooks.generateTestHeaderString({ payload: body.text, secret });
         await callRoute(`route ${route.label} as ${who}`, handler, route.url(), route.method, route.params(), body, headers);
       }
-      console.log(`[fuzz] ${route.label}: ${PER_ROUTE} bodies in ${Math.round(performance.now() - started)} ms`);
+      console.log(`[fuzz] ${route.label}: ${cases.length} bodies in ${Math.round(performance.now() - started)} ms`);
     }
     session.user = null;
     expect(report("route")).toEqual([]);

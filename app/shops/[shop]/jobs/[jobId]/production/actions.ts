@@ -38,7 +38,12 @@ const gradingSchema = z.object({
   placementId: id,
   transferCount: z.number().int().min(1).max(4),
   assignment: z.record(z.string().max(12), z.number().positive().max(60)),
-  totalShortfall: z.number().min(0),
+  // Inches short across the run, kept to a thousandth: a float column cannot hold 1e-320 or 1e308.
+  totalShortfall: z
+    .number()
+    .min(0)
+    .max(1e9)
+    .transform((v) => Math.round(v * 1000) / 1000),
 });
 
 export async function saveGradingAction(input: z.input<typeof gradingSchema>): Promise<ActionResult<null>> {
