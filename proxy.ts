@@ -6,7 +6,10 @@ import { contentSecurityPolicy, cspSourcesFromEnv, newNonce, pageSecurityHeaders
  * nonce from the request's CSP header and puts it on its own scripts, so pages must render per
  * request (the root layout waits for the connection).
  */
-export function proxy(request: NextRequest) {
+export async function proxy(request: NextRequest) {
+  if (request.method === "POST" && request.headers.has("next-action") && !(await readableActionBody(request))) {
+    return NextResponse.json({ error: "That request could not be read." }, { status: 400 });
+  }
   const nonce = newNonce();
   const sources = cspSourcesFromEnv(process.env);
   const csp = contentSecurityPolicy(nonce, sources);
@@ -18,6 +21,39 @@ export function proxy(request: NextRequest) {
   response.headers.set("Content-Security-Policy", csp);
   for (const [name, value] of Object.entries(pageSecurityHeaders(sources))) response.headers.set(name, value);
   return response;
+}
+
+/**
+ * A server action call from the browser carries its arguments as a JSON array (or as multipart
+ * form data, left to Next.js). Anything else would make the framework's decoder throw, which
+ * answers 500; refuse it here as the bad request it is.
+ */
+async function readableActionBody(request: NextRequest): Promise<boolean> {
+  const type = request.headers.get("content-type") ?? "";
+  if (type.startsWith("multipart/form-data")) return true;
+  if (type && !type.startsWith("text/plain")) return false;
+  try {
+    const args: unknown = JSON.parse(await request.clone().text());
+    return Array.isArray(args) && args.length <= MAX_ACTION_ARGS && !hasStrayReference(args);
+  } catch {
+    return false;
+  }
+}
+
+/** Our actions take one argument (two with a form's previous state); React refuses over 1,000 with a 500. */
+const MAX_ACTION_ARGS = 8;
+/**
+ * In a plain-text action body, a string that starts with "$" is a reference in React's reply
+ * format; the browser escapes the user's own as "$$". Without multipart parts the only ones it can
+ * send stand for values (dates, undefined, NaN, ±Infinity, -0, big integers); any other points at
+ * a part that is not there, and the decoder fails.
+ */
+function hasStrayReference(value: unknown, depth = 0): boolean {
+  if (depth > 64) return true;
+  if (typeof value === "string") return value.startsWith("$") && !/^\$(?:\$|D|n-?\d|undefined$|NaN$|Infinity$|-Infinity$|-0$)/.test(value);
+  if (Array.isArray(value)) return value.some((v) => hasStrayReference(v, depth + 1));
+  if (value && typeof value === "object") return Object.values(value).some((v) => hasStrayReference(v, depth + 1));
+  return false;
 }
 
 export const config = {
