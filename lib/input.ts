@@ -36,12 +36,21 @@ export function inputProblem(value: unknown): Finding {
     if (path.length >= MAX_INPUT_DEPTH) return { path: [], message: UNREADABLE_MESSAGE };
     if (at instanceof Date || at instanceof Blob) continue;
     const entries: Array<[PropertyKey, unknown]> =
-      at instanceof Map ? [...at.entries()].flatMap(([k, v], i) => [[i, k] as [PropertyKey, unknown], [i, v] as [PropertyKey, unknown]])
-      : at instanceof Set ? [...at].map((v, i) => [i, v] as [PropertyKey, unknown])
-      : at instanceof FormData ? [...at.entries()].map(([k, v]) => [k, v] as [PropertyKey, unknown])
-      : Object.entries(at);
+      at instanceof Map
+        ? [...at.entries()].flatMap(([k, v], i) => [
+            [i, k] as [PropertyKey, unknown],
+            [i, v] as [PropertyKey, unknown],
+          ])
+        : at instanceof Set
+          ? [...at].map((v, i) => [i, v] as [PropertyKey, unknown])
+          : at instanceof FormData
+            ? [...at.entries()].map(([k, v]) => [k, v] as [PropertyKey, unknown])
+            : Array.isArray(at)
+              ? at.map((v, i) => [i, v] as [PropertyKey, unknown])
+              : Object.entries(at);
     for (const [key, child] of entries) {
-      if (typeof key === "string" && (key.includes("\u0000") || !key.isWellFormed())) return { path, message: key.includes("\u0000") ? NUL_MESSAGE : BROKEN_TEXT_MESSAGE };
+      if (typeof key === "string" && (key.includes("\u0000") || !key.isWellFormed()))
+        return { path, message: key.includes("\u0000") ? NUL_MESSAGE : BROKEN_TEXT_MESSAGE };
       stack.push({ value: child, path: [...path, key] });
     }
   }
@@ -49,7 +58,10 @@ export function inputProblem(value: unknown): Finding {
 }
 
 function failure<T>(path: PropertyKey[], message: string): z.ZodSafeParseResult<T> {
-  return { success: false, error: new z.ZodError([{ code: "custom", path, message, input: undefined }]) as z.ZodError<T> };
+  return {
+    success: false,
+    error: new z.ZodError([{ code: "custom", path, message, input: undefined }]) as z.ZodError<T>,
+  };
 }
 
 /**
@@ -57,7 +69,10 @@ function failure<T>(path: PropertyKey[], message: string): z.ZodSafeParseResult<
  * that path, so field errors land on the field) and turns a schema that throws on a hostile value
  * (an object whose `toString` is not a function, say) into an ordinary refusal.
  */
-export function parseInput<S extends z.ZodType>(schema: S, input: unknown): z.ZodSafeParseResult<z.output<S>> {
+export function parseInput<S extends z.ZodType>(
+  schema: S,
+  input: unknown,
+): z.ZodSafeParseResult<z.output<S>> {
   const problem = inputProblem(input);
   if (problem) return failure(problem.path, problem.message);
   try {
