@@ -19,6 +19,11 @@ const GONE: Record<"revoked" | "expired", string> = {
 };
 
 /** `kind` is "link" (a share token) or "proof" (a signed-in client or shop member). */
+/** Whether a path segment can be one of our record ids (uuids and library slugs); anything else is not found. */
+export function isRecordId(value: string): boolean {
+  return /^[A-Za-z0-9-]{1,80}$/.test(value);
+}
+
 export async function resolveReview(kind: string, key: string): Promise<ReviewAccess> {
   if (kind === "link") {
     const found = await lookupShareToken(key);
@@ -31,7 +36,7 @@ export async function resolveReview(kind: string, key: string): Promise<ReviewAc
       reviewer: { kind: "link", link, shopId: link.shopId, proofId: link.proofId, canComment: link.permission !== "view", canApprove: link.permission === "approve", displayName: link.recipientName },
     };
   }
-  if (kind !== "proof" || !/^[A-Za-z0-9-]{1,80}$/.test(key)) return { ok: false, status: 404, message: "Not found." };
+  if (kind !== "proof" || !isRecordId(key)) return { ok: false, status: 404, message: "Not found." };
   const actor = await getActor();
   if (!actor) return { ok: false, status: 401, message: "Sign in to continue." };
   const owner = await findProofShop({ proofId: key });

@@ -7,7 +7,7 @@ import { randomBytes } from "node:crypto";
 import bcrypt from "bcryptjs";
 import { and, eq } from "drizzle-orm";
 import { db } from "@/db/client";
-import { duplicateBlank } from "@/db/queries/blanks";
+import { duplicateBlank, findBlank } from "@/db/queries/blanks";
 import { createClient } from "@/db/queries/clients";
 import { createJob, type JobInput } from "@/db/queries/jobs";
 import { acceptQuote, sendQuote } from "@/db/queries/orders";
@@ -66,22 +66,37 @@ export async function insertArt(shopId: string, clientId: string | null, name: s
   return row!.id;
 }
 
-function jobInput(title: string, clientId: string): JobInput {
+/** A job as its form sends it (the save action's input, without the shop). */
+export function jobFormInput(title: string, clientId: string) {
   return {
     title,
     clientId,
     dueDate: "2027-05-01",
-    method: "screen-print",
+    method: "screen-print" as const,
     blankId: LIBRARY_TEE,
     garmentColour: "Deep Harbor",
-    printLocations: [{ location: "full-front", colours: 1 }],
+    printLocations: [{ location: "full-front" as const, colours: 1 }],
     dtfAreaIn2: null,
     rush: false,
-    notes: null,
+    notes: "",
     sizeRun: [
       { size: "S", quantity: 8 },
       { size: "M", quantity: 12 },
     ],
+  };
+}
+
+function jobInput(title: string, clientId: string): JobInput {
+  return { ...jobFormInput(title, clientId), notes: null };
+}
+
+/** A blank's values as its edit form sends them, from the stored blank. */
+export function blankFormValues(blank: NonNullable<Awaited<ReturnType<typeof findBlank>>>, description: string) {
+  return {
+    name: blank.name,
+    description,
+    colours: blank.colours.map((c) => ({ name: c.name, hex: c.hex.toUpperCase() })),
+    sizes: blank.sizeChart.map((row) => ({ size: row.size, group: row.group, measurements: { ...(row.measurements as unknown as Record<string, number>) } })),
   };
 }
 

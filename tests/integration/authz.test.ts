@@ -18,7 +18,7 @@ import { createInvitation } from "@/db/queries/shops";
 import { proofs, shops } from "@/db/schema";
 import { DEFAULT_PRICE_MATRIX } from "@/lib/pricing";
 import { ACTION_ROWS, ACTORS, outcomeLabel, type Actor, type ActionOutcome, type ActionRow } from "@/tests/authz/matrix";
-import { buildAuthzFixture, insertArt, LIBRARY_TEE, type AuthzFixture, type FixtureUser } from "@/tests/authz/fixtures";
+import { blankFormValues, buildAuthzFixture, insertArt, jobFormInput, LIBRARY_TEE, type AuthzFixture, type FixtureUser } from "@/tests/authz/fixtures";
 
 const session = vi.hoisted(() => ({ user: null as null | { id: string; email: string; name: string | null } }));
 vi.mock("@/app/_server/auth", () => ({
@@ -52,33 +52,8 @@ const perActor = {} as Record<Actor, PerActor>;
 let archiveClientId = "";
 let savedPrices: { priceMatrix: unknown; priceMatrixUpdatedAt: Date | null } | undefined;
 
-function jobForm(title: string, clientId: string) {
-  return {
-    title,
-    clientId,
-    dueDate: "2027-05-01",
-    method: "screen-print",
-    blankId: LIBRARY_TEE,
-    garmentColour: "Deep Harbor",
-    printLocations: [{ location: "full-front", colours: 1 }],
-    dtfAreaIn2: null,
-    rush: false,
-    notes: "",
-    sizeRun: [
-      { size: "S", quantity: 8 },
-      { size: "M", quantity: 12 },
-    ],
-  };
-}
-
 async function blankValues(blankId: string, description: string) {
-  const blank = (await findBlank({ shopId: f.shop.id, blankId }))!;
-  return {
-    name: blank.name,
-    description,
-    colours: blank.colours.map((c) => ({ name: c.name, hex: c.hex.toUpperCase() })),
-    sizes: blank.sizeChart.map((row) => ({ size: row.size, group: row.group, measurements: { ...(row.measurements as unknown as Record<string, number>) } })),
-  };
+  return blankFormValues((await findBlank({ shopId: f.shop.id, blankId }))!, description);
 }
 
 async function proofDoc(shopId: string, proofId: string) {
@@ -121,10 +96,10 @@ const INPUTS: Record<string, Input> = {
   "archive-client/their-slug": ({ f }) => ({ shopSlug: f.other.slug, clientId: archiveClientId, archived: true }),
   "archive-client/their-ids": ({ f }) => ({ shopSlug: f.shop.slug, clientId: f.ids.otherClientId, archived: true }),
 
-  "create-job/ours": ({ f, unique }) => ({ shopSlug: f.shop.slug, ...jobForm(`Matrix relay tees ${unique}`, f.ids.secondClientId) }),
-  "update-job/ours": ({ f }) => ({ shopSlug: f.shop.slug, jobId: f.ids.secondClientJobId, ...jobForm(`Matrix regatta tees ${f.tag}`, f.ids.secondClientId) }),
-  "update-job/their-slug": ({ f }) => ({ shopSlug: f.other.slug, jobId: f.ids.secondClientJobId, ...jobForm("Taken over", f.ids.otherClientId) }),
-  "update-job/their-ids": ({ f }) => ({ shopSlug: f.shop.slug, jobId: f.ids.otherJobId, ...jobForm("Taken over", f.ids.secondClientId) }),
+  "create-job/ours": ({ f, unique }) => ({ shopSlug: f.shop.slug, ...jobFormInput(`Matrix relay tees ${unique}`, f.ids.secondClientId) }),
+  "update-job/ours": ({ f }) => ({ shopSlug: f.shop.slug, jobId: f.ids.secondClientJobId, ...jobFormInput(`Matrix regatta tees ${f.tag}`, f.ids.secondClientId) }),
+  "update-job/their-slug": ({ f }) => ({ shopSlug: f.other.slug, jobId: f.ids.secondClientJobId, ...jobFormInput("Taken over", f.ids.otherClientId) }),
+  "update-job/their-ids": ({ f }) => ({ shopSlug: f.shop.slug, jobId: f.ids.otherJobId, ...jobFormInput("Taken over", f.ids.secondClientId) }),
   "job-to-press/ours": ({ f }) => ({ shopSlug: f.shop.slug, jobId: f.ids.secondClientJobId, status: "on-press" }),
   "job-to-drafting/ours": ({ f }) => ({ shopSlug: f.shop.slug, jobId: f.ids.secondClientJobId, status: "drafting" }),
   "job-to-press/their-slug": ({ f }) => ({ shopSlug: f.other.slug, jobId: f.ids.secondClientJobId, status: "on-press" }),

@@ -23,7 +23,7 @@ import { addComment, createShareLink } from "@/db/queries/review";
 import { createInvitation } from "@/db/queries/shops";
 import { DEFAULT_PRICE_MATRIX } from "@/lib/pricing";
 import { readAppSurface } from "@/tests/authz/app-surface";
-import { buildAuthzFixture, LIBRARY_TEE, type AuthzFixture, type FixtureUser } from "@/tests/authz/fixtures";
+import { blankFormValues, buildAuthzFixture, jobFormInput, LIBRARY_TEE, type AuthzFixture, type FixtureUser } from "@/tests/authz/fixtures";
 import { actionInput, boundaryCases, hostileSegment, leaks, rawBody, type RawBody } from "@/tests/fuzz/hostile";
 
 const session = vi.hoisted(() => ({ user: null as null | { id: string; email: string; name: string | null } }));
@@ -89,23 +89,8 @@ async function actionBases(): Promise<Record<string, unknown>> {
   const blank = (await findBlank({ shopId: f.other.id, blankId: f.ids.otherBlankId }))!;
   const client = (await findClient({ shopId: f.other.id, clientId: f.ids.otherClientId }))!;
   const proof = (await getProofDocument({ shopId: f.other.id, proofId: f.ids.otherProofId }))!;
-  const job = {
-    shopSlug,
-    title: "Fuzzed relay tees",
-    clientId: f.ids.otherClientId,
-    dueDate: "2027-05-01",
-    method: "screen-print",
-    blankId: LIBRARY_TEE,
-    garmentColour: "Deep Harbor",
-    printLocations: [{ location: "full-front", colours: 2 }],
-    dtfAreaIn2: null,
-    rush: false,
-    notes: "",
-    sizeRun: [
-      { size: "S", quantity: 8 },
-      { size: "M", quantity: 12 },
-    ],
-  };
+  const job = { shopSlug, ...jobFormInput("Fuzzed relay tees", f.ids.otherClientId) };
+
   return {
     signUpAction: { shopName: "Fuzz Print Works", name: "Sol Reyes", email: `fuzz-${f.tag}@example.test`, password: "a-long-enough-password" },
     acceptInvitationAction: { token: otherInvite, name: "Nia Ferro", password: "a-long-enough-password" },
@@ -114,12 +99,8 @@ async function actionBases(): Promise<Record<string, unknown>> {
     updateBlankAction: {
       shopSlug,
       blankId: f.ids.otherBlankId,
-      values: {
-        name: blank.name,
-        description: "Fuzzed",
-        colours: blank.colours.map((c) => ({ name: c.name, hex: c.hex.toUpperCase() })),
-        sizes: blank.sizeChart.map((row) => ({ size: row.size, group: row.group, measurements: { ...(row.measurements as unknown as Record<string, number>) } })),
-      },
+      values: blankFormValues(blank, "Fuzzed"),
+
     },
     createClientAction: { shopSlug, name: "Fuzz Kayak Club", notes: "", taxExempt: false, contacts: [{ name: "Kit Vale", email: `kit-${f.tag}@kayak.test`, phone: "" }] },
     updateClientAction: {

@@ -2,7 +2,7 @@ import { NextResponse, type NextRequest } from "next/server";
 import { createRouteHandler } from "uploadthing/next";
 import { z } from "zod";
 import { uploadthingConfig } from "@/app/_server/uploadthing-config";
-import { parseInput } from "@/lib/input";
+import { parseInput, readJson } from "@/lib/input";
 import { authorizeArtworkUpload, ourFileRouter } from "./core";
 
 const handlers = createRouteHandler({ router: ourFileRouter, config: uploadthingConfig() });
@@ -36,11 +36,7 @@ const uploadRequestSchema = z.object({
 export async function POST(req: NextRequest): Promise<Response> {
   const url = new URL(req.url);
   if (url.searchParams.get("actionType") === "upload" && !req.headers.has("uploadthing-hook")) {
-    const body: unknown = await req
-      .clone()
-      .json()
-      .catch(() => null);
-    const request = parseInput(uploadRequestSchema, body);
+    const request = parseInput(uploadRequestSchema, await readJson(req.clone()));
     if (!request.success) return NextResponse.json({ message: "That upload request could not be read." }, { status: 400 });
     const input = request.data.input;
     const shopSlug = input && typeof input === "object" ? (input as { shopSlug?: unknown }).shopSlug : undefined;

@@ -7,21 +7,6 @@ export const dynamic = "force-dynamic";
 
 type Context = { params: Promise<{ nextauth: string[] }> };
 
-/** The e-mail a password sign-in is for, read from a copy of the body (form or JSON). */
-async function signInEmail(request: Request): Promise<string | null> {
-  const type = request.headers.get("content-type") ?? "";
-  try {
-    if (type.includes("application/json")) {
-      const body = (await request.json()) as { email?: unknown };
-      return typeof body.email === "string" ? body.email : null;
-    }
-    if (type.includes("application/x-www-form-urlencoded")) return new URLSearchParams(await request.text()).get("email");
-  } catch {
-    return null;
-  }
-  return null;
-}
-
 const MAX_BODY = 16_384;
 const MAX_FIELD = 2_048;
 
@@ -38,44 +23,53 @@ function readableUrl(value: string, origin: string): boolean {
   }
 }
 
+/** A key and text value next-auth can take: short, with no NUL or broken character. */
+function readableText(key: string, value: unknown): boolean {
+  return typeof value === "string" && key.length <= 64 && value.length <= MAX_FIELD && !inputProblem(key) && !inputProblem(value);
+}
+
+type Read = { ok: true; fields: Map<string, unknown> } | { ok: false; reason: string };
+
 /**
- * What next-auth itself would choke on (and answer 500): a body that is neither a form nor a JSON
- * object, fields that are not text, oversized input, callback urls that are not urls. Returns the
- * reason, or null when the request is fine to hand over.
+ * Reads the request as next-auth will, refusing what it would choke on (and answer 500): a body
+ * that is neither a form nor a JSON object, fields that are not text, oversized input, callback
+ * urls that are not urls. Gives the body's fields (none for GET) when the request is fine.
  */
-async function unreadable(request: NextRequest): Promise<string | null> {
+async function readAuthRequest(request: NextRequest): Promise<Read> {
   const origin = request.nextUrl.origin;
+  const refuse = (reason: string): Read => ({ ok: false, reason });
   for (const [key, value] of request.nextUrl.searchParams) {
-    if (key.length > 64 || value.length > MAX_FIELD || value.includes("\u0000")) return "The address is too long or not readable.";
-    if (key === "callbackUrl" && !readableUrl(value, origin)) return "The return address is not a url.";
+    if (!readableText(key, value)) return refuse("The address is too long or not readable.");
+    if (key === "callbackUrl" && !readableUrl(value, origin)) return refuse("The return address is not a url.");
   }
-  if (request.method !== "POST") return null;
+  const fields = new Map<string, unknown>();
+  if (request.method !== "POST") return { ok: true, fields };
   const text = await request.clone().text();
-  if (text.length > MAX_BODY) return "The request is too large.";
+  if (text.length > MAX_BODY) return refuse("The request is too large.");
   const type = request.headers.get("content-type") ?? "";
-  if (text === "") return type.includes("application/json") ? "The request is not valid JSON." : null;
-  let fields: Array<[string, unknown]>;
-  if (type.includes("application/x-www-form-urlencoded")) fields = [...new URLSearchParams(text)];
-  else if (type.includes("application/json")) {
+  const json = type.includes("application/json");
+  if (text === "") return json ? refuse("The request is not valid JSON.") : { ok: true, fields };
+  if (type.includes("application/x-www-form-urlencoded")) for (const [k, v] of new URLSearchParams(text)) fields.set(k, v);
+  else if (json) {
     let body: unknown;
     try {
       body = JSON.parse(text);
     } catch {
-      return "The request is not valid JSON.";
+      return refuse("The request is not valid JSON.");
     }
-    if (!body || typeof body !== "object" || Array.isArray(body)) return "The request must be an object.";
-    fields = Object.entries(body);
-  } else return "Send a form or JSON.";
+    if (!body || typeof body !== "object" || Array.isArray(body)) return refuse("The request must be an object.");
+    for (const [k, v] of Object.entries(body)) fields.set(k, v);
+  } else return refuse("Send a form or JSON.");
   for (const [key, value] of fields) {
     // `data` is the one object field next-auth takes (a session update); it is not read here.
-    if (key === "data" && type.includes("application/json")) {
-      if (inputProblem(value)) return "A field of the request is not readable.";
+    if (key === "data" && json) {
+      if (inputProblem(value)) return refuse("A field of the request is not readable.");
       continue;
     }
-    if (typeof value !== "string" || key.length > 64 || value.length > MAX_FIELD || value.includes("\u0000") || !value.isWellFormed()) return "A field of the request is not readable text.";
-    if (key === "callbackUrl" && !readableUrl(value, origin)) return "The return address is not a url.";
+    if (!readableText(key, value)) return refuse("A field of the request is not readable text.");
+    if (key === "callbackUrl" && !readableUrl(value as string, origin)) return refuse("The return address is not a url.");
   }
-  return null;
+  return { ok: true, fields };
 }
 
 /** next-auth's own endpoints: one word, or sign-in / callback with one of our providers. */
@@ -90,13 +84,13 @@ function knownEndpoint(path: string[]): boolean {
 async function handler(request: NextRequest, context: Context) {
   const { nextauth } = await context.params;
   if (!knownEndpoint(nextauth)) return NextResponse.json({ error: "Not found." }, { status: 404 });
-  const reason = await unreadable(request);
-  if (reason) return NextResponse.json({ error: reason }, { status: 400, headers: { "Cache-Control": "no-store" } });
+  const read = await readAuthRequest(request);
+  if (!read.ok) return NextResponse.json({ error: read.reason }, { status: 400, headers: { "Cache-Control": "no-store" } });
   if (request.method === "POST" && nextauth.join("/") === "callback/credentials") {
-    const email = await signInEmail(request.clone());
+    const email = read.fields.get("email");
     // Too many password attempts for one address: a real 429 that the sign-in form shows in words
     // (next-auth's client reads `error` from the url it is given back).
-    if (email && !takeSignInAttempt(email)) {
+    if (typeof email === "string" && email && !takeSignInAttempt(email)) {
       const url = new URL("/sign-in", request.nextUrl.origin);
       url.searchParams.set("error", SIGN_IN_LIMIT_MESSAGE);
       return NextResponse.json({ error: SIGN_IN_LIMIT_MESSAGE, url: url.toString() }, { status: 429, headers: { "Retry-After": "60", "Cache-Control": "no-store" } });

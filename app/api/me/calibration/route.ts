@@ -3,7 +3,7 @@ import { z } from "zod";
 import { getActor } from "@/app/_server/access";
 import { getCalibration, saveCalibration } from "@/db/queries/proofs";
 import { MAX_PX_PER_INCH, MIN_PX_PER_INCH } from "@/lib/editor/view";
-import { parseInput } from "@/lib/input";
+import { parseInput, readJson } from "@/lib/input";
 
 export const dynamic = "force-dynamic";
 
@@ -30,8 +30,7 @@ export async function GET(request: NextRequest) {
 export async function PUT(request: NextRequest) {
   const actor = await getActor();
   if (!actor) return NextResponse.json({ error: "Sign in to continue." }, { status: 401 });
-  const body = await request.json().catch(() => undefined);
-  const parsed = parseInput(putSchema, body);
+  const parsed = parseInput(putSchema, await readJson(request));
   if (!parsed.success) return NextResponse.json({ error: parsed.error.issues[0]?.message ?? "Invalid calibration." }, { status: 400 });
   await saveCalibration({ userId: actor.id, ...parsed.data });
   return NextResponse.json({ pxPerInch: parsed.data.pxPerInch });

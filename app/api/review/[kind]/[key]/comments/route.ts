@@ -42,8 +42,7 @@ export async function POST(request: Request, { params }: Params) {
   if (!reviewer.canComment) return error(403, "This link lets you look, not comment.");
   const limitKey = reviewer.kind === "link" ? `comment:${reviewer.link.id}:${clientIp(request) ?? "?"}` : `comment:${reviewer.actor.id}`;
   if (!takeToken(limitKey, { capacity: 12, refillPerMinute: 6 })) return error(429, "That is a lot of notes at once. Wait a minute and try again.");
-  const raw = await request.json().catch(() => undefined);
-  const parsed = parseInput(postSchema, raw);
+  const parsed = parseInput(postSchema, await readJson(request));
   if (!parsed.success) return error(400, parsed.error.issues[0]?.message ?? "That note could not be read.");
   const input = parsed.data;
   const revision = await latestRevision({ proofId: reviewer.proofId });

@@ -1,5 +1,5 @@
 import { NextResponse } from "next/server";
-import { resolveReview } from "@/app/_server/review";
+import { isRecordId, resolveReview } from "@/app/_server/review";
 import { getArtworkImage } from "@/db/queries/artworks";
 import { latestRevision } from "@/db/queries/review";
 
@@ -8,7 +8,7 @@ export const dynamic = "force-dynamic";
 /** Art previews for reviewers, limited to art that is on the proof they may see. */
 export async function GET(_request: Request, { params }: { params: Promise<{ kind: string; key: string; artworkId: string }> }) {
   const { kind, key, artworkId } = await params;
-  if (!/^[A-Za-z0-9-]{1,80}$/.test(artworkId)) return NextResponse.json({ error: "Not found." }, { status: 404 });
+  if (!isRecordId(artworkId)) return NextResponse.json({ error: "Not found." }, { status: 404 });
   const access = await resolveReview(kind, key);
   if (!access.ok) return NextResponse.json({ error: access.message }, { status: access.status });
   const revision = await latestRevision({ proofId: access.reviewer.proofId });
