@@ -67,7 +67,10 @@ const stack = await bringUpStack({ mode: "test", port: PORT });
 let app: ReturnType<typeof startNext> | undefined;
 let worker: ReturnType<typeof startWorker> | undefined;
 try {
-  const testEnv = { ...stack.env, CHALKLINE_TEST: "1" };
+  // One fuzz seed for the whole run, printed so a red run can be repeated with FUZZ_SEED=<seed>.
+  const fuzzSeed = process.env.FUZZ_SEED ?? String(Date.now() % 2 ** 31);
+  log(`fuzz seed ${fuzzSeed} (repeat with FUZZ_SEED=${fuzzSeed})`);
+  const testEnv = { ...stack.env, CHALKLINE_TEST: "1", FUZZ_SEED: fuzzSeed };
   log("unit, component and integration tests");
   ok = (await vitest(["unit", "component", "integration"], testEnv, "vitest")) && ok;
 

@@ -142,6 +142,38 @@ export async function finishedExport(shopId: string, jobId: string, userId: stri
   return id;
 }
 
+/** One shop's own working set: a client, a job, two pieces of art, a sent proof with a share link, an accepted quote, a finished export and a blank. */
+export type ShopRecords = {
+  clientId: string;
+  jobId: string;
+  artworkId: string;
+  spareArtworkId: string;
+  proofId: string;
+  linkId: string;
+  linkToken: string;
+  quoteId: string;
+  exportId: string;
+  blankId: string;
+};
+
+/**
+ * Builds a fresh working set in a shop through the product's own queries. Each call makes new
+ * rows, so a test that changes them (the fuzzer, say) can start the next case from a known state.
+ */
+export async function buildShopRecords({ shopId, ownerId, tag }: { shopId: string; ownerId: string; tag: string }): Promise<ShopRecords> {
+  const client = await createClient({ shopId, actorUserId: ownerId, input: { name: `Mill Choir ${tag}`, notes: null, taxExempt: false, contacts: [{ name: "Cass Mill", email: `cass-${tag}@mill.test`, phone: null }] } });
+  const job = await createJob({ shopId, actorUserId: ownerId, input: jobInput(`Mill choir tees ${tag}`, client.id) });
+  const artworkId = await insertArt(shopId, client.id, `Mill note ${tag}`);
+  const spareArtworkId = await insertArt(shopId, client.id, `Mill staff ${tag}`);
+  const proofId = await insertProof(shopId, job.id, `Mill front ${tag}`, artworkId, ownerId);
+  await send(shopId, proofId, ownerId);
+  const link = await createShareLink({ shopId, proofId, permission: "approve", expiresAt: null, recipientEmail: null, recipientName: null, createdBy: ownerId });
+  const quote = await acceptedQuote(shopId, job.id, `Mill choir tees ${tag}`, client.id, ownerId);
+  const exportId = await finishedExport(shopId, job.id, ownerId);
+  const blank = await duplicateBlank({ shopId, blankId: LIBRARY_TEE });
+  return { clientId: client.id, jobId: job.id, artworkId, spareArtworkId, proofId, linkId: link.link.id, linkToken: link.token, quoteId: quote.id, exportId, blankId: blank!.id };
+}
+
 export async function buildAuthzFixture(): Promise<AuthzFixture> {
   const tag = randomBytes(3).toString("hex");
   const [shop] = await db.select({ id: shops.id, slug: shops.slug }).from(shops).where(eq(shops.slug, DEMO_SHOP_SLUG));
@@ -197,17 +229,7 @@ export async function buildAuthzFixture(): Promise<AuthzFixture> {
   const otherEmail = `matrix-owner-${tag}@other-shop.test`;
   const { userId: otherOwnerId, shopSlug: otherSlug } = await createShopWithOwner({ shopName: `Matrix Mill Prints ${tag}`, name: "Odile Marsh", email: otherEmail, passwordHash: await bcrypt.hash(otherPassword, 10) });
   const [otherShop] = await db.select({ id: shops.id, slug: shops.slug }).from(shops).where(eq(shops.slug, otherSlug));
-  const theirClient = await createClient({ shopId: otherShop!.id, actorUserId: otherOwnerId, input: { name: `Mill Choir ${tag}`, notes: null, taxExempt: false, contacts: [{ name: "Cass Mill", email: `cass-${tag}@mill.test`, phone: null }] } });
-  const theirJob = await createJob({ shopId: otherShop!.id, actorUserId: otherOwnerId, input: jobInput(`Mill choir tees ${tag}`, theirClient.id) });
-  const theirArt = await insertArt(otherShop!.id, theirClient.id, `Mill note ${tag}`);
-  const theirSpareArt = await insertArt(otherShop!.id, theirClient.id, `Mill staff ${tag}`);
-  const theirProof = await insertProof(otherShop!.id, theirJob.id, `Mill front ${tag}`, theirArt, otherOwnerId);
-  await send(otherShop!.id, theirProof, otherOwnerId);
-  const theirLink = await createShareLink({ shopId: otherShop!.id, proofId: theirProof, permission: "approve", expiresAt: null, recipientEmail: null, recipientName: null, createdBy: otherOwnerId });
-  const theirQuote = await acceptedQuote(otherShop!.id, theirJob.id, `Mill choir tees ${tag}`, theirClient.id, otherOwnerId);
-  const theirExport = await finishedExport(otherShop!.id, theirJob.id, otherOwnerId);
-  const theirBlank = await duplicateBlank({ shopId: otherShop!.id, blankId: LIBRARY_TEE });
-
+  const their = await buildShopRecords({ shopId: otherShop!.id, ownerId: otherOwnerId, tag });
   const ids = {
     shop: shop.slug,
     otherShop: otherSlug,
@@ -230,19 +252,19 @@ export async function buildAuthzFixture(): Promise<AuthzFixture> {
     commentId: comment.id,
     device: `matrix-${tag}-screen`,
     utVersion: "",
-    otherJobId: theirJob.id,
-    otherProofId: theirProof,
-    otherClientId: theirClient.id,
-    otherBlankId: theirBlank!.id,
-    otherArtworkId: theirArt,
-    otherExportId: theirExport,
-    otherQuoteId: theirQuote.id,
+    otherJobId: their.jobId,
+    otherProofId: their.proofId,
+    otherClientId: their.clientId,
+    otherBlankId: their.blankId,
+    otherArtworkId: their.artworkId,
+    otherExportId: their.exportId,
+    otherQuoteId: their.quoteId,
     // Used by action inputs only.
     siblingJobId: sibling.id,
     secondClientId: second.id,
     linkId: link.link.id,
-    otherLinkId: theirLink.link.id,
-    otherSpareArtworkId: theirSpareArt,
+    otherLinkId: their.linkId,
+    otherSpareArtworkId: their.spareArtworkId,
   };
 
   return {

@@ -17,13 +17,12 @@ import { getStripe, webhookSecret } from "@/app/_server/payments";
 import { findBlank } from "@/db/queries/blanks";
 import { findClient } from "@/db/queries/clients";
 import { getProofDocument } from "@/db/queries/proofs";
-import { acceptQuote, currentQuote } from "@/db/queries/orders";
 import { createExport, markExport } from "@/db/queries/production";
-import { addComment, createShareLink } from "@/db/queries/review";
+import { addComment } from "@/db/queries/review";
 import { createInvitation } from "@/db/queries/shops";
 import { DEFAULT_PRICE_MATRIX } from "@/lib/pricing";
 import { readAppSurface } from "@/tests/authz/app-surface";
-import { blankFormValues, buildAuthzFixture, jobFormInput, LIBRARY_TEE, type AuthzFixture, type FixtureUser } from "@/tests/authz/fixtures";
+import { blankFormValues, buildAuthzFixture, buildShopRecords, jobFormInput, LIBRARY_TEE, type AuthzFixture, type FixtureUser, type ShopRecords } from "@/tests/authz/fixtures";
 import { actionInput, boundaryCases, hostileSegment, leaks, rawBody, type RawBody } from "@/tests/fuzz/hostile";
 
 const session = vi.hoisted(() => ({ user: null as null | { id: string; email: string; name: string | null } }));
@@ -51,10 +50,25 @@ const PER_GET = Math.round(60 * SCALE);
 let f: AuthzFixture;
 const baseInputs = new Map<string, unknown>();
 let other: FixtureUser;
-let otherInvite = "";
-let otherLinkToken = "";
-/** Records of the second shop made for these inputs; the quote is looked up again before the routes run. */
-const mine = { failedExport: "", commentId: "", quoteId: "" };
+
+/**
+ * A fresh working set of the second shop for one target, so no earlier target's fuzz cases (a job
+ * saved without print locations, a revoked link, a replaced art) can make its valid input fail.
+ */
+type FuzzState = ShopRecords & { invite: string; failedExport: string; commentId: string };
+let state: FuzzState;
+let freshCount = 0;
+
+async function freshState(): Promise<FuzzState> {
+  freshCount += 1;
+  const tag = `${f.tag}-${freshCount}`;
+  const records = await buildShopRecords({ shopId: f.other.id, ownerId: other.id, tag });
+  const invite = (await createInvitation({ shopId: f.other.id, email: `fuzz-joiner-${tag}@example.test`, role: "production", invitedBy: other.id })).token;
+  const failedExport = await createExport({ shopId: f.other.id, jobId: records.jobId, kind: "spec-sheet", params: {}, requestedBy: other.id });
+  await markExport(failedExport, { state: "failed", message: "Failed for the fuzzer." });
+  const commentId = (await addComment({ proofId: records.proofId, revisionLetter: "A", parentId: null, side: "front", xIn: 0, yIn: 5, body: "Fuzz note", authorName: "Odile Marsh", authorRole: "shop", authorUserId: other.id, shareLinkId: null })).id;
+  return { ...records, invite, failedExport, commentId };
+}
 
 type Problem = { target: string; input: string; what: string };
 const problems: Problem[] = [];
@@ -62,6 +76,8 @@ const counts = { actions: 0, routes: 0, gets: 0 };
 /** Accepted answers per target: proof that generated input got past the schemas to the database. */
 const accepted = new Map<string, number>();
 const accept = (target: string) => accepted.set(target, (accepted.get(target) ?? 0) + 1);
+/** Valid inputs that were refused: each runs on a fresh working set, so any entry here is a bug. */
+const validRefused: string[] = [];
 
 function show(value: unknown): string {
   let text: string;
@@ -84,51 +100,51 @@ function signInAs(who: Caller) {
 // Valid inputs, one per server action, all aimed at the second shop
 // ---------------------------------------------------------------------------------------------
 
-async function actionBases(): Promise<Record<string, unknown>> {
+async function actionBases(s: FuzzState): Promise<Record<string, unknown>> {
   const shopSlug = f.other.slug;
-  const blank = (await findBlank({ shopId: f.other.id, blankId: f.ids.otherBlankId }))!;
-  const client = (await findClient({ shopId: f.other.id, clientId: f.ids.otherClientId }))!;
-  const proof = (await getProofDocument({ shopId: f.other.id, proofId: f.ids.otherProofId }))!;
-  const job = { shopSlug, ...jobFormInput("Fuzzed relay tees", f.ids.otherClientId) };
+  const blank = (await findBlank({ shopId: f.other.id, blankId: s.blankId }))!;
+  const client = (await findClient({ shopId: f.other.id, clientId: s.clientId }))!;
+  const proof = (await getProofDocument({ shopId: f.other.id, proofId: s.proofId }))!;
+  const job = { shopSlug, ...jobFormInput("Fuzzed relay tees", s.clientId) };
 
   return {
     signUpAction: { shopName: "Fuzz Print Works", name: "Sol Reyes", email: `fuzz-${f.tag}@example.test`, password: "a-long-enough-password" },
-    acceptInvitationAction: { token: otherInvite, name: "Nia Ferro", password: "a-long-enough-password" },
-    replaceArtworkAction: { shopSlug, oldId: f.ids.otherArtworkId, newId: f.ids.otherSpareArtworkId },
+    acceptInvitationAction: { token: s.invite, name: "Nia Ferro", password: "a-long-enough-password" },
+    replaceArtworkAction: { shopSlug, oldId: s.artworkId, newId: s.spareArtworkId },
     duplicateBlankAction: { shopSlug, blankId: LIBRARY_TEE },
     updateBlankAction: {
       shopSlug,
-      blankId: f.ids.otherBlankId,
+      blankId: s.blankId,
       values: blankFormValues(blank, "Fuzzed"),
 
     },
     createClientAction: { shopSlug, name: "Fuzz Kayak Club", notes: "", taxExempt: false, contacts: [{ name: "Kit Vale", email: `kit-${f.tag}@kayak.test`, phone: "" }] },
     updateClientAction: {
       shopSlug,
-      clientId: f.ids.otherClientId,
+      clientId: s.clientId,
       name: client.name,
       notes: "",
       taxExempt: false,
       contacts: client.contacts.map((c) => ({ id: c.id, name: c.name, email: c.email, phone: c.phone ?? "" })),
     },
-    setClientArchivedAction: { shopSlug, clientId: f.ids.otherClientId, archived: false },
-    saveJobAction: { ...job, jobId: f.ids.otherJobId },
-    setJobStatusAction: { shopSlug, jobId: f.ids.otherJobId, status: "drafting" },
-    sendQuoteAction: { shopSlug, jobId: f.ids.otherJobId, message: "Fuzzed quote" },
-    saveSizeRunAction: { shopSlug, jobId: f.ids.otherJobId, sizes: [{ size: "S", quantity: 8 }, { size: "M", quantity: 12 }] },
-    saveGradingAction: { shopSlug, jobId: f.ids.otherJobId, placementId: proof.placements[0]?.id ?? "fuzz-placement", transferCount: 1, assignment: { S: 10, M: 10.5 }, totalShortfall: 0 },
-    requestExportAction: { kind: "gang-sheet-pdf", shopSlug, jobId: f.ids.otherJobId, rollWidthIn: 22, gapIn: 0.25, sparePercent: 5, allowRotation: true, maxSheetLengthIn: 200 },
-    retryExportAction: { shopSlug, exportId: mine.failedExport },
+    setClientArchivedAction: { shopSlug, clientId: s.clientId, archived: false },
+    saveJobAction: { ...job, jobId: s.jobId },
+    setJobStatusAction: { shopSlug, jobId: s.jobId, status: "drafting" },
+    sendQuoteAction: { shopSlug, jobId: s.jobId, message: "Fuzzed quote" },
+    saveSizeRunAction: { shopSlug, jobId: s.jobId, sizes: [{ size: "S", quantity: 8 }, { size: "M", quantity: 12 }] },
+    saveGradingAction: { shopSlug, jobId: s.jobId, placementId: proof.placements[0]?.id ?? "fuzz-placement", transferCount: 1, assignment: { S: 10, M: 10.5 }, totalShortfall: 0 },
+    requestExportAction: { kind: "gang-sheet-pdf", shopSlug, jobId: s.jobId, rollWidthIn: 22, gapIn: 0.25, sparePercent: 5, allowRotation: true, maxSheetLengthIn: 200 },
+    retryExportAction: { shopSlug, exportId: s.failedExport },
     savePricesAction: { shopSlug, matrix: DEFAULT_PRICE_MATRIX },
     saveProofAction: {
       shopSlug,
-      proofId: f.ids.otherProofId,
+      proofId: s.proofId,
       baseVersion: proof.proof.version,
       doc: { size: proof.proof.size, colourName: proof.proof.colourName, colourHex: proof.proof.colourHex, placements: proof.placements },
     },
-    shareProofAction: { shopSlug, proofId: f.ids.otherProofId, permission: "comment", expiresInDays: 7, recipientEmail: `fuzz-${f.tag}@client.test`, recipientName: "Ada Fuzz", message: "Have a look" },
-    listShareLinksAction: { shopSlug, proofId: f.ids.otherProofId },
-    revokeShareLinkAction: { shopSlug, linkId: f.ids.otherLinkId },
+    shareProofAction: { shopSlug, proofId: s.proofId, permission: "comment", expiresInDays: 7, recipientEmail: `fuzz-${f.tag}@client.test`, recipientName: "Ada Fuzz", message: "Have a look" },
+    listShareLinksAction: { shopSlug, proofId: s.proofId },
+    revokeShareLinkAction: { shopSlug, linkId: s.linkId },
     inviteMemberAction: { shopSlug, email: `crew-${f.tag}@example.test`, role: "designer" },
   };
 }
@@ -157,7 +173,10 @@ async function callAction(target: string, fn: (input: unknown) => Promise<unknow
     return;
   }
   const r = result as Result | null;
-  if (target.endsWith(" as other") && input === baseInputs.get(target.replace(/^action (\w+) as other$/, "$1")) && r?.ok !== true) console.log(`[fuzz] the valid input of ${target} was refused: ${show(result)}`);
+  if (target.endsWith(" as other") && input === baseInputs.get(target.replace(/^action (\w+) as other$/, "$1")) && r?.ok !== true) {
+    console.log(`[fuzz] the valid input of ${target} was refused: ${show(result)}`);
+    validRefused.push(`${target}: ${show(result)}`);
+  }
   if (!r || typeof r !== "object" || typeof r.ok !== "boolean") {
     problems.push({ target, input: show(input), what: `answered ${show(result)}` });
     return;
@@ -213,7 +232,10 @@ async function callRoute(target: string, handler: Handler, url: string, method: 
     return;
   }
   const text = await response.text();
-  if (body?.label === "valid" && response.status >= 300) console.log(`[fuzz] the valid body of ${target} got ${response.status}: ${show(text)}`);
+  if (body?.label === "valid" && response.status >= 300) {
+    console.log(`[fuzz] the valid body of ${target} got ${response.status}: ${show(text)}`);
+    validRefused.push(`${target}: ${response.status} ${show(text)}`);
+  }
   if (response.status < 300) accept(target.replace(/ as \w+$/, ""));
   if (response.status >= 500) problems.push({ target, input, what: `answered ${response.status}: ${show(text)}` });
   const leak = leaks(text);
@@ -234,40 +256,40 @@ function bodyRoutes(): BodyRoute[] {
       label: "POST /api/quotes/[quoteId]/accept",
       file: "app/api/quotes/[quoteId]/accept/route.ts",
       method: "POST",
-      url: () => `${ORIGIN}/api/quotes/${mine.quoteId}/accept`,
-      params: () => ({ quoteId: mine.quoteId }),
-      base: () => ({ fullName: "Ada Fuzz", confirmed: true, link: otherLinkToken }),
+      url: () => `${ORIGIN}/api/quotes/${state.quoteId}/accept`,
+      params: () => ({ quoteId: state.quoteId }),
+      base: () => ({ fullName: "Ada Fuzz", confirmed: true, link: state.linkToken }),
     },
     {
       label: "POST /api/quotes/[quoteId]/checkout",
       file: "app/api/quotes/[quoteId]/checkout/route.ts",
       method: "POST",
-      url: () => `${ORIGIN}/api/quotes/${mine.quoteId}/checkout`,
-      params: () => ({ quoteId: mine.quoteId }),
-      base: () => ({ kind: "deposit", link: otherLinkToken }),
+      url: () => `${ORIGIN}/api/quotes/${state.quoteId}/checkout`,
+      params: () => ({ quoteId: state.quoteId }),
+      base: () => ({ kind: "deposit", link: state.linkToken }),
     },
     {
       label: "POST /api/review/link/[key]/comments",
       file: "app/api/review/[kind]/[key]/comments/route.ts",
       method: "POST",
-      url: () => `${ORIGIN}/api/review/link/${otherLinkToken}/comments`,
-      params: () => ({ kind: "link", key: otherLinkToken }),
+      url: () => `${ORIGIN}/api/review/link/${state.linkToken}/comments`,
+      params: () => ({ kind: "link", key: state.linkToken }),
       base: () => note,
     },
     {
       label: "PATCH /api/review/proof/[key]/comments",
       file: "app/api/review/[kind]/[key]/comments/route.ts",
       method: "PATCH",
-      url: () => `${ORIGIN}/api/review/proof/${f.ids.otherProofId}/comments`,
-      params: () => ({ kind: "proof", key: f.ids.otherProofId }),
-      base: () => ({ commentId: mine.commentId, resolved: true }),
+      url: () => `${ORIGIN}/api/review/proof/${state.proofId}/comments`,
+      params: () => ({ kind: "proof", key: state.proofId }),
+      base: () => ({ commentId: state.commentId, resolved: true }),
     },
     {
       label: "POST /api/review/link/[key]/decision",
       file: "app/api/review/[kind]/[key]/decision/route.ts",
       method: "POST",
-      url: () => `${ORIGIN}/api/review/link/${otherLinkToken}/decision`,
-      params: () => ({ kind: "link", key: otherLinkToken }),
+      url: () => `${ORIGIN}/api/review/link/${state.linkToken}/decision`,
+      params: () => ({ kind: "link", key: state.linkToken }),
       base: () => ({ decision: "changes-requested", letter: "A", fullName: "Ada Fuzz", comment: "Move it up an inch" }),
     },
     {
@@ -292,7 +314,7 @@ function bodyRoutes(): BodyRoute[] {
       url: () => `${ORIGIN}/api/uploadthing?actionType=upload&slug=artwork`,
       params: () => ({}),
       headers: () => ({ "x-uploadthing-package": "@uploadthing/react", "x-uploadthing-version": "7.7.4" }),
-      base: () => ({ input: { shopSlug: f.other.slug, clientId: f.ids.otherClientId }, files: [{ name: "fuzz.png", size: 68, type: "image/png", lastModified: 0 }] }),
+      base: () => ({ input: { shopSlug: f.other.slug, clientId: state.clientId }, files: [{ name: "fuzz.png", size: 68, type: "image/png", lastModified: 0 }] }),
     },
   ];
 }
@@ -303,17 +325,17 @@ function getRoutes(): Array<{ label: string; file: string; build: (s: string) =>
   const e = (s: string) => encodeURIComponent(s.toWellFormed());
   return [
     { label: "GET /api/artworks/[id]/[variant]", file: "app/api/artworks/[id]/[variant]/route.ts", build: (s) => ({ url: `${ORIGIN}/api/artworks/${e(s)}/preview`, params: { id: s, variant: "preview" } }) },
-    { label: "GET /api/artworks/[id]/[variant] (variant)", file: "app/api/artworks/[id]/[variant]/route.ts", build: (s) => ({ url: `${ORIGIN}/api/artworks/${f.ids.otherArtworkId}/${e(s)}`, params: { id: f.ids.otherArtworkId, variant: s } }) },
+    { label: "GET /api/artworks/[id]/[variant] (variant)", file: "app/api/artworks/[id]/[variant]/route.ts", build: (s) => ({ url: `${ORIGIN}/api/artworks/${state.artworkId}/${e(s)}`, params: { id: state.artworkId, variant: s } }) },
     { label: "GET /api/exports/[id]", file: "app/api/exports/[id]/route.ts", build: (s) => ({ url: `${ORIGIN}/api/exports/${e(s)}`, params: { id: s } }) },
     { label: "GET /api/exports/[id]/file", file: "app/api/exports/[id]/file/route.ts", build: (s) => ({ url: `${ORIGIN}/api/exports/${e(s)}/file`, params: { id: s } }) },
     { label: "GET /api/proofs/[id]", file: "app/api/proofs/[id]/route.ts", build: (s) => ({ url: `${ORIGIN}/api/proofs/${e(s)}`, params: { id: s } }) },
     { label: "GET /api/me/calibration", file: "app/api/me/calibration/route.ts", build: (s) => ({ url: `${ORIGIN}/api/me/calibration?device=${e(s)}`, params: {} }) },
     { label: "GET /api/review/[kind]/[key]/comments", file: "app/api/review/[kind]/[key]/comments/route.ts", build: (s) => ({ url: `${ORIGIN}/api/review/link/${e(s)}/comments`, params: { kind: "link", key: s } }) },
-    { label: "GET /api/review/[kind]/[key]/comments (kind)", file: "app/api/review/[kind]/[key]/comments/route.ts", build: (s) => ({ url: `${ORIGIN}/api/review/${e(s)}/${f.ids.otherProofId}/comments`, params: { kind: s, key: f.ids.otherProofId } }) },
+    { label: "GET /api/review/[kind]/[key]/comments (kind)", file: "app/api/review/[kind]/[key]/comments/route.ts", build: (s) => ({ url: `${ORIGIN}/api/review/${e(s)}/${state.proofId}/comments`, params: { kind: s, key: state.proofId } }) },
     {
       label: "GET /api/review/[kind]/[key]/art/[artworkId]",
       file: "app/api/review/[kind]/[key]/art/[artworkId]/route.ts",
-      build: (s) => ({ url: `${ORIGIN}/api/review/proof/${f.ids.otherProofId}/art/${e(s)}`, params: { kind: "proof", key: f.ids.otherProofId, artworkId: s } }),
+      build: (s) => ({ url: `${ORIGIN}/api/review/proof/${state.proofId}/art/${e(s)}`, params: { kind: "proof", key: state.proofId, artworkId: s } }),
     },
   ];
 }
@@ -323,15 +345,8 @@ let baseNames: Record<string, unknown> = {};
 beforeAll(async () => {
   f = await buildAuthzFixture();
   other = f.users.other;
-  otherInvite = (await createInvitation({ shopId: f.other.id, email: `fuzz-joiner-${f.tag}@example.test`, role: "production", invitedBy: other.id })).token;
-  mine.failedExport = await createExport({ shopId: f.other.id, jobId: f.ids.otherJobId, kind: "spec-sheet", params: {}, requestedBy: other.id });
-  await markExport(mine.failedExport, { state: "failed", message: "Failed for the fuzzer." });
-  mine.commentId = (await addComment({ proofId: f.ids.otherProofId, revisionLetter: "A", parentId: null, side: "front", xIn: 0, yIn: 5, body: "Fuzz note", authorName: "Odile Marsh", authorRole: "shop", authorUserId: other.id, shareLinkId: null })).id;
-  otherLinkToken = (await createShareLink({ shopId: f.other.id, proofId: f.ids.otherProofId, permission: "approve", expiresAt: null, recipientEmail: null, recipientName: "Ada Fuzz", createdBy: other.id })).token;
-});
-
-beforeAll(async () => {
-  baseNames = await actionBases();
+  state = await freshState();
+  baseNames = await actionBases(state);
 });
 
 afterAll(() => {
@@ -351,8 +366,9 @@ describe(`request fuzzing, direct calls (seed ${SEED})`, () => {
     const surface = readAppSurface(repoRoot).actions;
     expect(surface.map((a) => a.name).filter((name) => !(name in baseNames)), "actions without a valid input to mutate").toEqual([]);
     for (const [n, { file, name }] of surface.entries()) {
-      // Read again for each action: earlier ones change the records (a replaced art bumps the proof's version).
-      const bases = await actionBases();
+      // A fresh working set for each action: no earlier action's fuzz cases can refuse its valid input.
+      state = await freshState();
+      const bases = await actionBases(state);
       baseInputs.set(name, bases[name]);
       const fn = ((await import(/* @vite-ignore */ path.join(repoRoot, file))) as Record<string, (input: unknown) => Promise<unknown>>)[name]!;
       const runs = name === "signUpAction" || name === "acceptInvitationAction" ? Math.round(PER_ACTION / 3) : PER_ACTION;
@@ -368,6 +384,7 @@ describe(`request fuzzing, direct calls (seed ${SEED})`, () => {
     }
     session.user = null;
     expect(report("action")).toEqual([]);
+    expect(validRefused.filter((t) => t.startsWith("action")), `valid inputs refused (seed ${SEED})`).toEqual([]);
     const neverAccepted = surface.map((a) => `action ${a.name}`).filter((t) => !accepted.get(t));
     expect(neverAccepted, "actions whose valid input was refused, so only their schema was fuzzed").toEqual([]);
   }, 600_000);
@@ -376,11 +393,9 @@ describe(`request fuzzing, direct calls (seed ${SEED})`, () => {
     const stripe = getStripe()!;
     const secret = webhookSecret()!;
     expect(stripe && secret, "the payments fake is configured in the test stack").toBeTruthy();
-    // The action fuzzing sent new quotes for the second shop's job; take the newest, accepted.
-    const quote = (await currentQuote({ jobId: f.ids.otherJobId }))!;
-    if (quote.state !== "accepted") await acceptQuote({ quoteId: quote.id, name: "Ada Fuzz", userId: null, via: "link", ip: "127.0.0.1", userAgent: "fuzz" });
-    mine.quoteId = quote.id;
     for (const [n, route] of bodyRoutes().entries()) {
+      // A fresh working set (accepted quote, open link, a note to resolve) for each route.
+      state = await freshState();
       const handler = (await load(route.file))[route.method]!;
       const valid: RawBody = { text: JSON.stringify(route.base()), contentType: "application/json", label: "valid" };
       const edges = boundaryCases(route.base(), Math.round(120 * SCALE)).map((e): [Caller, RawBody] => ["other", { text: JSON.stringify(e ?? null), contentType: "application/json", label: "edge" }]);
@@ -398,11 +413,13 @@ describe(`request fuzzing, direct calls (seed ${SEED})`, () => {
     }
     session.user = null;
     expect(report("route")).toEqual([]);
+    expect(validRefused.filter((t) => t.startsWith("route")), `valid bodies refused (seed ${SEED})`).toEqual([]);
     const neverAccepted = bodyRoutes().map((r) => `route ${r.label}`).filter((t) => !accepted.get(t));
     expect(neverAccepted, "routes whose valid body was refused").toEqual([]);
   }, 600_000);
 
   it("requests every GET route with generated ids and queries; none answers 5xx or leaks", async () => {
+    state = await freshState();
     for (const [n, route] of getRoutes().entries()) {
       const handler = (await load(route.file)).GET!;
       const cases = fc.sample(fc.tuple(caller, hostileSegment), { numRuns: PER_GET, seed: SEED + 200 + n });
