@@ -6,6 +6,11 @@ const TEXT: Record<string, (d: Record<string, unknown>) => string> = {
   "client.created": (d) => `New client: ${String(d.name ?? "")}.`,
   "job.created": (d) => `New job: ${String(d.title ?? "")}.`,
   "proof.saved": (d) => `Proof ${String(d.revision ?? "")} was updated.`,
+  "proof.created": (d) => `New proof: ${String(d.name ?? "")}.`,
+  "proof.duplicated": (d) => `Proof ${String(d.from ?? "")} was copied as ${String(d.name ?? "")}.`,
+  "proof.archived": (d) => `Proof ${String(d.name ?? "")} was archived.`,
+  "proof.restored": (d) => `Proof ${String(d.name ?? "")} was brought back from the archive.`,
+  "proof.revision-sent": (d) => `Revision ${String(d.revision ?? "")} was sent to the client.`,
 };
 
 export function describeAudit(action: string, detail: Record<string, unknown> = {}): string {

@@ -25,6 +25,8 @@ type Props = {
   method: DecorationMethod;
   locations: Array<{ value: PrintLocation; label: string }>;
   previousSize: string | null;
+  /** The size the proof was designed at; the one shown (doc.size here) may be another. */
+  designSize?: string;
   calibrated: boolean;
   onCalibrate: () => void;
   onSelect: (id: string) => void;
@@ -86,15 +88,18 @@ export function Inspector(props: Props) {
         <div className="mt-3 grid grid-cols-2 gap-3">
           <div>
             <label htmlFor="size" className="mb-1 block text-xs font-medium text-ink-600">
-              Size
+              Size shown
             </label>
-            <select id="size" className="field-input py-1.5 text-sm" value={doc.size} disabled={!props.editable} onChange={(e) => props.onSize(e.target.value)}>
+            <select id="size" className="field-input py-1.5 text-sm" value={doc.size} aria-describedby="size-hint" onChange={(e) => props.onSize(e.target.value)}>
               {blank.sizeChart.map((r) => (
                 <option key={r.size} value={r.size}>
                   {r.size}
                 </option>
               ))}
             </select>
+            <p id="size-hint" className="mt-1 text-xs text-ink-500">
+              {props.designSize && props.designSize !== doc.size ? `Designed at ${props.designSize}. Looking at another size changes nothing.` : "Looking at another size changes nothing on the proof."}
+            </p>
           </div>
           <div>
             <span className="mb-1 block text-xs font-medium text-ink-600">Colour: {doc.colourName}</span>

@@ -77,6 +77,8 @@ function EditorBody(props: Props & { store: EditorStore }) {
   const zoomValue = useEditor((s) => s.zoom);
   const selectedId = useEditor((s) => s.selectedId);
   const keepAspect = useEditor((s) => s.keepAspect);
+  const viewSize = useEditor((s) => s.viewSize);
+  const previousSize = useEditor((s) => s.previousSize);
   const temporal = useStore(store.temporal);
   const calibration = useCalibration(true);
   const [calibrating, setCalibrating] = useState(false);
@@ -84,7 +86,9 @@ function EditorBody(props: Props & { store: EditorStore }) {
   const [live, setLive] = useState<{ id: string; patch: PlacementCommit } | null>(null);
 
   const zoom = zoomValue > 0 ? zoomValue : null;
-  const sizeRow = blank.sizeChart.find((r) => r.size === doc.size) ?? blank.sizeChart[0]!;
+  const sizeRow = blank.sizeChart.find((r) => r.size === viewSize) ?? blank.sizeChart[0]!;
+  // What the inspector shows is the document at the size being looked at; the saved size stays the proof's own.
+  const viewDoc = useMemo(() => (doc.size === viewSize ? doc : { ...doc, size: viewSize }), [doc, viewSize]);
   const info = CATEGORY_INFO[blank.category];
 
   const save = useCallback(
@@ -155,8 +159,7 @@ function EditorBody(props: Props & { store: EditorStore }) {
   const onZoomChange = useCallback((z: number) => store.getState().setZoom(z), [store]);
 
   function switchSize(size: string) {
-    store.getState().setPreviousSize(doc.size);
-    store.getState().apply((d) => setGarment(d, { size }));
+    store.getState().showSize(size);
   }
 
   function addArt(artworkId: string, location: PrintLocation) {
@@ -273,13 +276,14 @@ function EditorBody(props: Props & { store: EditorStore }) {
             onLiveChange={(id, patch) => setLive({ id, patch })}
           />
           <p className="pointer-events-none absolute bottom-2 left-10 rounded bg-chalk/90 px-2 py-1 text-xs text-ink-600">
-            {blank.name} · {info.label} · size {doc.size} · {side} · {calibration.calibrated ? `${calibration.pxPerInch.toFixed(1)} px/in calibrated` : "96 px/in (not calibrated)"}
+            {blank.name} · {info.label} · size {viewSize} · {side} · {calibration.calibrated ? `${calibration.pxPerInch.toFixed(1)} px/in calibrated` : "96 px/in (not calibrated)"}
           </p>
         </div>
         <aside className="w-full shrink-0 overflow-y-auto border-t border-paper-300 bg-paper-50 lg:w-panel lg:border-l lg:border-t-0" aria-label="Inspector">
           <Inspector
             blank={blank}
-            doc={doc}
+            doc={viewDoc}
+            designSize={doc.size}
             side={side}
             unit={unit}
             selected={shownSelected}
@@ -288,7 +292,7 @@ function EditorBody(props: Props & { store: EditorStore }) {
             artworks={props.artworks}
             method={props.job.method}
             locations={locationsFor(blank.category).map((l) => ({ value: l, label: LOCATION_LABELS[l] }))}
-            previousSize={store.getState().previousSize}
+            previousSize={previousSize}
             calibrated={calibration.calibrated}
             onCalibrate={() => setCalibrating(true)}
             onSelect={(id) => {

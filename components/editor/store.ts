@@ -19,6 +19,8 @@ export type EditorState = {
   unit: LengthUnit;
   zoom: number;
   keepAspect: boolean;
+  /** The size being looked at. View state: switching it never changes the saved proof. */
+  viewSize: string;
   /** The size before the last size switch, for the "no longer fits" check. */
   previousSize: string | null;
   apply: (edit: (doc: ProofDoc) => ProofDoc) => void;
@@ -29,6 +31,8 @@ export type EditorState = {
   setZoom: (zoom: number) => void;
   setKeepAspect: (keep: boolean) => void;
   setPreviousSize: (size: string | null) => void;
+  /** Looks at another size; remembers the one before it for the fit check. */
+  showSize: (size: string) => void;
 };
 
 export type EditorStore = ReturnType<typeof createEditorStore>;
@@ -43,6 +47,7 @@ export function createEditorStore(init: { doc: ProofDoc; zoom: number; unit?: Le
         unit: init.unit ?? "in",
         zoom: init.zoom,
         keepAspect: true,
+        viewSize: init.doc.size,
         previousSize: null,
         apply: (edit) => {
           const next = edit(get().doc);
@@ -55,6 +60,7 @@ export function createEditorStore(init: { doc: ProofDoc; zoom: number; unit?: Le
         setZoom: (zoom) => get().zoom !== zoom && set({ zoom }),
         setKeepAspect: (keepAspect) => set({ keepAspect }),
         setPreviousSize: (previousSize) => set({ previousSize }),
+        showSize: (size) => get().viewSize !== size && set({ previousSize: get().viewSize, viewSize: size }),
       }),
       {
         // Only the document is history; selection, zoom and units are not undone.

@@ -1,10 +1,10 @@
 import "server-only";
-import { and, asc, eq, inArray, isNull, or, sql } from "drizzle-orm";
+import { and, asc, desc, eq, inArray, isNull, or, sql } from "drizzle-orm";
 import type { Placement } from "@/lib/placement/model";
 import { db } from "../client";
 import { artworkSummary, type ArtworkSummary } from "./artworks";
 import { nextRevisionLetter } from "@/lib/review/diff";
-import { artworks, blanks, calibrations, clients, jobs, placements, proofRevisions, proofs, type Blank, type Proof } from "../schema";
+import { artworks, auditLog, blanks, calibrations, clients, jobs, placements, proofRevisions, proofs, type Blank, type Proof } from "../schema";
 
 export type ProofDocument = {
   proof: Proof;
@@ -84,13 +84,150 @@ export async function listShopArtworks({ shopId, ids }: { shopId: string; ids?: 
     .orderBy(asc(artworks.name));
 }
 
-export async function listProofsForJob({ shopId, jobId }: { shopId: string; jobId: string }) {
-  return db
-    .select({ id: proofs.id, name: proofs.name, revision: proofs.revision, size: proofs.size, colourName: proofs.colourName, updatedAt: proofs.updatedAt, blankName: blanks.name })
+export type JobProofSummary = {
+  id: string;
+  name: string;
+  revision: string;
+  size: string;
+  colourName: string;
+  updatedAt: Date;
+  archivedAt: Date | null;
+  blankId: string;
+  blankName: string;
+  /** The newest sent revision (letter and state), if any was sent. */
+  lastSent: { letter: string; state: "open" | "approved" | "changes-requested" } | null;
+  /** The newest approved revision's letter: what production prints. */
+  approvedLetter: string | null;
+};
+
+/** The job's proofs with where each stands: the working letter, the last one sent, the one approved. */
+export async function listProofsForJob({ shopId, jobId, includeArchived = false }: { shopId: string; jobId: string; includeArchived?: boolean }): Promise<JobProofSummary[]> {
+  const rows = await db
+    .select({ id: proofs.id, name: proofs.name, revision: proofs.revision, size: proofs.size, colourName: proofs.colourName, updatedAt: proofs.updatedAt, archivedAt: proofs.archivedAt, blankId: proofs.blankId, blankName: blanks.name })
     .from(proofs)
     .innerJoin(blanks, eq(blanks.id, proofs.blankId))
-    .where(and(eq(proofs.shopId, shopId), eq(proofs.jobId, jobId)))
-    .orderBy(asc(proofs.name), asc(proofs.revision));
+    .where(and(eq(proofs.shopId, shopId), eq(proofs.jobId, jobId), includeArchived ? undefined : isNull(proofs.archivedAt)))
+    .orderBy(asc(proofs.createdAt), asc(proofs.name));
+  if (rows.length === 0) return [];
+  const revisions = await db
+    .select({ proofId: proofRevisions.proofId, letter: proofRevisions.letter, state: proofRevisions.state, sentAt: proofRevisions.sentAt })
+    .from(proofRevisions)
+    .where(inArray(proofRevisions.proofId, rows.map((r) => r.id)))
+    .orderBy(asc(proofRevisions.sentAt));
+  return rows.map((row) => {
+    const mine = revisions.filter((r) => r.proofId === row.id);
+    const last = mine[mine.length - 1];
+    const approved = mine.filter((r) => r.state === "approved").pop();
+    return { ...row, lastSent: last ? { letter: last.letter, state: last.state } : null, approvedLetter: approved?.letter ?? null };
+  });
+}
+
+export type NewProofRow = {
+  shopId: string;
+  jobId: string;
+  name: string;
+  blankId: string;
+  colourName: string;
+  colourHex: string;
+  size: string;
+  placements: Placement[];
+  userId: string;
+  /** For the activity feed: the proof this one was copied from. */
+  copiedFrom?: string;
+};
+
+/** Stores a new proof and its placements in one transaction, at revision A, and notes it in the log. */
+export async function createProof(input: NewProofRow): Promise<{ id: string }> {
+  return db.transaction(async (tx) => {
+    const [row] = await tx
+      .insert(proofs)
+      .values({ shopId: input.shopId, jobId: input.jobId, name: input.name, blankId: input.blankId, colourName: input.colourName, colourHex: input.colourHex, size: input.size, updatedBy: input.userId })
+      .returning({ id: proofs.id });
+    if (input.placements.length) {
+      await tx.insert(placements).values(input.placements.map((p, i) => ({ ...p, proofId: row!.id, sortOrder: i })));
+    }
+    await tx.insert(auditLog).values({
+      shopId: input.shopId,
+      actorUserId: input.userId,
+      action: input.copiedFrom ? "proof.duplicated" : "proof.created",
+      subjectType: "proof",
+      subjectId: row!.id,
+      detail: input.copiedFrom ? { name: input.name, from: input.copiedFrom } : { name: input.name },
+    });
+    return { id: row!.id };
+  });
+}
+
+/** Names already used by the job's proofs, archived ones included (names are unique per job). */
+export async function proofNamesForJob({ jobId }: { jobId: string }): Promise<string[]> {
+  const rows = await db.selectDistinct({ name: proofs.name }).from(proofs).where(eq(proofs.jobId, jobId));
+  return rows.map((r) => r.name);
+}
+
+export type ArchiveResult = { kind: "done"; name: string } | { kind: "missing" } | { kind: "approved"; letter: string };
+
+/**
+ * Archives a draft proof, or brings one back. A proof with an approved revision is what production
+ * prints, so it cannot be archived; the refusal names the approved letter.
+ */
+export async function setProofArchived({ shopId, proofId, archived, userId }: { shopId: string; proofId: string; archived: boolean; userId: string }): Promise<ArchiveResult> {
+  return db.transaction(async (tx) => {
+    const [row] = await tx.select({ id: proofs.id, name: proofs.name }).from(proofs).where(and(eq(proofs.id, proofId), eq(proofs.shopId, shopId))).for("update");
+    if (!row) return { kind: "missing" as const };
+    if (archived) {
+      const [approved] = await tx
+        .select({ letter: proofRevisions.letter })
+        .from(proofRevisions)
+        .where(and(eq(proofRevisions.proofId, proofId), eq(proofRevisions.state, "approved")))
+        .limit(1);
+      if (approved) return { kind: "approved" as const, letter: approved.letter };
+    }
+    await tx.update(proofs).set({ archivedAt: archived ? new Date() : null }).where(eq(proofs.id, proofId));
+    await tx.insert(auditLog).values({ shopId, actorUserId: userId, action: archived ? "proof.archived" : "proof.restored", subjectType: "proof", subjectId: proofId, detail: { name: row.name } });
+    return { kind: "done" as const, name: row.name };
+  });
+}
+
+export type ProductionDocument = {
+  document: ProofDocument;
+  /** The approved letter the document shows, or null when nothing is approved yet (the working copy is shown). */
+  approvedLetter: string | null;
+  /** The proof's working letter when it differs from the approved one: a newer draft exists. */
+  newerDraft: string | null;
+};
+
+/**
+ * What production works from: the newest approved revision, frozen as the client approved it, or
+ * the working copy while nothing is approved. Edits after approval never reach the press until the
+ * next revision is approved.
+ */
+export async function getProductionDocument({ shopId, proofId }: { shopId: string; proofId: string }): Promise<ProductionDocument | undefined> {
+  const live = await getProofDocument({ shopId, proofId });
+  if (!live) return undefined;
+  const [approved] = await db
+    .select({ letter: proofRevisions.letter, snapshot: proofRevisions.snapshot })
+    .from(proofRevisions)
+    .where(and(eq(proofRevisions.proofId, proofId), eq(proofRevisions.state, "approved")))
+    .orderBy(desc(proofRevisions.sentAt))
+    .limit(1);
+  if (!approved) return { document: live, approvedLetter: null, newerDraft: null };
+  const snap = approved.snapshot;
+  let blank = live.blank;
+  if (snap.blankId !== live.blank.id) {
+    const [row] = await db.select().from(blanks).where(eq(blanks.id, snap.blankId)).limit(1);
+    if (row) blank = row;
+  }
+  const placedIds = [...new Set(snap.placements.map((p) => p.artworkId).filter((id): id is string => !!id))];
+  const missing = placedIds.filter((id) => !live.artworks.some((a) => a.id === id));
+  const extra = missing.length ? await db.select(artworkSummary).from(artworks).where(and(eq(artworks.shopId, shopId), inArray(artworks.id, missing))) : [];
+  const document: ProofDocument = {
+    proof: { ...live.proof, revision: approved.letter, size: snap.size, colourName: snap.colourName, colourHex: snap.colourHex ?? live.proof.colourHex, blankId: snap.blankId },
+    job: live.job,
+    blank,
+    placements: snap.placements,
+    artworks: [...live.artworks, ...extra],
+  };
+  return { document, approvedLetter: approved.letter, newerDraft: live.proof.revision !== approved.letter ? live.proof.revision : null };
 }
 
 export type SaveProofInput = {
@@ -110,7 +247,8 @@ export type SaveProofResult =
   | { kind: "missing" };
 
 /**
- * Saves the whole editable state of a proof if nobody saved since `baseVersion`.
+ * Saves the whole editable state of a proof if nobody saved since `baseVersion`. The size the proof
+ * was designed at is part of the document; the size being looked at in the editor is not.
  * A stale save changes nothing and returns the fresh document instead.
  *
  * Concurrency: the proof row is locked first, so two saves of one proof run one after the other
@@ -127,14 +265,15 @@ export async function saveProof(input: SaveProofInput): Promise<SaveProofResult>
       .where(and(eq(proofs.id, input.proofId), eq(proofs.shopId, input.shopId)))
       .for("update");
     if (!current || current.version !== input.baseVersion) return null;
-    // An approved revision is locked: the first edit after approval starts the next letter.
+    // A sent revision never changes: the first edit after a send (or an approval) starts the next
+    // letter as a draft. The share lock makes a save wait for a send or an approval being recorded.
     let revision = current.revision;
-    const [frozen] = await tx
+    const [sent] = await tx
       .select({ state: proofRevisions.state })
       .from(proofRevisions)
       .where(and(eq(proofRevisions.proofId, input.proofId), eq(proofRevisions.letter, revision)))
       .for("share");
-    if (frozen?.state === "approved") revision = nextRevisionLetter(revision);
+    if (sent) revision = nextRevisionLetter(revision);
     const [updated] = await tx
       .update(proofs)
       .set({

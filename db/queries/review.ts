@@ -16,27 +16,38 @@ export function snapshotOf(document: ProofDocument): RevisionSnapshot {
     blankName: document.blank.name,
     size: document.proof.size,
     colourName: document.proof.colourName,
+    colourHex: document.proof.colourHex,
     placements: document.placements,
-    artNames: Object.fromEntries(document.artworks.map((a) => [a.id, a.name])),
+    // Names of the placed art only: the snapshot is what a client is shown.
+    artNames: Object.fromEntries(document.artworks.filter((a) => document.placements.some((p) => p.artworkId === a.id)).map((a) => [a.id, a.name])),
   };
 }
 
-/** Freezes the proof's current state as its current revision letter, ready for the client. */
+/**
+ * Freezes the proof's current state as its current revision letter, ready for the client. A letter
+ * once sent never changes: sharing again without edits hands out the same revision, and any edit
+ * after a send has already moved the proof to the next letter (see saveProof).
+ */
 export async function sendRevision({ document, userId }: { document: ProofDocument; userId: string }) {
   const letter = document.proof.revision;
-  const [existing] = await db
-    .select()
-    .from(proofRevisions)
-    .where(and(eq(proofRevisions.proofId, document.proof.id), eq(proofRevisions.letter, letter)))
-    .limit(1);
-  if (existing && existing.state === "approved") return existing;
   const snapshot = snapshotOf(document);
-  const [row] = await db
+  const [inserted] = await db
     .insert(proofRevisions)
     .values({ proofId: document.proof.id, letter, snapshot, sentBy: userId, state: "open" })
-    .onConflictDoUpdate({ target: [proofRevisions.proofId, proofRevisions.letter], set: { snapshot, sentAt: new Date(), sentBy: userId, state: "open" } })
+    .onConflictDoNothing({ target: [proofRevisions.proofId, proofRevisions.letter] })
     .returning();
-  await db.update(jobs).set({ status: "with-client", updatedAt: new Date() }).where(and(eq(jobs.id, document.job.id), eq(jobs.status, "drafting")));
+  const row =
+    inserted ??
+    (await db
+      .select()
+      .from(proofRevisions)
+      .where(and(eq(proofRevisions.proofId, document.proof.id), eq(proofRevisions.letter, letter)))
+      .limit(1)
+      .then((rows) => rows[0]));
+  if (inserted) {
+    await db.update(jobs).set({ status: "with-client", updatedAt: new Date() }).where(and(eq(jobs.id, document.job.id), eq(jobs.status, "drafting")));
+    await db.insert(auditLog).values({ shopId: document.proof.shopId, actorUserId: userId, action: "proof.revision-sent", subjectType: "proof", subjectId: document.proof.id, detail: { revision: letter } });
+  }
   return row!;
 }
 

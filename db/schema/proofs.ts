@@ -81,6 +81,8 @@ export const proofs = pgTable(
     size: text("size").notNull(),
     version: integer("version").notNull().default(1),
     updatedBy: text("updated_by").references(() => users.id, { onDelete: "set null" }),
+    /** Set when a draft proof is put away; archived proofs are left out of the job, production and the quote check. */
+    archivedAt: timestamp("archived_at", { withTimezone: true }),
     createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
     updatedAt: timestamp("updated_at", { withTimezone: true }).notNull().defaultNow(),
   },

@@ -11,6 +11,8 @@ export type RevisionSnapshot = {
   blankName: string;
   size: string;
   colourName: string;
+  /** Kept from the first revisions on that carry it; older snapshots fall back to the proof's colour. */
+  colourHex?: string;
   placements: Placement[];
   artNames?: Record<string, string>;
 };

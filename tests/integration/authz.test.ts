@@ -18,7 +18,7 @@ import { createInvitation } from "@/db/queries/shops";
 import { proofs, shops } from "@/db/schema";
 import { DEFAULT_PRICE_MATRIX } from "@/lib/pricing";
 import { ACTION_ROWS, ACTORS, outcomeLabel, type Actor, type ActionOutcome, type ActionRow } from "@/tests/authz/matrix";
-import { blankFormValues, buildAuthzFixture, insertArt, jobFormInput, LIBRARY_TEE, type AuthzFixture, type FixtureUser } from "@/tests/authz/fixtures";
+import { blankFormValues, buildAuthzFixture, insertArt, insertProof, jobFormInput, LIBRARY_TEE, type AuthzFixture, type FixtureUser } from "@/tests/authz/fixtures";
 
 const session = vi.hoisted(() => ({ user: null as null | { id: string; email: string; name: string | null } }));
 vi.mock("@/app/_server/auth", () => ({
@@ -43,7 +43,7 @@ vi.mock("@/app/_server/queue", () => ({
 
 const repoRoot = fileURLToPath(new URL("../..", import.meta.url));
 
-type PerActor = { oldArt: string; newArt: string; failedExport: string; linkId: string; inviteToken: string };
+type PerActor = { oldArt: string; newArt: string; failedExport: string; linkId: string; inviteToken: string; draftProofId: string };
 type Ctx = { f: AuthzFixture; actor: Actor; unique: string; mine: PerActor };
 type Input = (ctx: Ctx) => unknown;
 
@@ -123,6 +123,16 @@ const INPUTS: Record<string, Input> = {
 
   "save-prices/ours": ({ f }) => ({ shopSlug: f.shop.slug, matrix: DEFAULT_PRICE_MATRIX }),
 
+  "create-proof/ours": ({ f }) => ({ shopSlug: f.shop.slug, jobId: f.ids.secondClientJobId, name: null, blankId: null, colourName: null, art: [{ location: "full-front", artworkId: f.ids.secondClientArtworkId }] }),
+  "create-proof/their-slug": ({ f }) => ({ shopSlug: f.other.slug, jobId: f.ids.secondClientJobId, name: null, blankId: null, colourName: null, art: [] }),
+  "create-proof/their-ids": ({ f }) => ({ shopSlug: f.shop.slug, jobId: f.ids.otherJobId, name: null, blankId: null, colourName: null, art: [] }),
+  "duplicate-proof/ours": ({ f }) => ({ shopSlug: f.shop.slug, proofId: f.ids.proofId, name: null, blankId: null, colourName: null }),
+  "duplicate-proof/their-slug": ({ f }) => ({ shopSlug: f.other.slug, proofId: f.ids.proofId, name: null, blankId: null, colourName: null }),
+  "duplicate-proof/their-ids": ({ f }) => ({ shopSlug: f.shop.slug, proofId: f.ids.otherProofId, name: null, blankId: null, colourName: null }),
+  "archive-proof/ours": ({ f, mine }) => ({ shopSlug: f.shop.slug, proofId: mine.draftProofId, archived: true }),
+  "archive-proof/their-slug": ({ f, mine }) => ({ shopSlug: f.other.slug, proofId: mine.draftProofId, archived: true }),
+  "archive-proof/their-ids": ({ f }) => ({ shopSlug: f.shop.slug, proofId: f.ids.otherProofId, archived: true }),
+
   "save-proof/ours": async ({ f }) => ({ shopSlug: f.shop.slug, proofId: f.ids.proofId, ...(await proofDoc(f.shop.id, f.ids.proofId)) }),
   "save-proof/their-slug": async ({ f }) => ({ shopSlug: f.other.slug, proofId: f.ids.proofId, ...(await proofDoc(f.shop.id, f.ids.proofId)) }),
   "save-proof/their-ids": async ({ f }) => ({ shopSlug: f.shop.slug, proofId: f.ids.otherProofId, ...(await proofDoc(f.other.id, f.ids.otherProofId)) }),
@@ -189,7 +199,8 @@ beforeAll(async () => {
     const { link } = await createShareLink({ shopId: f.shop.id, proofId: f.ids.proofId, permission: "comment", expiresAt: null, recipientEmail: null, recipientName: null, createdBy: f.users.designer.id });
     // Invitations to the second shop: whoever accepts them, the demo shop's team stays as it is.
     const { token } = await createInvitation({ shopId: f.other.id, email: `joiner-${f.tag}-${actor}@example.test`, role: "production", invitedBy: f.users.other.id });
-    perActor[actor] = { oldArt, newArt, failedExport, linkId: link.id, inviteToken: token };
+    const draftProofId = await insertProof(f.shop.id, f.ids.siblingJobId, `Matrix spare draft ${f.tag} ${actor}`, oldArt, f.users.designer.id);
+    perActor[actor] = { oldArt, newArt, failedExport, linkId: link.id, inviteToken: token, draftProofId };
   }
 });
 

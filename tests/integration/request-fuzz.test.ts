@@ -136,6 +136,9 @@ async function actionBases(s: FuzzState): Promise<Record<string, unknown>> {
     requestExportAction: { kind: "gang-sheet-pdf", shopSlug, jobId: s.jobId, rollWidthIn: 22, gapIn: 0.25, sparePercent: 5, allowRotation: true, maxSheetLengthIn: 200 },
     retryExportAction: { shopSlug, exportId: s.failedExport },
     savePricesAction: { shopSlug, matrix: DEFAULT_PRICE_MATRIX },
+    createProofAction: { shopSlug, jobId: s.jobId, name: null, blankId: null, colourName: null, art: [{ location: "full-front", artworkId: s.artworkId }] },
+    duplicateProofAction: { shopSlug, proofId: s.proofId, name: null, blankId: null, colourName: null },
+    archiveProofAction: { shopSlug, proofId: s.proofId, archived: true },
     saveProofAction: {
       shopSlug,
       proofId: s.proofId,

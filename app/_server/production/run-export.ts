@@ -2,7 +2,7 @@ import "server-only";
 import { findBlank } from "@/db/queries/blanks";
 import { findJob } from "@/db/queries/jobs";
 import { listGradings, listJobSizes, loadExportForWork, markExport } from "@/db/queries/production";
-import { getProofDocument, listProofsForJob } from "@/db/queries/proofs";
+import { getProductionDocument, listProofsForJob } from "@/db/queries/proofs";
 import { listJobDecisions, proofContext } from "@/db/queries/review";
 import { LOCATION_LABELS, locationSpec, sideOf } from "@/lib/garments/locations";
 import { DECORATION_LABELS, type DecorationMethod } from "@/lib/jobs";
@@ -18,10 +18,11 @@ type Done = { fileName: string; mime: string; bytes: Buffer };
 
 const slugify = (s: string) => s.replace(/[^A-Za-z0-9]+/g, "-").replace(/^-|-$/g, "").toLowerCase() || "export";
 
+/** The job's proofs as production prints them: each one's approved revision, or its working copy while none is approved. */
 async function jobProofs(shopId: string, jobId: string) {
   const list = await listProofsForJob({ shopId, jobId });
-  const docs = await Promise.all(list.map((p) => getProofDocument({ shopId, proofId: p.id })));
-  return docs.filter((d): d is NonNullable<typeof d> => !!d);
+  const docs = await Promise.all(list.map((p) => getProductionDocument({ shopId, proofId: p.id })));
+  return docs.filter((d): d is NonNullable<typeof d> => !!d).map((d) => d.document);
 }
 
 async function specSheet(shopId: string, jobId: string, progress: (f: number) => Promise<void>): Promise<Done> {
@@ -71,7 +72,7 @@ async function specSheet(shopId: string, jobId: string, progress: (f: number) =>
 }
 
 async function testPrint(shopId: string, params: Record<string, unknown>, progress: (f: number) => Promise<void>): Promise<Done> {
-  const doc = await getProofDocument({ shopId, proofId: String(params.proofId) });
+  const doc = (await getProductionDocument({ shopId, proofId: String(params.proofId) }))?.document;
   if (!doc) throw new Error("The proof no longer exists.");
   const placement = doc.placements.find((p) => p.id === params.placementId);
   if (!placement) throw new Error("That print is no longer on the proof.");

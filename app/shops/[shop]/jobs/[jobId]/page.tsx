@@ -9,7 +9,10 @@ import { PaymentList } from "@/components/orders/PaymentList";
 import { QuoteLines } from "@/components/orders/QuoteLines";
 import { SendQuoteForm } from "@/components/orders/SendQuoteForm";
 import { findJobDetail } from "@/db/queries/jobs";
+import { listBlanks } from "@/db/queries/blanks";
 import { listProofsForJob } from "@/db/queries/proofs";
+import { JobProofList } from "@/components/proofs/JobProofList";
+import { proofStanding } from "@/lib/proofs/standing";
 import { listJobDecisions } from "@/db/queries/review";
 import { can } from "@/lib/access";
 import { LOCATION_LABELS } from "@/lib/garments/locations";
@@ -28,12 +31,15 @@ export default async function JobPage({ params }: { params: Promise<{ shop: stri
   const { job, client, blank, sizeRun } = detail;
   const seesMoney = can(access.role, "prices.view");
   const canEdit = can(access.role, "jobs.edit");
-  const [proofs, decisions, money, prices] = await Promise.all([
-    listProofsForJob({ shopId: access.shop.id, jobId }),
+  const canMakeProofs = can(access.role, "proofs.edit");
+  const [proofs, decisions, money, prices, blanks] = await Promise.all([
+    listProofsForJob({ shopId: access.shop.id, jobId, includeArchived: true }),
     listJobDecisions({ shopId: access.shop.id, jobId }),
     seesMoney ? jobMoney(jobId) : null,
     seesMoney ? loadPriceMatrix(access.shop.id) : null,
+    canMakeProofs ? listBlanks({ shopId: access.shop.id }) : [],
   ]);
+  const changedAfterApproval = proofs.filter((p) => !p.archivedAt && proofStanding(p).changedAfterApproval);
   const live = prices ? quoteJob({ ...job, sizeRun, garmentName: blank?.name ?? null }, prices.matrix, { taxExempt: client.taxExempt }) : null;
   const totals = sizeRunTotals(sizeRun);
   const locations = (job.printLocations ?? []) as Array<{ location: string; colours: number }>;
@@ -66,6 +72,12 @@ export default async function JobPage({ params }: { params: Promise<{ shop: stri
           </>
         }
       />
+      {changedAfterApproval.length ? (
+        <div role="note" className="mb-6 rounded-card border border-brick-300 bg-brick-100 p-4 text-sm text-brick-800" data-testid="changed-after-approval">
+          <strong>Changed after approval.</strong>{" "}
+          {changedAfterApproval.map((p) => `${p.name}: revision ${p.revision} is a draft; the client approved revision ${p.approvedLetter}, and production prints ${p.approvedLetter}.`).join(" ")} Share the new revision for approval before it goes to press.
+        </div>
+      ) : null}
       <div className="mb-8 grid gap-6 lg:grid-cols-[minmax(0,3fr)_minmax(0,2fr)]">
         <section className="card h-fit space-y-4 p-5" aria-label="Job details">
           <dl className="grid gap-x-6 gap-y-2 text-sm sm:grid-cols-2">
@@ -190,25 +202,43 @@ export default async function JobPage({ params }: { params: Promise<{ shop: stri
         ) : null}
       </div>
       <h2 className="mb-3 text-lg">Proofs</h2>
-      {proofs.length === 0 ? (
-        <EmptyState title="No proofs yet">A proof places the client&apos;s art on a blank at true size.</EmptyState>
-      ) : (
-        <ul className="grid gap-4 sm:grid-cols-2 lg:grid-cols-3">
-          {proofs.map((p) => (
-            <li key={p.id}>
-              <Link href={`/shops/${shop}/proofs/${p.id}`} className="card block p-5 hover:border-patina-300">
-                <p className="font-medium text-ink-900">
-                  {p.name} <span className="measure text-sm text-ink-500">rev. {p.revision}</span>
-                </p>
-                <p className="mt-1 text-sm text-ink-600">
-                  {p.blankName} · {p.colourName} · size {p.size}
-                </p>
-                <p className="mt-2 text-xs text-ink-500">Updated {p.updatedAt.toLocaleString("en-US", { dateStyle: "medium", timeStyle: "short" })}</p>
+      {proofs.every((p) => p.archivedAt) ? (
+        <EmptyState
+          title="No proofs yet"
+          action={
+            canMakeProofs ? (
+              <Link href={`/shops/${shop}/jobs/${jobId}/proofs/new`} className="btn-primary px-4 py-2">
+                Make a proof
               </Link>
-            </li>
-          ))}
-        </ul>
-      )}
+            ) : null
+          }
+        >
+          A proof places the client&apos;s art on a blank at true size.{canMakeProofs ? " It starts from this job's garment, colour, size run and print locations." : " The shop's designers make them."}
+        </EmptyState>
+      ) : null}
+      {proofs.length ? (
+        <div className={proofs.every((p) => p.archivedAt) ? "mt-4" : ""}>
+          <JobProofList
+            shopSlug={shop}
+            jobId={jobId}
+            canEdit={canMakeProofs}
+            blanks={canMakeProofs ? blanks.map((b) => ({ id: b.id, name: b.name, colours: b.colours })) : []}
+            proofs={proofs.map((p) => ({
+              id: p.id,
+              name: p.name,
+              revision: p.revision,
+              size: p.size,
+              colourName: p.colourName,
+              blankName: p.blankName,
+              blankId: p.blankId,
+              archived: !!p.archivedAt,
+              lastSent: p.lastSent,
+              approvedLetter: p.approvedLetter,
+              updatedLabel: p.updatedAt.toLocaleString("en-US", { dateStyle: "medium", timeStyle: "short" }),
+            }))}
+          />
+        </div>
+      ) : null}
       <h2 className="mb-3 mt-8 text-lg">Approval record</h2>
       {decisions.length === 0 ? (
         <EmptyState title="No decisions yet">When the client approves a revision or asks for changes, the record appears here.</EmptyState>

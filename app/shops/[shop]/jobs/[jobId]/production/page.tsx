@@ -4,7 +4,7 @@ import { requireShopPage } from "@/app/_server/access";
 import { PageHeader } from "@/components/ui/PageHeader";
 import { findJob } from "@/db/queries/jobs";
 import { listExports, listGradings, listJobSizes } from "@/db/queries/production";
-import { getProofDocument, listProofsForJob } from "@/db/queries/proofs";
+import { getProductionDocument, listProofsForJob } from "@/db/queries/proofs";
 import { can } from "@/lib/access";
 import { LOCATION_LABELS } from "@/lib/garments/locations";
 import { ProductionBoard } from "./ProductionBoard";
@@ -23,7 +23,8 @@ export default async function ProductionPage({ params }: { params: Promise<{ sho
     listProofsForJob({ shopId: access.shop.id, jobId }),
     listExports({ shopId: access.shop.id, jobId }),
   ]);
-  const docs = (await Promise.all(proofList.map((p) => getProofDocument({ shopId: access.shop.id, proofId: p.id })))).filter((d): d is NonNullable<typeof d> => !!d);
+  const printed = (await Promise.all(proofList.map((p) => getProductionDocument({ shopId: access.shop.id, proofId: p.id })))).filter((d): d is NonNullable<typeof d> => !!d);
+  const docs = printed.map((p) => p.document);
   return (
     <>
       <p className="mb-2 text-sm">
@@ -35,6 +36,15 @@ export default async function ProductionPage({ params }: { params: Promise<{ sho
       <div role="note" className="mb-6 rounded-card border border-ochre-300 bg-ochre-100 p-4 text-sm text-ochre-800">
         <strong>Safety.</strong> Heat presses and transfer platens are hot enough to burn: follow the transfer or vinyl maker&apos;s time, temperature and pressure. Ventilate when curing. Children&apos;s garments: no drawstrings at the hood or neck in children&apos;s sizes 2T to 12 (US 16 CFR 1120), and add tracking labels where required. Local rules and the transfer maker&apos;s instructions come first.
       </div>
+      <ul className="mb-6 space-y-2" aria-label="Which revision production prints" data-testid="production-revisions">
+        {printed.map(({ document: d, approvedLetter, newerDraft }) => (
+          <li key={d.proof.id} className={`rounded-card border p-3 text-sm ${approvedLetter ? "border-patina-200 bg-patina-50 text-patina-900" : "border-ochre-300 bg-ochre-50 text-ochre-900"}`}>
+            <strong>{d.proof.name}</strong>:{" "}
+            {approvedLetter ? `prints revision ${approvedLetter}, as the client approved it.` : `no revision is approved yet; this shows the working copy (revision ${d.proof.revision}). Print only after the client approves.`}
+            {newerDraft ? <span className="block" data-testid="newer-draft">Revision {newerDraft} is a newer draft that the client has not approved. Production keeps printing revision {approvedLetter} until {newerDraft} is approved.</span> : null}
+          </li>
+        ))}
+      </ul>
       <ProductionBoard
         shopSlug={access.shop.slug}
         jobId={job.id}
