@@ -1,111 +1,139 @@
 /**
- * Demo scenario, seeded only into an empty database. Everything here is invented:
- * the shop, its people, its clients and their jobs.
+ * Demo scenario, seeded only into an empty database, built through the product's own code: the
+ * same query functions and server helpers the sign-up, invitation, client, job, upload, proof and
+ * editor actions call. So the demo never holds anything a new shop could not make. Everything in
+ * it is invented: the shop, its people, its clients, their jobs and their art.
+ *
+ * Runs under the react-server condition (scripts/seed.ts starts it so), because the queries are
+ * server-only modules.
  */
 import bcrypt from "bcryptjs";
 import { count } from "drizzle-orm";
-import type { NodePgDatabase } from "drizzle-orm/node-postgres";
+import { storeArtwork } from "@/app/_server/artwork/ingest";
+import { makeProof } from "@/app/_server/proof-make";
+import { saveProofWithAccess } from "@/app/_server/proof-save";
 import { DEMO_ART } from "@/lib/demo-art";
+import type { SizeRunEntry } from "@/lib/pricing";
+import { db } from "./client";
+import { DEMO_ACCOUNTS, DEMO_PASSWORD, DEMO_SHOP } from "./demo";
 import { ensureLibraryBlanks, libraryBlankId } from "./library";
+import { createClient } from "./queries/clients";
+import { createJob, setJobStatus, type JobInput } from "./queries/jobs";
+import { getProofDocument } from "./queries/proofs";
+import { findShopBySlug } from "./queries/access";
+import { acceptInvitation, createInvitation, createShopWithOwner } from "./queries/shops";
+import { createUser, findUserByEmail, markEmailVerified } from "./queries/users";
 import * as schema from "./schema";
 
-export const DEMO_PASSWORD = "chalkline-demo";
+export { DEMO_ACCOUNTS, DEMO_PASSWORD, DEMO_SHOP };
 
-export const DEMO_ACCOUNTS = [
-  { email: "owner@chalkline.test", name: "Maren Holt", role: "owner" },
-  { email: "designer@chalkline.test", name: "Theo Okonkwo", role: "designer" },
-  { email: "press@chalkline.test", name: "Sam Lindqvist", role: "production" },
-  { email: "client@chalkline.test", name: "Priya Castell", role: "client" },
-] as const;
-
-export const DEMO_SHOP = { slug: "quarry-street", name: "Quarry Street Print Co." };
-
-type Db = NodePgDatabase<typeof schema>;
-
-export async function isEmpty(db: Db): Promise<boolean> {
+export async function isEmpty(): Promise<boolean> {
   const [row] = await db.select({ n: count() }).from(schema.shops);
   return (row?.n ?? 0) === 0;
 }
 
-export async function seedDemo(db: Db): Promise<{ seeded: boolean }> {
+const account = (role: (typeof DEMO_ACCOUNTS)[number]["role"]) => DEMO_ACCOUNTS.find((a) => a.role === role)!;
+const run = (sizes: Array<[string, number]>): SizeRunEntry[] => sizes.map(([size, quantity]) => ({ size, quantity }));
+
+/** How the demo's makers left each print in the editor: width (height follows the art) and distance from the collar or top edge. */
+type Tuned = { widthIn: number; belowCollarIn: number };
+
+export async function seedDemo(): Promise<{ seeded: boolean }> {
   await ensureLibraryBlanks(db);
-  if (!(await isEmpty(db))) return { seeded: false };
+  if (!(await isEmpty())) return { seeded: false };
   const passwordHash = await bcrypt.hash(DEMO_PASSWORD, 10);
-  await db.transaction(async (tx) => {
-    const userIds: Record<string, string> = {};
-    for (const account of DEMO_ACCOUNTS) {
-      const [user] = await tx
-        .insert(schema.users)
-        .values({ email: account.email, name: account.name, passwordHash, emailVerified: new Date() })
-        .returning({ id: schema.users.id });
-      userIds[account.email] = user!.id;
-    }
-    const [shop] = await tx.insert(schema.shops).values(DEMO_SHOP).returning({ id: schema.shops.id });
-    const shopId = shop!.id;
-    for (const account of DEMO_ACCOUNTS) {
-      if (account.role === "client") continue;
-      await tx.insert(schema.memberships).values({ shopId, userId: userIds[account.email]!, role: account.role });
-    }
 
-    const [soccer] = await tx
-      .insert(schema.clients)
-      .values({ shopId, name: "Eastfield Youth Soccer Club", notes: "Spring season kit. Youth and adult coach sizes." })
-      .returning({ id: schema.clients.id });
-    const [bakery] = await tx
-      .insert(schema.clients)
-      .values({ shopId, name: "Larkspur Lane Bakery", notes: "Staff tees and tote bags for the market stall." })
-      .returning({ id: schema.clients.id });
-    const [robotics] = await tx
-      .insert(schema.clients)
-      .values({ shopId, name: "Northgate Robotics Club", notes: "Competition hoodies, names on the back." })
-      .returning({ id: schema.clients.id });
+  // Sign-up: the owner makes the shop, then proves the e-mail address.
+  const owner = account("owner");
+  const made = await createShopWithOwner({ shopName: DEMO_SHOP.name, name: owner.name, email: owner.email, passwordHash });
+  if (made.shopSlug !== DEMO_SHOP.slug) throw new Error(`The demo shop's slug came out as ${made.shopSlug}, not ${DEMO_SHOP.slug}.`);
+  const shop = (await findShopBySlug({ slug: made.shopSlug }))!;
+  const ownerId = made.userId;
+  await markEmailVerified({ userId: ownerId });
 
-    await tx.insert(schema.clientContacts).values([
-      { clientId: soccer!.id, name: "Priya Castell", email: "client@chalkline.test", userId: userIds["client@chalkline.test"] },
-      { clientId: soccer!.id, name: "Jonah Brandt", email: "jonah.brandt@eastfield-soccer.test" },
-      { clientId: bakery!.id, name: "Wren Adeyemi", email: "wren@larkspur-bakery.test" },
-      { clientId: robotics!.id, name: "Ilse Moreau", email: "coach@northgate-robotics.test" },
-    ]);
+  // The team joins by invitation.
+  const ids: Record<string, string> = { owner: ownerId };
+  for (const role of ["designer", "production"] as const) {
+    const person = account(role);
+    const { token } = await createInvitation({ shopId: shop.id, email: person.email, role, invitedBy: ownerId });
+    const joined = await acceptInvitation({ token, name: person.name, passwordHash });
+    if (!joined.ok) throw new Error(`The demo ${role} could not join: ${joined.message}`);
+    ids[role] = (await findUserByEmail({ email: person.email }))!.id;
+  }
+  // The club's contact has an account of her own (her first sign-in made it); the club's contact list links to it.
+  const clientPerson = account("client");
+  const clientUser = await createUser({ email: clientPerson.email, name: clientPerson.name, passwordHash });
+  await markEmailVerified({ userId: clientUser.id });
 
-    const [teesJob, totesJob, hoodiesJob] = await tx
-      .insert(schema.jobs)
-      .values([
-        { shopId, clientId: soccer!.id, title: "Spring season team tees", status: "drafting", method: "screen-print", dueDate: "2027-03-12", createdBy: userIds["designer@chalkline.test"], blankId: libraryBlankId("everyday-crew-tee"), garmentColour: "Deep Harbor", printLocations: [{ location: "full-front", colours: 2 }] },
-        { shopId, clientId: bakery!.id, title: "Market stall totes", status: "with-client", method: "dtf", dueDate: "2027-02-20", createdBy: userIds["owner@chalkline.test"], blankId: libraryBlankId("market-canvas-tote"), garmentColour: "Raw Canvas", printLocations: [{ location: "tote-front", colours: 1 }], dtfAreaIn2: 33.3 },
-        { shopId, clientId: robotics!.id, title: "Competition hoodies", status: "drafting", method: "dtf", dueDate: "2027-01-30", createdBy: userIds["owner@chalkline.test"], blankId: libraryBlankId("campfire-pullover-hoodie"), garmentColour: "Carbon", printLocations: [{ location: "full-front", colours: 1 }], dtfAreaIn2: 108 },
-      ])
-      .returning({ id: schema.jobs.id });
+  const designerId = ids.designer!;
+  const client = (name: string, notes: string, contacts: Array<{ name: string; email: string }>) =>
+    createClient({ shopId: shop.id, actorUserId: ownerId, input: { name, notes, taxExempt: false, contacts: contacts.map((c) => ({ ...c, phone: null })) } });
+  const soccer = await client("Eastfield Youth Soccer Club", "Spring season kit. Youth and adult coach sizes.", [
+    { name: clientPerson.name, email: clientPerson.email },
+    { name: "Jonah Brandt", email: "jonah.brandt@eastfield-soccer.test" },
+  ]);
+  const bakery = await client("Larkspur Lane Bakery", "Staff tees and tote bags for the market stall.", [{ name: "Wren Adeyemi", email: "wren@larkspur-bakery.test" }]);
+  const robotics = await client("Northgate Robotics Club", "Competition hoodies, names on the back.", [{ name: "Ilse Moreau", email: "coach@northgate-robotics.test" }]);
 
-    const clientOf: Record<string, string> = { "eastfield-emblem": soccer!.id, "larkspur-wordmark": bakery!.id, "northgate-badge": robotics!.id };
-    const art = await tx
-      .insert(schema.artworks)
-      .values(DEMO_ART.map((a) => ({ shopId, clientId: clientOf[a.key] ?? null, name: a.name, kind: "generated" as const, svg: a.svg, inkWidthPx: a.widthPx, inkHeightPx: a.heightPx, isVector: true, shape: a.shape, mime: "image/svg+xml" })))
-      .returning({ id: schema.artworks.id, name: schema.artworks.name });
-    const artId = (name: string) => art.find((a) => a.name === name)!.id;
-
-    const [teeProof, toteProof, hoodieProof] = await tx
-      .insert(schema.proofs)
-      .values([
-        { shopId, jobId: teesJob!.id, name: "Team tee", blankId: libraryBlankId("everyday-crew-tee"), colourName: "Deep Harbor", colourHex: "#243247", size: "M", updatedBy: userIds["designer@chalkline.test"] },
-        { shopId, jobId: totesJob!.id, name: "Market tote", blankId: libraryBlankId("market-canvas-tote"), colourName: "Raw Canvas", colourHex: "#E8DDC7", size: "One size", updatedBy: userIds["owner@chalkline.test"] },
-        { shopId, jobId: hoodiesJob!.id, name: "Team hoodie", blankId: libraryBlankId("campfire-pullover-hoodie"), colourName: "Carbon", colourHex: "#1F2023", size: "L", updatedBy: userIds["owner@chalkline.test"] },
-      ])
-      .returning({ id: schema.proofs.id });
-
-    const run = (jobId: string, sizes: Array<[string, number]>) => sizes.map(([size, quantity], i) => ({ jobId, size, quantity, sortOrder: i }));
-    await tx.insert(schema.jobSizes).values([
-      ...run(teesJob!.id, [["XS", 2], ["S", 6], ["M", 10], ["L", 8], ["XL", 5], ["2XL", 3], ["3XL", 2], ["4XL", 1]]),
-      ...run(hoodiesJob!.id, [["S", 3], ["M", 6], ["L", 6], ["XL", 4], ["2XL", 2]]),
-      ...run(totesJob!.id, [["One size", 40]]),
-    ]);
-
-    await tx.insert(schema.placements).values([
-      { id: "demo-tee-front", proofId: teeProof!.id, location: "full-front", artworkId: artId("Eastfield club emblem"), widthIn: 10, heightIn: 10, offsetFromCenterIn: 0, belowCollarIn: 3, rotationDeg: 0, sortOrder: 0 },
-      { id: "demo-tote-front", proofId: toteProof!.id, location: "tote-front", artworkId: artId("Larkspur Lane wordmark"), widthIn: 10, heightIn: 10 / 3, offsetFromCenterIn: 0, belowCollarIn: 5, rotationDeg: 0, sortOrder: 0 },
-      { id: "demo-hoodie-front", proofId: hoodieProof!.id, location: "full-front", artworkId: artId("Northgate robotics badge"), widthIn: 9, heightIn: 12, offsetFromCenterIn: 0, belowCollarIn: 3, rotationDeg: 0, sortOrder: 0 },
-    ]);
-
-    await tx.insert(schema.auditLog).values({ shopId, actorUserId: userIds["owner@chalkline.test"], action: "shop.created", subjectType: "shop", subjectId: shopId });
+  const job = (actorUserId: string, input: Omit<JobInput, "rush" | "notes" | "dtfAreaIn2"> & { dtfAreaIn2?: number }) =>
+    createJob({ shopId: shop.id, actorUserId, input: { rush: false, notes: null, dtfAreaIn2: null, ...input } });
+  const tees = await job(designerId, {
+    title: "Spring season team tees",
+    clientId: soccer.id,
+    dueDate: "2027-03-12",
+    method: "screen-print",
+    blankId: libraryBlankId("everyday-crew-tee"),
+    garmentColour: "Deep Harbor",
+    printLocations: [{ location: "full-front", colours: 2 }],
+    sizeRun: run([["XS", 2], ["S", 6], ["M", 10], ["L", 8], ["XL", 5], ["2XL", 3], ["3XL", 2], ["4XL", 1]]),
   });
+  const totes = await job(ownerId, {
+    title: "Market stall totes",
+    clientId: bakery.id,
+    dueDate: "2027-02-20",
+    method: "dtf",
+    blankId: libraryBlankId("market-canvas-tote"),
+    garmentColour: "Raw Canvas",
+    printLocations: [{ location: "tote-front", colours: 1 }],
+    dtfAreaIn2: 33.3,
+    sizeRun: run([["One size", 40]]),
+  });
+  const hoodies = await job(ownerId, {
+    title: "Competition hoodies",
+    clientId: robotics.id,
+    dueDate: "2027-01-30",
+    method: "dtf",
+    blankId: libraryBlankId("campfire-pullover-hoodie"),
+    garmentColour: "Carbon",
+    printLocations: [{ location: "full-front", colours: 1 }],
+    dtfAreaIn2: 108,
+    sizeRun: run([["S", 3], ["M", 6], ["L", 6], ["XL", 4], ["2XL", 2]]),
+  });
+
+  // The art comes in as an upload does: analysed, ink measured and trimmed, previews made.
+  const clientOf: Record<string, string> = { "eastfield-emblem": soccer.id, "larkspur-wordmark": bakery.id, "northgate-badge": robotics.id };
+  const artId: Record<string, string> = {};
+  for (const art of DEMO_ART) {
+    const stored = await storeArtwork({ bytes: Buffer.from(art.svg), name: `${art.name}.svg`, declaredType: "image/svg+xml", shopId: shop.id, userId: designerId, clientId: clientOf[art.key] ?? null, fileKey: null, fileUrl: null });
+    if (!stored.ok) throw new Error(`The demo art ${art.name} was refused: ${stored.message}`);
+    artId[art.key] = stored.artworkId;
+  }
+
+  // Proofs are made from the jobs, then sized in the editor as the makers left them.
+  const designerAccess = { shop: { id: shop.id, slug: shop.slug, name: shop.name }, role: "designer" as const, actor: { id: designerId, email: account("designer").email, name: account("designer").name, memberships: [], contacts: [] } };
+  const proof = async (jobId: string, name: string, art: string, location: string, tuned: Tuned) => {
+    const outcome = await makeProof({ shopId: shop.id, userId: designerId, jobId, name, blankId: null, colourName: null, art: [{ location, artworkId: artId[art]! }] });
+    if (!outcome.ok) throw new Error(`The demo proof ${name} could not be made: ${outcome.error}`);
+    const document = (await getProofDocument({ shopId: shop.id, proofId: outcome.proofId }))!;
+    const placements = document.placements.map((p) => ({ ...p, widthIn: tuned.widthIn, heightIn: (tuned.widthIn * p.heightIn) / p.widthIn, belowCollarIn: tuned.belowCollarIn }));
+    const saved = await saveProofWithAccess(designerAccess, { proofId: outcome.proofId, baseVersion: document.proof.version, doc: { size: document.proof.size, colourName: document.proof.colourName, colourHex: document.proof.colourHex, placements } });
+    if (!saved.ok) throw new Error(`The demo proof ${name} could not be saved: ${saved.message}`);
+  };
+  await proof(tees.id, "Team tee", "eastfield-emblem", "full-front", { widthIn: 10, belowCollarIn: 3 });
+  await proof(totes.id, "Market tote", "larkspur-wordmark", "tote-front", { widthIn: 10, belowCollarIn: 5 });
+  await proof(hoodies.id, "Team hoodie", "northgate-badge", "full-front", { widthIn: 9, belowCollarIn: 3 });
+
+  // The bakery's totes are with the client, as the owner marked them on the board.
+  await setJobStatus({ shopId: shop.id, jobId: totes.id, status: "with-client", actorUserId: ownerId });
   return { seeded: true };
 }

@@ -9,7 +9,7 @@
  */
 import os from "node:os";
 import { performance } from "node:perf_hooks";
-import { DEMO_PASSWORD } from "../db/seed";
+import { DEMO_PASSWORD } from "../db/demo";
 import { withApp } from "./bench/app";
 import { launchChromium } from "./bench/browser";
 import { measureEditorDrag } from "./bench/editor-drag";

@@ -2,7 +2,7 @@
  * `npm start` (production build) and `npm run dev` (dev server): PostgreSQL, migrations, demo data,
  * local fakes, then the app. Prints the URL and the demo sign-ins.
  */
-import { DEMO_ACCOUNTS, DEMO_PASSWORD } from "../db/seed";
+import { DEMO_ACCOUNTS, DEMO_PASSWORD } from "../db/demo";
 import { buildApp, buildIsFresh, startNext, startWorker, stopChild, waitForHealth } from "./lib/next";
 import { bringUpStack } from "./lib/stack";
 

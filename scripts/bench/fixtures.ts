@@ -4,7 +4,7 @@
  * client share link to it. Goes through the app's own analysis and query functions.
  */
 import sharp from "sharp";
-import { DEMO_ACCOUNTS, DEMO_SHOP } from "../../db/seed";
+import { DEMO_ACCOUNTS, DEMO_SHOP } from "../../db/demo";
 
 export const BIG_ART_PX = 6000;
 

@@ -20,7 +20,7 @@ import { DEFAULT_PRICE_MATRIX, formatCents } from "@/lib/pricing";
 import { quoteJob } from "@/lib/quotes";
 import type { Actor, Placeholder } from "./matrix";
 
-export const DEMO_SHOP_SLUG = "quarry-street";
+export const DEMO_SHOP_SLUG = "quarry-street-print-co";
 export const DEMO_PASSWORD = "chalkline-demo";
 export const DEMO_EMAILS = {
   owner: "owner@chalkline.test",

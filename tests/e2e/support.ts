@@ -4,7 +4,7 @@ import { expect } from "vitest";
 export const BASE_URL = process.env.E2E_BASE_URL ?? "http://localhost:3100";
 export const MAIL_API = process.env.MAIL_FAKE_API ?? "http://127.0.0.1:2590";
 export const DEMO_PASSWORD = "chalkline-demo";
-export const DEMO_SHOP = "quarry-street";
+export const DEMO_SHOP = "quarry-street-print-co";
 
 export async function launch(): Promise<Browser> {
   return chromium.launch({

@@ -5,7 +5,7 @@ import { findArtwork, insertUploadedArtwork, listArtworks, replaceArtwork } from
 import { artworks, placements, proofs, shops, users } from "@/db/schema";
 
 async function demo() {
-  const [shop] = await db.select().from(shops).where(eq(shops.slug, "quarry-street"));
+  const [shop] = await db.select().from(shops).where(eq(shops.slug, "quarry-street-print-co"));
   const [user] = await db.select().from(users).where(eq(users.email, "designer@chalkline.test"));
   return { shopId: shop!.id, userId: user!.id };
 }

@@ -15,7 +15,7 @@ let demoShopId: string;
 let otherShopId: string;
 
 beforeAll(async () => {
-  const [demo] = await db.select({ id: shops.id }).from(shops).where(eq(shops.slug, "quarry-street"));
+  const [demo] = await db.select({ id: shops.id }).from(shops).where(eq(shops.slug, "quarry-street-print-co"));
   demoShopId = demo!.id;
   const other = await createShopWithOwner({
     shopName: "Far Side Screens",

@@ -23,7 +23,7 @@ const { placements, proofs, shops, users } = await import("@/db/schema");
 const { toEditorDoc } = await import("@/lib/editor/from-server");
 type ProofDoc = import("@/lib/editor/document").ProofDoc;
 
-const SHOP = "quarry-street";
+const SHOP = "quarry-street-print-co";
 let shopId = "";
 let proofId = "";
 

@@ -13,7 +13,7 @@ import { signWebhookPayload, startStripeFake, type StripeFake } from "@/scripts/
 const secret = () => process.env.STRIPE_WEBHOOK_SECRET!;
 
 async function demoJob(title: string) {
-  const [shop] = await db.select().from(shops).where(eq(shops.slug, "quarry-street"));
+  const [shop] = await db.select().from(shops).where(eq(shops.slug, "quarry-street-print-co"));
   const [owner] = await db.select().from(users).where(eq(users.email, "owner@chalkline.test"));
   const [client] = await db.select().from(clients).where(eq(clients.name, "Eastfield Youth Soccer Club"));
   const input = {

@@ -7,7 +7,7 @@ import { proofToJson } from "@/lib/editor/proof-view";
 import type { Placement } from "@/lib/placement/model";
 
 async function demoTeeProof() {
-  const [shop] = await db.select().from(shops).where(eq(shops.slug, "quarry-street"));
+  const [shop] = await db.select().from(shops).where(eq(shops.slug, "quarry-street-print-co"));
   const [proof] = await db.select().from(proofs).where(eq(proofs.name, "Team tee"));
   const document = await getProofDocument({ shopId: shop!.id, proofId: proof!.id });
   return { shopId: shop!.id, document: document! };

@@ -6,7 +6,7 @@ import { createShareLink, hashShareToken, lookupShareToken, recordDecision, revo
 import { proofs, shareLinks, shops, users } from "@/db/schema";
 
 async function demo(name: string) {
-  const [shop] = await db.select().from(shops).where(eq(shops.slug, "quarry-street"));
+  const [shop] = await db.select().from(shops).where(eq(shops.slug, "quarry-street-print-co"));
   const [user] = await db.select().from(users).where(eq(users.email, "owner@chalkline.test"));
   const [proof] = await db.select().from(proofs).where(eq(proofs.name, name));
   const document = (await getProofDocument({ shopId: shop!.id, proofId: proof!.id }))!;

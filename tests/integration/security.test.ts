@@ -13,7 +13,7 @@ let commentToken = "";
 let approveToken = "";
 
 beforeAll(async () => {
-  const [shop] = await db.select().from(shops).where(eq(shops.slug, "quarry-street"));
+  const [shop] = await db.select().from(shops).where(eq(shops.slug, "quarry-street-print-co"));
   const [user] = await db.select().from(users).where(eq(users.email, "owner@chalkline.test"));
   const [proof] = await db.select().from(proofs).where(eq(proofs.name, "Market tote"));
   const base = { shopId: shop!.id, proofId: proof!.id, expiresAt: null, recipientEmail: null, recipientName: null, createdBy: user!.id };

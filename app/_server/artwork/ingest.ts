@@ -80,11 +80,39 @@ export async function ingestUploadedArtwork(input: IngestInput): Promise<IngestR
     await deleteStoredFile(input.fileKey);
     return { ok: false, message: bytes };
   }
-  const result = await analyzeArtwork(bytes, { name: input.name, type: input.declaredType });
-  if (!result.ok) {
-    await deleteStoredFile(input.fileKey);
-    return { ok: false, message: result.message };
+  const stored = await storeArtwork({ bytes, name: input.name, declaredType: input.declaredType, shopId: input.shopId, userId: input.userId, clientId: input.clientId, fileKey: input.fileKey, fileUrl: input.fileUrl });
+  if (!stored.ok) {
+    if (stored.refused) await deleteStoredFile(input.fileKey);
+    return { ok: false, message: stored.message };
   }
+  try {
+    // The raw SVG may hold scripts; only the sanitised copy in the database is ever served or printed.
+    if (stored.kind === "svg") await deleteStoredFile(input.fileKey);
+  } catch (error) {
+    console.error("[artwork ingest] storage clean-up", error);
+  }
+  return { ok: true, artworkId: stored.artworkId, notes: stored.notes };
+}
+
+export type StoreArtworkInput = {
+  bytes: Buffer;
+  name: string;
+  declaredType: string | null;
+  shopId: string;
+  userId: string;
+  clientId: string | null;
+  fileKey: string | null;
+  fileUrl: string | null;
+};
+
+/**
+ * Analyses art bytes without trusting their name or type and stores the analysis: measured ink
+ * bounds, quality, preview and thumbnail. Uploads come here once read back from storage; the demo
+ * art of the seed comes here too, so it is measured exactly as an upload is.
+ */
+export async function storeArtwork(input: StoreArtworkInput): Promise<{ ok: true; artworkId: string; notes: string[]; kind: string } | { ok: false; message: string; refused: boolean }> {
+  const result = await analyzeArtwork(input.bytes, { name: input.name, type: input.declaredType });
+  if (!result.ok) return { ok: false, message: result.message, refused: true };
   const a = result.analysis;
   const displayName = input.name.replace(/\.[a-z0-9]+$/i, "").slice(0, 120) || "Untitled art";
   try {
@@ -97,11 +125,9 @@ export async function ingestUploadedArtwork(input: IngestInput): Promise<IngestR
       fileUrl: input.fileUrl,
       uploadedBy: input.userId,
     });
-    // The raw SVG may hold scripts; only the sanitised copy in the database is ever served or printed.
-    if (a.kind === "svg") await deleteStoredFile(input.fileKey);
-    return { ok: true, artworkId, notes: a.notes };
+    return { ok: true, artworkId, notes: a.notes, kind: a.kind };
   } catch (error) {
     console.error("[artwork ingest]", error);
-    return { ok: false, message: "The art was read but could not be saved. Try again in a moment." };
+    return { ok: false, message: "The art was read but could not be saved. Try again in a moment.", refused: false };
   }
 }
