@@ -1,7 +1,7 @@
 import "server-only";
 import { createHash, randomBytes } from "node:crypto";
 import { and, count, eq, gt, inArray, isNull } from "drizzle-orm";
-import { keepsAnOwner, type ShopRole } from "@/lib/access";
+import { can, keepsAnOwner, type ShopRole } from "@/lib/access";
 import { db } from "../client";
 import { clients, invitations, jobs, memberships, shops, users } from "../schema";
 import { recordAudit } from "./audit";
@@ -218,15 +218,29 @@ async function lockMember(tx: Tx, shopId: string, membershipId: string) {
   return row;
 }
 
+/**
+ * Whether the person making a team change still may, read under the team lock: access was resolved
+ * before the transaction, and an owner demoted a moment ago must not finish a change of their own.
+ */
+async function stillManages(tx: Tx, shopId: string, userId: string): Promise<boolean> {
+  const [row] = await tx
+    .select({ role: memberships.role })
+    .from(memberships)
+    .where(and(eq(memberships.shopId, shopId), eq(memberships.userId, userId)));
+  return Boolean(row && can(row.role, "members.manage"));
+}
+
 export type TeamMember = { id: string; userId: string; email: string; name: string | null; role: ShopRole };
+export type TeamChangeRefusal = "forbidden" | "not-found" | "last-owner";
 export type TeamChangeResult =
   | { ok: true; member: TeamMember; previousRole: ShopRole; changed: boolean }
-  | { ok: false; reason: "not-found" | "last-owner" };
+  | { ok: false; reason: TeamChangeRefusal };
 
 /** Gives a member of the shop another role; the last owner keeps theirs. */
 export async function changeMemberRole(input: { shopId: string; membershipId: string; role: ShopRole; actorUserId: string }): Promise<TeamChangeResult> {
   return db.transaction(async (tx) => {
     await lockTeam(tx, input.shopId);
+    if (!(await stillManages(tx, input.shopId, input.actorUserId))) return { ok: false as const, reason: "forbidden" as const };
     const member = await lockMember(tx, input.shopId, input.membershipId);
     if (!member) return { ok: false as const, reason: "not-found" as const };
     if (member.role === input.role) return { ok: true as const, member, previousRole: member.role, changed: false };
@@ -253,6 +267,7 @@ export async function changeMemberRole(input: { shopId: string; membershipId: st
 export async function removeMember(input: { shopId: string; membershipId: string; actorUserId: string }): Promise<TeamChangeResult> {
   return db.transaction(async (tx) => {
     await lockTeam(tx, input.shopId);
+    if (!(await stillManages(tx, input.shopId, input.actorUserId))) return { ok: false as const, reason: "forbidden" as const };
     const member = await lockMember(tx, input.shopId, input.membershipId);
     if (!member) return { ok: false as const, reason: "not-found" as const };
     if (!keepsAnOwner(await countOwners(tx, input.shopId), member.role, { kind: "remove" })) return { ok: false as const, reason: "last-owner" as const };
@@ -274,16 +289,21 @@ export async function removeMember(input: { shopId: string; membershipId: string
 
 /**
  * Withdraws an open invitation of the shop: its row goes, so its link no longer works (the audit
- * log keeps who was invited). Undefined when there is no such open invitation in this shop.
+ * log keeps who was invited). Not found when there is no such open invitation in this shop.
  */
-export async function withdrawInvitation(input: { shopId: string; invitationId: string; actorUserId: string }) {
+export async function withdrawInvitation(input: {
+  shopId: string;
+  invitationId: string;
+  actorUserId: string;
+}): Promise<{ ok: true; invitation: { id: string; email: string; role: ShopRole } } | { ok: false; reason: "forbidden" | "not-found" }> {
   return db.transaction(async (tx) => {
     await lockTeam(tx, input.shopId);
+    if (!(await stillManages(tx, input.shopId, input.actorUserId))) return { ok: false as const, reason: "forbidden" as const };
     const [row] = await tx
       .delete(invitations)
       .where(and(eq(invitations.id, input.invitationId), eq(invitations.shopId, input.shopId), isNull(invitations.acceptedAt)))
       .returning({ id: invitations.id, email: invitations.email, role: invitations.role });
-    if (!row) return undefined;
+    if (!row) return { ok: false as const, reason: "not-found" as const };
     await recordAudit(
       {
         shopId: input.shopId,
@@ -295,7 +315,7 @@ export async function withdrawInvitation(input: { shopId: string; invitationId: 
       },
       tx,
     );
-    return row;
+    return { ok: true as const, invitation: row };
   });
 }
 

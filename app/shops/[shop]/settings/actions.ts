@@ -6,7 +6,7 @@ import { deniedAction, resolveShopAccess, type ActionResult } from "@/app/_serve
 import { appUrl } from "@/app/_server/config";
 import { composeMail } from "@/app/_server/emails";
 import { sendMailSafely } from "@/app/_server/mail";
-import { changeMemberRole, createInvitation, removeMember, withdrawInvitation, type TeamChangeResult } from "@/db/queries/shops";
+import { changeMemberRole, createInvitation, removeMember, withdrawInvitation, type TeamChangeRefusal, type TeamChangeResult } from "@/db/queries/shops";
 import { LAST_OWNER_MESSAGE, ROLE_LABELS, SHOP_ROLES, type ShopRole } from "@/lib/access";
 import { parseInput } from "@/lib/input";
 
@@ -56,8 +56,13 @@ const TRY_AGAIN = "The team could not be changed just now. Nothing was changed; 
 /** What a team change tells the owner, in words, or the refusal. */
 type TeamChangeView = { memberId: string; name: string; role: ShopRole | null; self: boolean; changed: boolean; message: string };
 
-function refusal(result: Extract<TeamChangeResult, { ok: false }>): ActionResult<never> {
-  return result.reason === "last-owner" ? { ok: false, error: LAST_OWNER_MESSAGE, status: 409 } : { ok: false, error: NOT_ON_TEAM, status: 404 };
+const FORBIDDEN = "Your role in this shop does not allow this.";
+
+function refusal(reason: TeamChangeRefusal, notFound = NOT_ON_TEAM): ActionResult<never> {
+  if (reason === "last-owner") return { ok: false, error: LAST_OWNER_MESSAGE, status: 409 };
+  // Their role changed between the access check and the change itself.
+  if (reason === "forbidden") return { ok: false, error: FORBIDDEN, status: 403 };
+  return { ok: false, error: notFound, status: 404 };
 }
 
 /** Gives a member another role. The shop's last owner keeps the owner role. */
@@ -74,7 +79,7 @@ export async function changeMemberRoleAction(input: z.input<typeof roleSchema>):
     console.error("[team] role change failed:", error instanceof Error ? error.message : error);
     return { ok: false, error: TRY_AGAIN };
   }
-  if (!result.ok) return refusal(result);
+  if (!result.ok) return refusal(result.reason);
   const { member } = result;
   const self = member.userId === actor.id;
   const name = member.name ?? member.email;
@@ -107,7 +112,7 @@ export async function removeMemberAction(input: z.input<typeof memberSchema>): P
     console.error("[team] removal failed:", error instanceof Error ? error.message : error);
     return { ok: false, error: TRY_AGAIN };
   }
-  if (!result.ok) return refusal(result);
+  if (!result.ok) return refusal(result.reason);
   const { member } = result;
   const self = member.userId === actor.id;
   const name = member.name ?? member.email;
@@ -125,14 +130,15 @@ export async function withdrawInvitationAction(input: z.input<typeof invitationS
   const access = await resolveShopAccess(parsed.data.shopSlug, "members.manage");
   if (access.kind !== "ok") return deniedAction(access);
   const { shop, actor } = access.access;
-  let row: Awaited<ReturnType<typeof withdrawInvitation>>;
+  let result: Awaited<ReturnType<typeof withdrawInvitation>>;
   try {
-    row = await withdrawInvitation({ shopId: shop.id, invitationId: parsed.data.invitationId, actorUserId: actor.id });
+    result = await withdrawInvitation({ shopId: shop.id, invitationId: parsed.data.invitationId, actorUserId: actor.id });
   } catch (error) {
     console.error("[team] withdrawal failed:", error instanceof Error ? error.message : error);
     return { ok: false, error: TRY_AGAIN };
   }
-  if (!row) return { ok: false, error: "That invitation is already used or withdrawn. Reload the page to see the open ones.", status: 404 };
+  if (!result.ok) return refusal(result.reason, "That invitation is already used or withdrawn. Reload the page to see the open ones.");
+  const { invitation } = result;
   revalidatePath(`/shops/${shop.slug}/settings`);
-  return { ok: true, data: { invitationId: row.id, message: `The invitation to ${row.email} is withdrawn; its link no longer works.` } };
+  return { ok: true, data: { invitationId: invitation.id, message: `The invitation to ${invitation.email} is withdrawn; its link no longer works.` } };
 }
