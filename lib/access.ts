@@ -10,6 +10,7 @@ export const PERMISSIONS = [
   "shop.view",
   "shop.settings",
   "members.invite",
+  "members.manage",
   "clients.view",
   "clients.edit",
   "jobs.view",
@@ -59,6 +60,25 @@ export const ROLE_DESCRIPTIONS: Record<ShopRole, string> = {
   designer: "Builds proofs, places art and talks with clients. Sees prices, cannot change them.",
   production: "Sees jobs, quantities and production specs. No prices.",
 };
+
+/** Said whenever a change to the team would leave the shop without an owner. */
+export const LAST_OWNER_MESSAGE = "A shop needs at least one owner. Make someone else an owner first.";
+
+/** A change to one member of a shop's team: a new role, or off the team. */
+export type TeamChange = { kind: "role"; role: ShopRole } | { kind: "remove" };
+
+/**
+ * How many owners a shop has after one member's change. A change stands only if this stays above
+ * zero, so the last owner can be neither removed nor given another role (product rule, no outside source).
+ */
+export function ownersAfter(ownerCount: number, memberRole: ShopRole, change: TeamChange): number {
+  if (memberRole !== "owner") return ownerCount + (change.kind === "role" && change.role === "owner" ? 1 : 0);
+  return change.kind === "role" && change.role === "owner" ? ownerCount : ownerCount - 1;
+}
+
+export function keepsAnOwner(ownerCount: number, memberRole: ShopRole, change: TeamChange): boolean {
+  return ownersAfter(ownerCount, memberRole, change) > 0;
+}
 
 export type NavItem = { key: string; label: string; href: string };
 

@@ -1,6 +1,7 @@
 import "server-only";
 import { createHash, randomBytes } from "node:crypto";
 import { and, count, eq, gt, inArray, isNull } from "drizzle-orm";
+import { can, keepsAnOwner, type ShopRole } from "@/lib/access";
 import { db } from "../client";
 import { clients, invitations, jobs, memberships, shops, users } from "../schema";
 import { recordAudit } from "./audit";
@@ -148,6 +149,15 @@ export async function acceptInvitation(input: {
   if (invite.acceptedAt) return { ok: false, message: "This invitation has already been used." };
   if (invite.expiresAt < new Date()) return { ok: false, message: "This invitation has expired. Ask the shop owner for a new one." };
   return db.transaction(async (tx) => {
+    // Takes its turn with the shop's other team changes, then checks the invitation is still open:
+    // an owner may have withdrawn it, or a second click accepted it, since it was read above.
+    await lockTeam(tx, invite.shopId);
+    const [open] = await tx
+      .select({ id: invitations.id })
+      .from(invitations)
+      .where(and(eq(invitations.id, invite.id), isNull(invitations.acceptedAt)))
+      .for("update");
+    if (!open) return { ok: false as const, message: "This invitation can no longer be used. Ask the shop owner for a new one." };
     let [user] = await tx.select({ id: users.id }).from(users).where(eq(users.email, invite.email)).limit(1);
     if (!user) {
       if (!input.passwordHash || !input.name) return { ok: false as const, message: "Choose a name and a password to join." };
@@ -155,6 +165,15 @@ export async function acceptInvitation(input: {
         .insert(users)
         .values({ email: invite.email, name: input.name, passwordHash: input.passwordHash, emailVerified: new Date() })
         .returning({ id: users.id });
+    }
+    // Someone already on the team takes the invitation's role, unless that would leave no owner.
+    const [current] = await tx
+      .select({ role: memberships.role })
+      .from(memberships)
+      .where(and(eq(memberships.shopId, invite.shopId), eq(memberships.userId, user!.id)))
+      .for("update");
+    if (current && !keepsAnOwner(await countOwners(tx, invite.shopId), current.role, { kind: "role", role: invite.role })) {
+      return { ok: false as const, message: "You are this shop's only owner, so this invitation cannot change your role. Make someone else an owner first." };
     }
     await tx
       .insert(memberships)
@@ -166,6 +185,137 @@ export async function acceptInvitation(input: {
       tx,
     );
     return { ok: true as const, shopSlug: invite.shopSlug, email: invite.email };
+  });
+}
+
+type Tx = Parameters<Parameters<typeof db.transaction>[0]>[0];
+
+/**
+ * Changes to one shop's team take turns: each locks the shop's row before it reads who the owners
+ * are, so two changes at once can never both count an owner that the other is taking away. NO KEY
+ * UPDATE, so rows that only reference the shop (new jobs, clients) are not held up meanwhile.
+ */
+async function lockTeam(tx: Tx, shopId: string): Promise<void> {
+  await tx.select({ id: shops.id }).from(shops).where(eq(shops.id, shopId)).for("no key update");
+}
+
+async function countOwners(tx: Tx, shopId: string): Promise<number> {
+  const [row] = await tx
+    .select({ n: count() })
+    .from(memberships)
+    .where(and(eq(memberships.shopId, shopId), eq(memberships.role, "owner")));
+  return row?.n ?? 0;
+}
+
+/** One member of the shop's team, its row locked until the transaction ends; undefined when not in this shop. */
+async function lockMember(tx: Tx, shopId: string, membershipId: string) {
+  const [row] = await tx
+    .select({ id: memberships.id, userId: memberships.userId, role: memberships.role, email: users.email, name: users.name })
+    .from(memberships)
+    .innerJoin(users, eq(users.id, memberships.userId))
+    .where(and(eq(memberships.id, membershipId), eq(memberships.shopId, shopId)))
+    .for("update", { of: memberships });
+  return row;
+}
+
+/**
+ * Whether the person making a team change still may, read under the team lock: access was resolved
+ * before the transaction, and an owner demoted a moment ago must not finish a change of their own.
+ */
+async function stillManages(tx: Tx, shopId: string, userId: string): Promise<boolean> {
+  const [row] = await tx
+    .select({ role: memberships.role })
+    .from(memberships)
+    .where(and(eq(memberships.shopId, shopId), eq(memberships.userId, userId)));
+  return Boolean(row && can(row.role, "members.manage"));
+}
+
+export type TeamMember = { id: string; userId: string; email: string; name: string | null; role: ShopRole };
+export type TeamChangeRefusal = "forbidden" | "not-found" | "last-owner";
+export type TeamChangeResult =
+  | { ok: true; member: TeamMember; previousRole: ShopRole; changed: boolean }
+  | { ok: false; reason: TeamChangeRefusal };
+
+/** Gives a member of the shop another role; the last owner keeps theirs. */
+export async function changeMemberRole(input: { shopId: string; membershipId: string; role: ShopRole; actorUserId: string }): Promise<TeamChangeResult> {
+  return db.transaction(async (tx) => {
+    await lockTeam(tx, input.shopId);
+    if (!(await stillManages(tx, input.shopId, input.actorUserId))) return { ok: false as const, reason: "forbidden" as const };
+    const member = await lockMember(tx, input.shopId, input.membershipId);
+    if (!member) return { ok: false as const, reason: "not-found" as const };
+    if (member.role === input.role) return { ok: true as const, member, previousRole: member.role, changed: false };
+    if (!keepsAnOwner(await countOwners(tx, input.shopId), member.role, { kind: "role", role: input.role })) {
+      return { ok: false as const, reason: "last-owner" as const };
+    }
+    await tx.update(memberships).set({ role: input.role }).where(eq(memberships.id, member.id));
+    await recordAudit(
+      {
+        shopId: input.shopId,
+        actorUserId: input.actorUserId,
+        action: "member.role-changed",
+        subjectType: "membership",
+        subjectId: member.id,
+        detail: { userId: member.userId, email: member.email, from: member.role, role: input.role },
+      },
+      tx,
+    );
+    return { ok: true as const, member: { ...member, role: input.role }, previousRole: member.role, changed: true };
+  });
+}
+
+/** Takes a member off the shop's team; the last owner stays. Their account and their work in the shop remain. */
+export async function removeMember(input: { shopId: string; membershipId: string; actorUserId: string }): Promise<TeamChangeResult> {
+  return db.transaction(async (tx) => {
+    await lockTeam(tx, input.shopId);
+    if (!(await stillManages(tx, input.shopId, input.actorUserId))) return { ok: false as const, reason: "forbidden" as const };
+    const member = await lockMember(tx, input.shopId, input.membershipId);
+    if (!member) return { ok: false as const, reason: "not-found" as const };
+    if (!keepsAnOwner(await countOwners(tx, input.shopId), member.role, { kind: "remove" })) return { ok: false as const, reason: "last-owner" as const };
+    await tx.delete(memberships).where(eq(memberships.id, member.id));
+    await recordAudit(
+      {
+        shopId: input.shopId,
+        actorUserId: input.actorUserId,
+        action: "member.removed",
+        subjectType: "membership",
+        subjectId: member.id,
+        detail: { userId: member.userId, email: member.email, role: member.role },
+      },
+      tx,
+    );
+    return { ok: true as const, member, previousRole: member.role, changed: true };
+  });
+}
+
+/**
+ * Withdraws an open invitation of the shop: its row goes, so its link no longer works (the audit
+ * log keeps who was invited). Not found when there is no such open invitation in this shop.
+ */
+export async function withdrawInvitation(input: {
+  shopId: string;
+  invitationId: string;
+  actorUserId: string;
+}): Promise<{ ok: true; invitation: { id: string; email: string; role: ShopRole } } | { ok: false; reason: "forbidden" | "not-found" }> {
+  return db.transaction(async (tx) => {
+    await lockTeam(tx, input.shopId);
+    if (!(await stillManages(tx, input.shopId, input.actorUserId))) return { ok: false as const, reason: "forbidden" as const };
+    const [row] = await tx
+      .delete(invitations)
+      .where(and(eq(invitations.id, input.invitationId), eq(invitations.shopId, input.shopId), isNull(invitations.acceptedAt)))
+      .returning({ id: invitations.id, email: invitations.email, role: invitations.role });
+    if (!row) return { ok: false as const, reason: "not-found" as const };
+    await recordAudit(
+      {
+        shopId: input.shopId,
+        actorUserId: input.actorUserId,
+        action: "member.invitation-withdrawn",
+        subjectType: "invitation",
+        subjectId: row.id,
+        detail: { email: row.email, role: row.role },
+      },
+      tx,
+    );
+    return { ok: true as const, invitation: row };
   });
 }
 

@@ -14,8 +14,9 @@ import { acceptQuote, sendQuote } from "@/db/queries/orders";
 import { createExport, markExport } from "@/db/queries/production";
 import { getProofDocument } from "@/db/queries/proofs";
 import { addComment, createShareLink, revokeShareLink, sendRevision } from "@/db/queries/review";
-import { createInvitation, createShopWithOwner } from "@/db/queries/shops";
-import { artworks, clients, placements, proofs, shops, users } from "@/db/schema";
+import { acceptInvitation, createInvitation, createShopWithOwner } from "@/db/queries/shops";
+import { artworks, clients, memberships, placements, proofs, shops, users } from "@/db/schema";
+import type { ShopRole } from "@/lib/access";
 import { DEFAULT_PRICE_MATRIX, formatCents } from "@/lib/pricing";
 import { quoteJob } from "@/lib/quotes";
 import type { Actor, Placeholder } from "./matrix";
@@ -140,6 +141,27 @@ export async function finishedExport(shopId: string, jobId: string, userId: stri
   const id = await createExport({ shopId, jobId, kind: "spec-sheet", params: {}, requestedBy: userId });
   await markExport(id, { state: "done", progress: 1, fileName: "matrix-spec.pdf", mime: "application/pdf", result: Buffer.from("%PDF-1.4\n% authz matrix\n"), finishedAt: new Date() });
   return id;
+}
+
+/** The password of every team member these fixtures add; hashed once per test process. */
+export const MEMBER_PASSWORD = "a-long-enough-password";
+let memberHash: Promise<string> | undefined;
+
+/**
+ * Adds a new person to a shop's team the way the product does: an invitation from the owner,
+ * accepted with a new account. Returns the membership id (what the team actions take) and the user.
+ */
+export async function addTeamMember(input: { shopId: string; ownerId: string; email: string; name: string; role: ShopRole }): Promise<{ memberId: string; user: FixtureUser }> {
+  memberHash ??= bcrypt.hash(MEMBER_PASSWORD, 10);
+  const { token } = await createInvitation({ shopId: input.shopId, email: input.email, role: input.role, invitedBy: input.ownerId });
+  const accepted = await acceptInvitation({ token, name: input.name, passwordHash: await memberHash });
+  if (!accepted.ok) throw new Error(`${input.email} could not join: ${accepted.message}`);
+  const [row] = await db
+    .select({ memberId: memberships.id, id: users.id, email: users.email, name: users.name })
+    .from(memberships)
+    .innerJoin(users, eq(users.id, memberships.userId))
+    .where(and(eq(memberships.shopId, input.shopId), eq(users.email, accepted.email)));
+  return { memberId: row!.memberId, user: { id: row!.id, email: row!.email, name: row!.name } };
 }
 
 /** One shop's own working set: a client, a job, two pieces of art, a sent proof with a share link, an accepted quote, a finished export and a blank. */

@@ -326,6 +326,15 @@ export const ACTION_ROWS: ActionRow[] = [
   action("revoke-share-link/their-slug", A.share,     "revokeShareLinkAction",     "404 404 404 404 401 404 401"),
   action("revoke-share-link/their-ids", A.share,      "revokeShareLinkAction",     "404 404 403 403 401 404 401"),
   action("invite-member/ours",          A.settings,   "inviteMemberAction",        "ok 403 403 403 401 404 401"),
+  action("change-member-role/ours",     A.settings,   "changeMemberRoleAction",    "ok 403 403 403 401 404 401", { note: "a member the fixtures added to our shop, never a demo member" }),
+  action("change-member-role/their-slug", A.settings, "changeMemberRoleAction",    "404 404 404 404 401 404 401"),
+  action("change-member-role/their-ids", A.settings,  "changeMemberRoleAction",    "404 403 403 403 401 404 401"),
+  action("remove-member/ours",          A.settings,   "removeMemberAction",        "ok 403 403 403 401 404 401", { note: "a member the fixtures added to our shop, never a demo member" }),
+  action("remove-member/their-slug",    A.settings,   "removeMemberAction",        "404 404 404 404 401 404 401"),
+  action("remove-member/their-ids",     A.settings,   "removeMemberAction",        "404 403 403 403 401 404 401"),
+  action("withdraw-invitation/ours",    A.settings,   "withdrawInvitationAction",  "ok 403 403 403 401 404 401"),
+  action("withdraw-invitation/their-slug", A.settings, "withdrawInvitationAction", "404 404 404 404 401 404 401"),
+  action("withdraw-invitation/their-ids", A.settings, "withdrawInvitationAction",  "404 403 403 403 401 404 401"),
 ];
 
 export const MATRIX: MatrixRow[] = [...PAGE_ROWS, ...ROUTE_ROWS, ...ACTION_ROWS];

@@ -5,7 +5,7 @@
  */
 import path from "node:path";
 import { fileURLToPath } from "node:url";
-import { eq, sql } from "drizzle-orm";
+import { eq, inArray, sql } from "drizzle-orm";
 import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
 import { saveProofAction } from "@/app/shops/[shop]/proofs/[proofId]/actions";
 import { db } from "@/db/client";
@@ -15,10 +15,10 @@ import { createExport, markExport } from "@/db/queries/production";
 import { getProofDocument } from "@/db/queries/proofs";
 import { createShareLink } from "@/db/queries/review";
 import { createInvitation } from "@/db/queries/shops";
-import { proofs, shops } from "@/db/schema";
+import { invitations, memberships, proofs, shops } from "@/db/schema";
 import { DEFAULT_PRICE_MATRIX } from "@/lib/pricing";
 import { ACTION_ROWS, ACTORS, outcomeLabel, type Actor, type ActionOutcome, type ActionRow } from "@/tests/authz/matrix";
-import { blankFormValues, buildAuthzFixture, insertArt, insertProof, jobFormInput, LIBRARY_TEE, type AuthzFixture, type FixtureUser } from "@/tests/authz/fixtures";
+import { addTeamMember, blankFormValues, buildAuthzFixture, insertArt, insertProof, jobFormInput, LIBRARY_TEE, type AuthzFixture, type FixtureUser } from "@/tests/authz/fixtures";
 
 const session = vi.hoisted(() => ({ user: null as null | { id: string; email: string; name: string | null } }));
 vi.mock("@/app/_server/auth", () => ({
@@ -43,13 +43,27 @@ vi.mock("@/app/_server/queue", () => ({
 
 const repoRoot = fileURLToPath(new URL("../..", import.meta.url));
 
-type PerActor = { oldArt: string; newArt: string; failedExport: string; linkId: string; inviteToken: string; draftProofId: string };
+type PerActor = {
+  oldArt: string;
+  newArt: string;
+  failedExport: string;
+  linkId: string;
+  inviteToken: string;
+  /** Members and an open invitation the fixtures add to our shop for the team rows; demo members are never changed. */
+  roleMemberId: string;
+  removeMemberId: string;
+  invitationId: string;
+  draftProofId: string;
+};
 type Ctx = { f: AuthzFixture; actor: Actor; unique: string; mine: PerActor };
 type Input = (ctx: Ctx) => unknown;
 
 let f: AuthzFixture;
 const perActor = {} as Record<Actor, PerActor>;
 let archiveClientId = "";
+/** A member and an open invitation of the second shop, for the "their-ids" team rows. */
+let otherMemberId = "";
+let otherInvitationId = "";
 let savedPrices: { priceMatrix: unknown; priceMatrixUpdatedAt: Date | null } | undefined;
 
 async function blankValues(blankId: string, description: string) {
@@ -147,6 +161,15 @@ const INPUTS: Record<string, Input> = {
   "revoke-share-link/their-ids": ({ f }) => ({ shopSlug: f.shop.slug, linkId: f.ids.otherLinkId }),
 
   "invite-member/ours": ({ f, unique }) => ({ shopSlug: f.shop.slug, email: `invited-${unique}@example.test`, role: "production" }),
+  "change-member-role/ours": ({ f, mine }) => ({ shopSlug: f.shop.slug, memberId: mine.roleMemberId, role: "designer" }),
+  "change-member-role/their-slug": ({ f, mine }) => ({ shopSlug: f.other.slug, memberId: mine.roleMemberId, role: "owner" }),
+  "change-member-role/their-ids": ({ f }) => ({ shopSlug: f.shop.slug, memberId: otherMemberId, role: "owner" }),
+  "remove-member/ours": ({ f, mine }) => ({ shopSlug: f.shop.slug, memberId: mine.removeMemberId }),
+  "remove-member/their-slug": ({ f, mine }) => ({ shopSlug: f.other.slug, memberId: mine.removeMemberId }),
+  "remove-member/their-ids": ({ f }) => ({ shopSlug: f.shop.slug, memberId: otherMemberId }),
+  "withdraw-invitation/ours": ({ f, mine }) => ({ shopSlug: f.shop.slug, invitationId: mine.invitationId }),
+  "withdraw-invitation/their-slug": ({ f, mine }) => ({ shopSlug: f.other.slug, invitationId: mine.invitationId }),
+  "withdraw-invitation/their-ids": ({ f }) => ({ shopSlug: f.shop.slug, invitationId: otherInvitationId }),
 };
 
 /** A digest of every table in the database: a refused call must leave it unchanged. */
@@ -200,13 +223,26 @@ beforeAll(async () => {
     // Invitations to the second shop: whoever accepts them, the demo shop's team stays as it is.
     const { token } = await createInvitation({ shopId: f.other.id, email: `joiner-${f.tag}-${actor}@example.test`, role: "production", invitedBy: f.users.other.id });
     const draftProofId = await insertProof(f.shop.id, f.ids.siblingJobId, `Matrix spare draft ${f.tag} ${actor}`, oldArt, f.users.designer.id);
-    perActor[actor] = { oldArt, newArt, failedExport, linkId: link.id, inviteToken: token, draftProofId };
+    // Team rows: people of our own in our shop (the owner's allowed calls change them, nobody else's).
+    const crew = (role: string) => ({ shopId: f.shop.id, ownerId: f.users.owner.id, email: `matrix-${role}-${f.tag}-${actor}@example.test`, name: `Matrix ${role} ${actor}`, role: "production" as const });
+    const roleMember = await addTeamMember(crew("recast"));
+    const removeMember = await addTeamMember(crew("leaver"));
+    const { invitationId } = await createInvitation({ shopId: f.shop.id, email: `matrix-pending-${f.tag}-${actor}@example.test`, role: "designer", invitedBy: f.users.owner.id });
+    perActor[actor] = { oldArt, newArt, failedExport, linkId: link.id, inviteToken: token, roleMemberId: roleMember.memberId, removeMemberId: removeMember.memberId, invitationId, draftProofId };
   }
+  otherMemberId = (await addTeamMember({ shopId: f.other.id, ownerId: f.users.other.id, email: `matrix-their-crew-${f.tag}@example.test`, name: "Matrix their crew", role: "designer" })).memberId;
+  otherInvitationId = (await createInvitation({ shopId: f.other.id, email: `matrix-their-pending-${f.tag}@example.test`, role: "designer", invitedBy: f.users.other.id })).invitationId;
 });
 
 afterAll(async () => {
   // The owner's allowed save wrote the demo matrix; put the shop's prices back as they were.
   if (savedPrices) await db.update(shops).set(savedPrices).where(eq(shops.id, f.shop.id));
+  // The people and invitations the team rows added to our shop go again, so the demo team stays as it was.
+  const added = Object.values(perActor);
+  if (added.length) {
+    await db.delete(memberships).where(inArray(memberships.id, added.flatMap((p) => [p.roleMemberId, p.removeMemberId])));
+    await db.delete(invitations).where(inArray(invitations.id, added.map((p) => p.invitationId)));
+  }
   session.user = null;
 });
 

@@ -22,7 +22,7 @@ import { addComment } from "@/db/queries/review";
 import { createInvitation } from "@/db/queries/shops";
 import { DEFAULT_PRICE_MATRIX } from "@/lib/pricing";
 import { readAppSurface } from "@/tests/authz/app-surface";
-import { blankFormValues, buildAuthzFixture, buildShopRecords, jobFormInput, LIBRARY_TEE, type AuthzFixture, type FixtureUser, type ShopRecords } from "@/tests/authz/fixtures";
+import { addTeamMember, blankFormValues, buildAuthzFixture, buildShopRecords, jobFormInput, LIBRARY_TEE, type AuthzFixture, type FixtureUser, type ShopRecords } from "@/tests/authz/fixtures";
 import { actionInput, boundaryCases, hostileSegment, leaks, rawBody, type RawBody } from "@/tests/fuzz/hostile";
 
 const session = vi.hoisted(() => ({ user: null as null | { id: string; email: string; name: string | null } }));
@@ -42,7 +42,7 @@ vi.mock("@/app/_server/queue", () => ({
 const repoRoot = fileURLToPath(new URL("../..", import.meta.url));
 const SEED = Number(process.env.FUZZ_SEED ?? Date.now() % 2 ** 31);
 const SCALE = Number(process.env.FUZZ_SCALE ?? 1);
-/** Inputs per server action and per route method; 21 actions and 8 route methods make over 10,000. */
+/** Inputs per server action and per route method; 24 actions and 8 route methods make over 10,000. */
 const PER_ACTION = Math.round(360 * SCALE);
 const PER_ROUTE = Math.round(400 * SCALE);
 const PER_GET = Math.round(60 * SCALE);
@@ -55,7 +55,7 @@ let other: FixtureUser;
  * A fresh working set of the second shop for one target, so no earlier target's fuzz cases (a job
  * saved without print locations, a revoked link, a replaced art) can make its valid input fail.
  */
-type FuzzState = ShopRecords & { invite: string; failedExport: string; commentId: string };
+type FuzzState = ShopRecords & { invite: string; failedExport: string; commentId: string; memberId: string; openInvitationId: string };
 let state: FuzzState;
 let freshCount = 0;
 
@@ -67,7 +67,10 @@ async function freshState(): Promise<FuzzState> {
   const failedExport = await createExport({ shopId: f.other.id, jobId: records.jobId, kind: "spec-sheet", params: {}, requestedBy: other.id });
   await markExport(failedExport, { state: "failed", message: "Failed for the fuzzer." });
   const commentId = (await addComment({ proofId: records.proofId, revisionLetter: "A", parentId: null, side: "front", xIn: 0, yIn: 5, body: "Fuzz note", authorName: "Odile Marsh", authorRole: "shop", authorUserId: other.id, shareLinkId: null })).id;
-  return { ...records, invite, failedExport, commentId };
+  // A member of the team (joined as production) and an open invitation, for the team actions.
+  const { memberId } = await addTeamMember({ shopId: f.other.id, ownerId: other.id, email: `fuzz-crew-${tag}@example.test`, name: "Fen Ashby", role: "production" });
+  const openInvitationId = (await createInvitation({ shopId: f.other.id, email: `fuzz-pending-${tag}@example.test`, role: "designer", invitedBy: other.id })).invitationId;
+  return { ...records, invite, failedExport, commentId, memberId, openInvitationId };
 }
 
 type Problem = { target: string; input: string; what: string };
@@ -149,6 +152,9 @@ async function actionBases(s: FuzzState): Promise<Record<string, unknown>> {
     listShareLinksAction: { shopSlug, proofId: s.proofId },
     revokeShareLinkAction: { shopSlug, linkId: s.linkId },
     inviteMemberAction: { shopSlug, email: `crew-${f.tag}@example.test`, role: "designer" },
+    changeMemberRoleAction: { shopSlug, memberId: s.memberId, role: "designer" },
+    removeMemberAction: { shopSlug, memberId: s.memberId },
+    withdrawInvitationAction: { shopSlug, invitationId: s.openInvitationId },
   };
 }
 

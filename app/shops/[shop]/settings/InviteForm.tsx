@@ -4,6 +4,7 @@ import { zodResolver } from "@hookform/resolvers/zod";
 import { useState } from "react";
 import { useForm } from "react-hook-form";
 import { z } from "zod";
+import { useHydrated } from "@/components/orders/useHydrated";
 import { ROLE_DESCRIPTIONS, ROLE_LABELS, SHOP_ROLES } from "@/lib/access";
 import { inviteMemberAction } from "./actions";
 
@@ -14,6 +15,7 @@ const schema = z.object({
 type Values = z.infer<typeof schema>;
 
 export function InviteForm({ shopSlug }: { shopSlug: string }) {
+  const hydrated = useHydrated();
   const [notice, setNotice] = useState<{ tone: "ok" | "warn" | "error"; text: string; link?: string }>();
   const {
     register,
@@ -38,7 +40,7 @@ export function InviteForm({ shopSlug }: { shopSlug: string }) {
   });
 
   return (
-    <form onSubmit={onSubmit} className="card space-y-4 p-5" noValidate aria-label="Invite a team member">
+    <form onSubmit={onSubmit} className="card space-y-4 p-5" noValidate aria-label="Invite a team member" data-hydrated={hydrated}>
       <h2 className="text-lg">Invite someone</h2>
       <div>
         <label htmlFor="invite-email" className="field-label">

@@ -6,8 +6,8 @@ import { deniedAction, resolveShopAccess, type ActionResult } from "@/app/_serve
 import { appUrl } from "@/app/_server/config";
 import { composeMail } from "@/app/_server/emails";
 import { sendMailSafely } from "@/app/_server/mail";
-import { createInvitation } from "@/db/queries/shops";
-import { ROLE_LABELS, SHOP_ROLES } from "@/lib/access";
+import { changeMemberRole, createInvitation, removeMember, withdrawInvitation, type TeamChangeRefusal, type TeamChangeResult } from "@/db/queries/shops";
+import { LAST_OWNER_MESSAGE, ROLE_LABELS, SHOP_ROLES, type ShopRole } from "@/lib/access";
 import { parseInput } from "@/lib/input";
 
 const inviteSchema = z.object({
@@ -43,4 +43,102 @@ export async function inviteMemberAction(input: z.input<typeof inviteSchema>): P
   );
   revalidatePath(`/shops/${shop.slug}/settings`);
   return { ok: true, data: { emailed: mail.sent, link } };
+}
+
+const recordId = z.string().trim().min(1).max(80);
+const memberSchema = z.object({ shopSlug: z.string().min(1).max(80), memberId: recordId });
+const roleSchema = memberSchema.extend({ role: z.enum(SHOP_ROLES, { message: "Pick a role." }) });
+const invitationSchema = z.object({ shopSlug: z.string().min(1).max(80), invitationId: recordId });
+
+const NOT_ON_TEAM = "That person is not on this team (any more). Reload the page to see the team as it is.";
+const TRY_AGAIN = "The team could not be changed just now. Nothing was changed; try again.";
+
+/** What a team change tells the owner, in words, or the refusal. */
+type TeamChangeView = { memberId: string; name: string; role: ShopRole | null; self: boolean; changed: boolean; message: string };
+
+const FORBIDDEN = "Your role in this shop does not allow this.";
+
+function refusal(reason: TeamChangeRefusal, notFound = NOT_ON_TEAM): ActionResult<never> {
+  if (reason === "last-owner") return { ok: false, error: LAST_OWNER_MESSAGE, status: 409 };
+  // Their role changed between the access check and the change itself.
+  if (reason === "forbidden") return { ok: false, error: FORBIDDEN, status: 403 };
+  return { ok: false, error: notFound, status: 404 };
+}
+
+/** Gives a member another role. The shop's last owner keeps the owner role. */
+export async function changeMemberRoleAction(input: z.input<typeof roleSchema>): Promise<ActionResult<TeamChangeView>> {
+  const parsed = parseInput(roleSchema, input);
+  if (!parsed.success) return { ok: false, error: "Pick a role for a member of this team.", fieldErrors: z.flattenError(parsed.error).fieldErrors };
+  const access = await resolveShopAccess(parsed.data.shopSlug, "members.manage");
+  if (access.kind !== "ok") return deniedAction(access);
+  const { shop, actor } = access.access;
+  let result: TeamChangeResult;
+  try {
+    result = await changeMemberRole({ shopId: shop.id, membershipId: parsed.data.memberId, role: parsed.data.role, actorUserId: actor.id });
+  } catch (error) {
+    console.error("[team] role change failed:", error instanceof Error ? error.message : error);
+    return { ok: false, error: TRY_AGAIN };
+  }
+  if (!result.ok) return refusal(result.reason);
+  const { member } = result;
+  const self = member.userId === actor.id;
+  const name = member.name ?? member.email;
+  const label = ROLE_LABELS[member.role].toLowerCase();
+  if (!self) revalidatePath(`/shops/${shop.slug}/settings`);
+  return {
+    ok: true,
+    data: {
+      memberId: member.id,
+      name,
+      role: member.role,
+      self,
+      changed: result.changed,
+      message: !result.changed ? `${name} is already ${label}.` : self ? `You are now ${label} in ${shop.name}.` : `${name} is now ${label}.`,
+    },
+  };
+}
+
+/** Takes a member off the team. The shop's last owner stays; anyone else, the owner themselves included, may go. */
+export async function removeMemberAction(input: z.input<typeof memberSchema>): Promise<ActionResult<TeamChangeView>> {
+  const parsed = parseInput(memberSchema, input);
+  if (!parsed.success) return { ok: false, error: "Pick a member of this team." };
+  const access = await resolveShopAccess(parsed.data.shopSlug, "members.manage");
+  if (access.kind !== "ok") return deniedAction(access);
+  const { shop, actor } = access.access;
+  let result: TeamChangeResult;
+  try {
+    result = await removeMember({ shopId: shop.id, membershipId: parsed.data.memberId, actorUserId: actor.id });
+  } catch (error) {
+    console.error("[team] removal failed:", error instanceof Error ? error.message : error);
+    return { ok: false, error: TRY_AGAIN };
+  }
+  if (!result.ok) return refusal(result.reason);
+  const { member } = result;
+  const self = member.userId === actor.id;
+  const name = member.name ?? member.email;
+  if (!self) revalidatePath(`/shops/${shop.slug}/settings`);
+  return {
+    ok: true,
+    data: { memberId: member.id, name, role: null, self, changed: true, message: self ? `You left ${shop.name}.` : `${name} is no longer on the team.` },
+  };
+}
+
+/** Withdraws an open invitation: its link stops working at once. */
+export async function withdrawInvitationAction(input: z.input<typeof invitationSchema>): Promise<ActionResult<{ invitationId: string; message: string }>> {
+  const parsed = parseInput(invitationSchema, input);
+  if (!parsed.success) return { ok: false, error: "Pick an open invitation of this shop." };
+  const access = await resolveShopAccess(parsed.data.shopSlug, "members.manage");
+  if (access.kind !== "ok") return deniedAction(access);
+  const { shop, actor } = access.access;
+  let result: Awaited<ReturnType<typeof withdrawInvitation>>;
+  try {
+    result = await withdrawInvitation({ shopId: shop.id, invitationId: parsed.data.invitationId, actorUserId: actor.id });
+  } catch (error) {
+    console.error("[team] withdrawal failed:", error instanceof Error ? error.message : error);
+    return { ok: false, error: TRY_AGAIN };
+  }
+  if (!result.ok) return refusal(result.reason, "That invitation is already used or withdrawn. Reload the page to see the open ones.");
+  const { invitation } = result;
+  revalidatePath(`/shops/${shop.slug}/settings`);
+  return { ok: true, data: { invitationId: invitation.id, message: `The invitation to ${invitation.email} is withdrawn; its link no longer works.` } };
 }
