@@ -5,9 +5,9 @@ const TEXT: Record<string, (d: Record<string, unknown>) => string> = {
   "member.joined": (d) => `A new ${String(d.role ?? "member")} joined the team.`,
   "client.created": (d) => `New client: ${String(d.name ?? "")}.`,
   "job.created": (d) => `New job: ${String(d.title ?? "")}.`,
-  "proof.saved": (d) => `Proof ${String(d.revision ?? "")} was updated.`,
   "quote.held": (d) =>
     `The client could not ${d.via === "checkout" ? "pay" : "accept"} quote Q${String(d.number ?? "")}${d.title ? ` for ${String(d.title)}` : ""}: the proof prints on the ${Array.isArray(d.missing) && d.missing.length ? d.missing.map(String).join(" and ") : "more locations"}, which the quote does not bill. Update the job's print locations and send a new quote.`,
+  "proof.saved": (d) => `Proof ${String(d.revision ?? "")} was updated.`,
 };
 
 export function describeAudit(action: string, detail: Record<string, unknown> = {}): string {

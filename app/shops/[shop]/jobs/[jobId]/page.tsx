@@ -9,13 +9,13 @@ import { PaymentList } from "@/components/orders/PaymentList";
 import { QuoteLines } from "@/components/orders/QuoteLines";
 import { SendQuoteForm } from "@/components/orders/SendQuoteForm";
 import { findJobDetail } from "@/db/queries/jobs";
-import { listProofPrints } from "@/db/queries/proof-prints";
 import { listProofsForJob } from "@/db/queries/proofs";
 import { listJobDecisions } from "@/db/queries/review";
 import { can } from "@/lib/access";
 import { LOCATION_LABELS } from "@/lib/garments/locations";
 import { DECORATION_LABELS } from "@/lib/jobs";
 import { formatCents } from "@/lib/pricing";
+import { listProofPrints } from "@/db/queries/proof-prints";
 import { compareQuoteToProofs } from "@/lib/quote-check";
 import { MONEY_STATE_LABELS, quoteJob, sizeRunTotals, SIZE_GROUPS } from "@/lib/quotes";
 
