@@ -14,7 +14,7 @@ import { findQuote, sendQuote } from "@/db/queries/orders";
 import { getProofDocument } from "@/db/queries/proofs";
 import { recordDecision, sendRevision } from "@/db/queries/review";
 import { createShopWithOwner } from "@/db/queries/shops";
-import { auditLog, payments, placements, shops } from "@/db/schema";
+import { auditLog, payments, placements, proofs, shops } from "@/db/schema";
 import { DEFAULT_PRICE_MATRIX } from "@/lib/pricing";
 import { quoteJob } from "@/lib/quotes";
 import { buildShopRecords, jobFormInput, type ShopRecords } from "@/tests/authz/fixtures";
@@ -39,11 +39,12 @@ beforeAll(async () => {
   shop = row!;
   ownerId = created.userId;
   records = await buildShopRecords({ shopId: shop.id, ownerId, tag });
-  // The proof gains a full back print, is sent again as revision A and approved.
+  // The proof (revision A sent, front only) gains a full back print, is sent as revision B and approved.
   await db.insert(placements).values({ id: `e2e-back-${records.proofId}`, proofId: records.proofId, location: "full-back", artworkId: records.spareArtworkId, widthIn: 11, heightIn: 9, offsetFromCenterIn: 0, belowCollarIn: 4, rotationDeg: 0, sortOrder: 1 });
+  await db.update(proofs).set({ revision: "B" }).where(eq(proofs.id, records.proofId));
   const document = await getProofDocument({ shopId: shop.id, proofId: records.proofId });
   await sendRevision({ document: document!, userId: ownerId });
-  const approved = await recordDecision({ proofId: records.proofId, letter: "A", decision: "approved", fullName: "Cass Mill", statement: "I approve this proof.", comment: null, ip: "127.0.0.1", userAgent: "quote-proof e2e", shareLinkId: null, userId: null });
+  const approved = await recordDecision({ proofId: records.proofId, letter: "B", decision: "approved", fullName: "Cass Mill", statement: "I approve this proof.", comment: null, ip: "127.0.0.1", userAgent: "quote-proof e2e", shareLinkId: null, userId: null });
   expect(approved.ok).toBe(true);
 });
 

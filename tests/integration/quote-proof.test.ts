@@ -20,10 +20,11 @@ import { listProofPrints } from "@/db/queries/proof-prints";
 import { getProofDocument } from "@/db/queries/proofs";
 import { recordDecision, sendRevision } from "@/db/queries/review";
 import { createShopWithOwner } from "@/db/queries/shops";
-import { artworks, auditLog, payments, placements, quotes, shops } from "@/db/schema";
+import { artworks, auditLog, payments, placements, proofRevisions, proofs, quotes, shops } from "@/db/schema";
 import { describeAudit } from "@/lib/audit-text";
 import { DEFAULT_PRICE_MATRIX } from "@/lib/pricing";
 import { quoteJob } from "@/lib/quotes";
+import { nextRevisionLetter } from "@/lib/review/diff";
 import { buildShopRecords, insertProof, jobFormInput, type ShopRecords } from "@/tests/authz/fixtures";
 import { startStripeFake, type StripeFake } from "@/scripts/fakes/stripe";
 
@@ -51,13 +52,18 @@ async function addPrint(proofId: string, location: string, artworkId: string | n
   await db.insert(placements).values({ id: `qp-${location}-${proofId}`, proofId, location, artworkId, widthIn: 10, heightIn: 8, offsetFromCenterIn: 0, belowCollarIn: 4, rotationDeg: 0, sortOrder: 1 });
 }
 
-/** Sends the proof's current state to the client again (same letter, still open). */
-async function resend(proofId: string) {
+/** Sends the proof's current state to the client as its next revision letter (a sent letter never changes). */
+async function resend(proofId: string): Promise<string> {
+  const [row] = await db.select({ revision: proofs.revision }).from(proofs).where(eq(proofs.id, proofId));
+  const [sent] = await db.select({ id: proofRevisions.id }).from(proofRevisions).where(and(eq(proofRevisions.proofId, proofId), eq(proofRevisions.letter, row!.revision)));
+  const letter = sent ? nextRevisionLetter(row!.revision) : row!.revision;
+  await db.update(proofs).set({ revision: letter }).where(eq(proofs.id, proofId));
   const document = await getProofDocument({ shopId: shop.id, proofId });
-  return sendRevision({ document: document!, userId: owner.id });
+  await sendRevision({ document: document!, userId: owner.id });
+  return letter;
 }
 
-async function approve(proofId: string, letter = "A") {
+async function approve(proofId: string, letter: string) {
   const result = await recordDecision({ proofId, letter, decision: "approved", fullName: "Cass Mill", statement: "I approve this proof.", comment: null, ip: "127.0.0.1", userAgent: "quote-proof test", shareLinkId: null, userId: null });
   expect(result.ok).toBe(true);
 }
@@ -100,14 +106,16 @@ describe("what the proofs show, from the database", () => {
   it("reads the approved revision's prints and the art's colour count, and names the missing full back", async () => {
     const r = await fresh();
     await addPrint(r.proofId, "full-back", r.spareArtworkId);
-    await resend(r.proofId);
-    await approve(r.proofId);
+    const letter = await resend(r.proofId);
+    await approve(r.proofId, letter);
     await db.update(artworks).set({ colourCount: 3 }).where(eq(artworks.id, r.artworkId));
 
     const prints = await listProofPrints({ shopId: shop.id, jobId: r.jobId });
     expect(prints.proofs).toHaveLength(1);
-    expect(prints.proofs[0]!.revisions).toEqual([expect.objectContaining({ letter: "A", state: "approved" })]);
-    expect(prints.proofs[0]!.revisions[0]!.placements.map((p) => p.location).sort()).toEqual(["full-back", "full-front"]);
+    const revisions = [...prints.proofs[0]!.revisions].sort((a, b) => a.letter.localeCompare(b.letter));
+    expect(revisions).toEqual([expect.objectContaining({ letter: "A", state: "open" }), expect.objectContaining({ letter: "B", state: "approved" })]);
+    expect(revisions[0]!.placements.map((p) => p.location)).toEqual(["full-front"]);
+    expect(revisions[1]!.placements.map((p) => p.location).sort()).toEqual(["full-back", "full-front"]);
     expect(prints.artColours[r.artworkId]).toBe(3);
     expect(prints.artColours[r.spareArtworkId]).toBeNull();
 
@@ -172,8 +180,8 @@ describe("the client about to pay", () => {
   it("a link checking out a quote that bills fewer locations than the approved proof gets 409, no payment, and the shop one activity entry", async () => {
     const r = await fresh();
     await addPrint(r.proofId, "full-back", r.spareArtworkId);
-    await resend(r.proofId);
-    await approve(r.proofId);
+    const letter = await resend(r.proofId);
+    await approve(r.proofId, letter);
 
     const first = await post(checkoutRoute, r.quoteId, { kind: "deposit", link: r.linkToken }, "10.88.0.1");
     expect(first.status).toBe(409);
@@ -206,7 +214,7 @@ describe("the client about to pay", () => {
 
   it("pays a quote that covers the proof; a print only on the working proof (never sent) does not hold it", async () => {
     const r = await fresh();
-    await approve(r.proofId);
+    await approve(r.proofId, "A");
     await addPrint(r.proofId, "full-back", r.spareArtworkId);
 
     const answer = await post(checkoutRoute, r.quoteId, { kind: "deposit", link: r.linkToken }, "10.88.0.3");
@@ -219,8 +227,8 @@ describe("the client about to pay", () => {
   it("a new quote that bills the back opens checkout again once accepted", async () => {
     const r = await fresh();
     await addPrint(r.proofId, "full-back", r.spareArtworkId);
-    await resend(r.proofId);
-    await approve(r.proofId);
+    const letter = await resend(r.proofId);
+    await approve(r.proofId, letter);
     expect((await post(checkoutRoute, r.quoteId, { kind: "deposit", link: r.linkToken }, "10.88.0.4")).status).toBe(409);
 
     const quote = await sentQuote(r, [{ location: "full-front", colours: 1 }, { location: "full-back", colours: 1 }]);
@@ -234,8 +242,8 @@ describe("the client about to pay", () => {
     const r = await fresh();
     const second = await insertProof(shop.id, r.jobId, `Mill back ${tag}-${count}`, r.artworkId, owner.id);
     await addPrint(second, "full-back", r.spareArtworkId);
-    await resend(second);
-    await approve(second);
+    const letter = await resend(second);
+    await approve(second, letter);
     const answer = await post(checkoutRoute, r.quoteId, { kind: "full", link: r.linkToken }, "10.88.0.5");
     expect(answer.status).toBe(409);
     expect(await db.select().from(payments).where(eq(payments.quoteId, r.quoteId))).toHaveLength(0);
