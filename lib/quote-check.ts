@@ -7,7 +7,7 @@
  *  - Which placements a proof shows: its newest approved revision if it has one, else its newest
  *    sent revision, else (only where the caller allows it) its working placements. At pay time the
  *    caller leaves the working placements out: the client never saw them.
- *  - Only placements that carry art count; a proof with none is left out.
+ *  - Only placements that carry art count; a proof with none, or an archived proof, is left out.
  *  - A location a proof prints on that the quote does not bill blocks the quote (`blocking`):
  *    the shop must not send it, and the client must not accept or pay it.
  *  - A location the quote bills that no proof shows, and (screen print only) fewer ink colours billed
@@ -29,6 +29,8 @@ export type ProofForCheck = {
   revisions: ReadonlyArray<ProofRevisionPrints>;
   /** The proof's working placements, as last saved. */
   working: ReadonlyArray<ProofPrint>;
+  /** A draft put away: it shows nothing. */
+  archived?: boolean;
 };
 
 export type ShownPrints = { source: "approved" | "sent" | "working"; letter: string | null; placements: ProofPrint[] };
@@ -70,6 +72,7 @@ function withArt(placements: ReadonlyArray<ProofPrint> | undefined): ProofPrint[
 
 /** The prints a proof shows: approved revision, else newest sent, else (if allowed) working; null if none carries art. */
 export function shownPrints(proof: ProofForCheck, { includeWorking }: { includeWorking: boolean }): ShownPrints | null {
+  if (proof.archived) return null;
   const approved = newest(proof.revisions.filter((r) => r.state === "approved"));
   const sent = newest(proof.revisions);
   const chosen: ShownPrints | null = approved

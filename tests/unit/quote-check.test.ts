@@ -49,6 +49,7 @@ describe("which prints a proof shows", () => {
     { what: "never sent, at pay time (the client never saw the working placements)", p: proof("Crew front", [], [art("full-front")]), includeWorking: false },
     { what: "no placement carries art", p: proof("Crew front", [rev("A", "open", 1, [art("full-front", null)])], [art("full-back")]), includeWorking: true },
     { what: "no revision and no placements", p: proof("Crew front", []), includeWorking: true },
+    { what: "the proof is archived", p: { ...proof("Crew front", [rev("A", "open", 1, [art("full-back")])], [art("full-back")]), archived: true }, includeWorking: true },
   ])("shows nothing when $what", ({ p, includeWorking }) => {
     expect(shownPrints(p, { includeWorking })).toBeNull();
   });
