@@ -8,6 +8,8 @@ const TEXT: Record<string, (d: Record<string, unknown>) => string> = {
   "member.invitation-withdrawn": (d) => `The invitation to ${String(d.email ?? "someone")} was withdrawn.`,
   "client.created": (d) => `New client: ${String(d.name ?? "")}.`,
   "job.created": (d) => `New job: ${String(d.title ?? "")}.`,
+  "quote.held": (d) =>
+    `The client could not ${d.via === "checkout" ? "pay" : "accept"} quote Q${String(d.number ?? "")}${d.title ? ` for ${String(d.title)}` : ""}: the proof prints on the ${Array.isArray(d.missing) && d.missing.length ? d.missing.map(String).join(" and ") : "more locations"}, which the quote does not bill. Update the job's print locations and send a new quote.`,
   "proof.saved": (d) => `Proof ${String(d.revision ?? "")} was updated.`,
   "proof.created": (d) => `New proof: ${String(d.name ?? "")}.`,
   "proof.duplicated": (d) => `Proof ${String(d.from ?? "")} was copied as ${String(d.name ?? "")}.`,

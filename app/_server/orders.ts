@@ -17,14 +17,17 @@ import {
   getStoredPriceMatrix,
   listPayments,
   markReceiptSent,
+  recordQuoteHeld,
   settlePayment,
   type PaymentChange,
 } from "@/db/queries/orders";
+import { listProofPrints } from "@/db/queries/proof-prints";
 import { findProofShop } from "@/db/queries/proofs";
 import { lookupShareToken } from "@/db/queries/review";
 import { findShopById } from "@/db/queries/shops";
 import type { Payment, QuoteRow } from "@/db/schema";
 import { DEFAULT_PRICE_MATRIX, formatCents, priceMatrixSchema, type PriceMatrix } from "@/lib/pricing";
+import { compareQuoteToProofs, locationWords, type BilledLocation, type QuoteProofMismatch } from "@/lib/quote-check";
 import { checkoutAmount, moneySummary, PAYMENT_KIND_LABELS, type MoneySummary, type PaymentKind } from "@/lib/quotes";
 
 /** The shop's matrix; the demo matrix until the owner saves one (a stored matrix that no longer parses is reported). */
@@ -39,6 +42,39 @@ export async function loadPriceMatrix(shopId: string): Promise<{ matrix: PriceMa
 export async function jobMoney(jobId: string): Promise<{ quote: QuoteRow | undefined; payments: Payment[]; summary: MoneySummary }> {
   const [quote, payments] = await Promise.all([currentQuote({ jobId }), listPayments({ jobId })]);
   return { quote, payments, summary: moneySummary({ quote: quote ?? null, payments }) };
+}
+
+// ---------------------------------------------------------------------------
+// The quote follows the proof
+// ---------------------------------------------------------------------------
+
+/**
+ * How the locations a quote bills compare with the prints the job's proofs show (lib/quote-check.ts).
+ * `includeWorking`: count proofs never sent by their working placements (the shop's view); at pay
+ * time only what the client was sent counts.
+ */
+export async function checkQuoteAgainstProofs(input: { shopId: string; jobId: string; method: string; billed: ReadonlyArray<BilledLocation>; includeWorking: boolean }): Promise<QuoteProofMismatch[]> {
+  const { proofs, artColours } = await listProofPrints({ shopId: input.shopId, jobId: input.jobId });
+  return compareQuoteToProofs({ method: input.method, billed: input.billed, proofs, artColours, includeWorking: input.includeWorking });
+}
+
+function joinWords(words: readonly string[]): string {
+  return words.length <= 1 ? words.join("") : `${words.slice(0, -1).join(", ")} and ${words[words.length - 1]}`;
+}
+
+/**
+ * A client about to accept or pay never does so for fewer locations than the proof shows: when the
+ * frozen quote bills fewer, the client is told the shop is updating it, nothing is started, and the
+ * shop finds an entry in its activity.
+ */
+export async function holdQuoteBehindProof({ quote, payer, via }: { quote: QuoteRow; payer: Payer; via: "accept" | "checkout" }): Promise<{ ok: true } | { ok: false; status: 409; message: string }> {
+  const mismatches = await checkQuoteAgainstProofs({ shopId: quote.shopId, jobId: quote.jobId, method: quote.snapshot.job.method, billed: quote.snapshot.job.locations, includeWorking: false });
+  const missing = mismatches.filter((m) => m.blocking).map((m) => locationWords(m.location));
+  if (missing.length === 0) return { ok: true };
+  await recordQuoteHeld({ quote, missing, via, actorUserId: payer.userId, actorLabel: payer.via === "link" ? `review link${payer.name ? ` · ${payer.name}` : ""}` : payer.name });
+  const where = joinWords(missing);
+  const outcome = via === "checkout" ? "No payment was started and nothing was charged" : "The quote was not accepted and nothing is owed";
+  return { ok: false, status: 409, message: `The print shop is updating this quote to match your proof, which also prints on the ${where}. ${outcome}; the shop will send you the updated quote.` };
 }
 
 // ---------------------------------------------------------------------------
@@ -88,6 +124,8 @@ export async function startCheckout({ quote, payer, kind }: { quote: QuoteRow; p
   if (!stripe) return { ok: false, status: 503, message: "Card payments are not set up for this shop yet. Contact the print shop to pay." };
   const current = await currentQuote({ jobId: quote.jobId });
   if (!current || current.id !== quote.id) return { ok: false, status: 409, message: "The shop has sent a newer quote. Reload the page to see it." };
+  const held = await holdQuoteBehindProof({ quote: current, payer, via: "checkout" });
+  if (!held.ok) return held;
   const { summary } = await jobMoney(quote.jobId);
   const amount = checkoutAmount(summary, kind);
   if (!amount.ok) return { ok: false, status: 409, message: amount.message };

@@ -1,7 +1,7 @@
 import "server-only";
 import { NextResponse } from "next/server";
 import type { z } from "zod";
-import { resolveQuoteAccess, type QuoteAccess } from "@/app/_server/orders";
+import { holdQuoteBehindProof, resolveQuoteAccess, type QuoteAccess } from "@/app/_server/orders";
 import { takeToken } from "@/app/_server/rate-limit";
 import { clientIp } from "@/app/_server/review";
 import { parseInput, readJson } from "@/lib/input";
@@ -27,4 +27,13 @@ export async function readQuoteRequest<S extends z.ZodType<{ link?: string }>>(
     return { ok: false, response: NextResponse.json({ error: "Too many tries. Wait a minute and try again." }, { status: 429 }) };
   }
   return { ok: true, body: parsed.data, access, ip };
+}
+
+/**
+ * 409 with the words for the client when the quote bills fewer print locations than the job's proof
+ * shows (the shop is told in its activity); null when the quote covers every print.
+ */
+export async function refuseQuoteBehindProof(access: Granted<unknown>["access"], via: "accept" | "checkout"): Promise<NextResponse | null> {
+  const held = await holdQuoteBehindProof({ quote: access.quote, payer: access.payer, via });
+  return held.ok ? null : NextResponse.json({ error: held.message }, { status: held.status });
 }

@@ -185,7 +185,7 @@ export function JobForm({ shopSlug, jobId, defaults, clients, blanks, matrix }: 
           ) : null}
         </div>
 
-        <fieldset>
+        <fieldset id="print-locations">
           <legend className="field-label">Print locations</legend>
           <div className="grid gap-2 sm:grid-cols-2">
             {candidates.map((o) => {

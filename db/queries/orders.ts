@@ -1,8 +1,8 @@
 import "server-only";
-import { and, desc, eq, max, ne, sql } from "drizzle-orm";
+import { and, desc, eq, gt, max, ne, sql } from "drizzle-orm";
 import type { QuoteSnapshot } from "@/lib/quotes";
 import { db } from "../client";
-import { paymentEvents, payments, quotes, shops, type Payment, type QuoteRow } from "../schema";
+import { auditLog, paymentEvents, payments, quotes, shops, type Payment, type QuoteRow } from "../schema";
 import { recordAudit } from "./audit";
 
 // ---------------------------------------------------------------------------
@@ -81,6 +81,30 @@ export async function acceptQuote(input: { quoteId: string; name: string; userId
     if (quote) await recordAudit({ shopId: quote.shopId, actorUserId: input.userId, actorLabel: input.name, action: "quote.accepted", subjectType: "job", subjectId: quote.jobId, detail: { number: quote.number, title: quote.snapshot.job.title } }, tx);
     return quote;
   });
+}
+
+/**
+ * Tells the shop that a client was stopped from accepting or paying a quote that bills fewer
+ * print locations than the proof shows. One entry per quote an hour (our own choice), so a client
+ * trying again does not fill the activity list. Returns whether an entry was written.
+ */
+export async function recordQuoteHeld(input: { quote: Pick<QuoteRow, "id" | "shopId" | "jobId" | "number" | "snapshot">; missing: string[]; via: "accept" | "checkout"; actorUserId: string | null; actorLabel: string | null }): Promise<boolean> {
+  const [recent] = await db
+    .select({ id: auditLog.id })
+    .from(auditLog)
+    .where(and(eq(auditLog.shopId, input.quote.shopId), eq(auditLog.action, "quote.held"), eq(auditLog.subjectId, input.quote.jobId), sql`${auditLog.detail} ->> 'quoteId' = ${input.quote.id}`, gt(auditLog.at, sql`now() - interval '1 hour'`)))
+    .limit(1);
+  if (recent) return false;
+  await recordAudit({
+    shopId: input.quote.shopId,
+    actorUserId: input.actorUserId,
+    actorLabel: input.actorLabel,
+    action: "quote.held",
+    subjectType: "job",
+    subjectId: input.quote.jobId,
+    detail: { quoteId: input.quote.id, number: input.quote.number, title: input.quote.snapshot.job.title, missing: input.missing, via: input.via },
+  });
+  return true;
 }
 
 // ---------------------------------------------------------------------------

@@ -6,13 +6,14 @@ import { deniedAction, resolveShopAccess, type ActionResult } from "@/app/_serve
 import { appUrl } from "@/app/_server/config";
 import { composeMail } from "@/app/_server/emails";
 import { sendMailSafely } from "@/app/_server/mail";
-import { loadPriceMatrix } from "@/app/_server/orders";
+import { checkQuoteAgainstProofs, loadPriceMatrix } from "@/app/_server/orders";
 import { fieldErrorsByPath, jobFormSchema, jobStatusSchema } from "@/components/orders/schemas";
 import { findClient } from "@/db/queries/clients";
 import { blankUsableByShop, clientBelongsToShop, createJob, findJob, findJobDetail, setJobStatus, updateJob } from "@/db/queries/jobs";
 import { sendQuote } from "@/db/queries/orders";
 import { can } from "@/lib/access";
 import { formatCents } from "@/lib/pricing";
+import { billsFewerLocations } from "@/lib/quote-check";
 import { quoteJob } from "@/lib/quotes";
 import { parseInput } from "@/lib/input";
 
@@ -67,8 +68,12 @@ export async function setJobStatusAction(input: unknown): Promise<ActionResult<{
   return { ok: true, data: { status: job.status } };
 }
 
-/** Freezes the job's current price as a quote and e-mails it to the client's contacts. */
-export async function sendQuoteAction(input: unknown): Promise<ActionResult<{ quoteId: string; number: number; emailed: number; recipients: number }>> {
+/**
+ * Freezes the job's current price as a quote and e-mails it to the client's contacts. A quote that
+ * bills fewer print locations than the job's proofs show is refused; one that bills more is sent,
+ * with the warnings in the answer.
+ */
+export async function sendQuoteAction(input: unknown): Promise<ActionResult<{ quoteId: string; number: number; emailed: number; recipients: number; warnings: string[] }>> {
   const parsed = parseInput(ref.extend({ jobId: idSchema, message: z.string().trim().max(2000).optional() }), input);
   if (!parsed.success) return { ok: false, error: "The request was not complete." };
   const access = await resolveShopAccess(parsed.data.shopSlug, "jobs.edit");
@@ -84,6 +89,11 @@ export async function sendQuoteAction(input: unknown): Promise<ActionResult<{ qu
     { taxExempt: detail.client.taxExempt },
   );
   if (!priced.ok || !priced.snapshot) return { ok: false, error: priced.ok ? "The job could not be priced." : priced.message };
+  const mismatches = await checkQuoteAgainstProofs({ shopId: shop.id, jobId: detail.job.id, method: detail.job.method, billed: priced.snapshot.job.locations, includeWorking: true });
+  if (billsFewerLocations(mismatches)) {
+    const missing = mismatches.filter((m) => m.blocking).map((m) => m.message);
+    return { ok: false, error: `This quote bills fewer print locations than the proofs show. ${missing.join(" ")} Add the missing locations to the job's print locations, then send the quote.`, status: 409 };
+  }
   const quote = await sendQuote({ shopId: shop.id, jobId: detail.job.id, snapshot: priced.snapshot, depositPercent: matrix.depositPercent, actorUserId: actor.id });
 
   const client = await findClient({ shopId: shop.id, clientId: detail.client.id });
@@ -112,5 +122,5 @@ export async function sendQuoteAction(input: unknown): Promise<ActionResult<{ qu
     if (sent.sent) emailed += 1;
   }
   revalidatePath(`/shops/${shop.slug}/jobs/${detail.job.id}`);
-  return { ok: true, data: { quoteId: quote.id, number: quote.number, emailed, recipients: recipients.length } };
+  return { ok: true, data: { quoteId: quote.id, number: quote.number, emailed, recipients: recipients.length, warnings: mismatches.map((m) => m.message) } };
 }

@@ -1,6 +1,6 @@
 import { NextResponse } from "next/server";
 import { z } from "zod";
-import { readQuoteRequest } from "@/app/_server/quote-request";
+import { readQuoteRequest, refuseQuoteBehindProof } from "@/app/_server/quote-request";
 import { acceptQuote } from "@/db/queries/orders";
 
 export const dynamic = "force-dynamic";
@@ -20,6 +20,8 @@ export async function POST(request: Request, { params }: { params: Promise<{ quo
   if (!access.payer.canAccept) return NextResponse.json({ error: "This link can view the quote but not accept it. Ask the print shop for an approval link." }, { status: 403 });
   if (access.quote.state === "accepted") return NextResponse.json({ ok: true, already: true });
   if (access.quote.state === "replaced") return NextResponse.json({ error: "The shop has sent a newer quote. Reload the page to see it." }, { status: 409 });
+  const behind = await refuseQuoteBehindProof(access, "accept");
+  if (behind) return behind;
   const accepted = await acceptQuote({ quoteId, name: body.fullName, userId: access.payer.userId, via: access.payer.via, ip, userAgent: request.headers.get("user-agent")?.slice(0, 400) ?? null });
   if (!accepted) return NextResponse.json({ error: "The quote changed meanwhile. Reload the page." }, { status: 409 });
   return NextResponse.json({ ok: true }, { status: 201 });

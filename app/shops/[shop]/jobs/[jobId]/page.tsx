@@ -18,6 +18,8 @@ import { can } from "@/lib/access";
 import { LOCATION_LABELS } from "@/lib/garments/locations";
 import { DECORATION_LABELS } from "@/lib/jobs";
 import { formatCents } from "@/lib/pricing";
+import { listProofPrints } from "@/db/queries/proof-prints";
+import { compareQuoteToProofs } from "@/lib/quote-check";
 import { MONEY_STATE_LABELS, quoteJob, sizeRunTotals, SIZE_GROUPS } from "@/lib/quotes";
 
 export const dynamic = "force-dynamic";
@@ -41,6 +43,15 @@ export default async function JobPage({ params }: { params: Promise<{ shop: stri
   ]);
   const changedAfterApproval = proofs.filter((p) => !p.archivedAt && proofStanding(p).changedAfterApproval);
   const live = prices ? quoteJob({ ...job, sizeRun, garmentName: blank?.name ?? null }, prices.matrix, { taxExempt: client.taxExempt }) : null;
+  // The quote follows the proof: the price today against every proof (working ones too), and the
+  // quote out against what the client was sent, the way the accept and checkout routes compare it.
+  const proofPrints = seesMoney ? await listProofPrints({ shopId: access.shop.id, jobId }) : null;
+  const liveMismatches = proofPrints && live?.ok && live.snapshot ? compareQuoteToProofs({ method: job.method, billed: live.snapshot.job.locations, ...proofPrints, includeWorking: true }) : [];
+  const heldMismatches =
+    proofPrints && money?.quote && money.summary.state !== "paid-in-full"
+      ? compareQuoteToProofs({ method: money.quote.snapshot.job.method, billed: money.quote.snapshot.job.locations, ...proofPrints, includeWorking: false }).filter((m) => m.blocking)
+      : [];
+  const editLocationsHref = `/shops/${shop}/jobs/${jobId}/edit#print-locations`;
   const totals = sizeRunTotals(sizeRun);
   const locations = (job.printLocations ?? []) as Array<{ location: string; colours: number }>;
   return (
@@ -182,6 +193,24 @@ export default async function JobPage({ params }: { params: Promise<{ shop: stri
             ) : (
               <p className="text-sm text-ink-600">No quote sent yet. This is the price from your matrix today:</p>
             )}
+            {money.quote && heldMismatches.length > 0 ? (
+              <div role="alert" className="space-y-1 rounded-lg bg-brick-100 px-3 py-2 text-sm text-brick-800" data-testid="quote-held">
+                <p className="font-medium">
+                  Quote Q{money.quote.number} bills fewer print locations than the proof the client was sent, so the client cannot accept or pay it.
+                </p>
+                <ul className="list-disc pl-5">
+                  {heldMismatches.map((m) => (
+                    <li key={m.location}>{m.message}</li>
+                  ))}
+                </ul>
+                <p>
+                  <Link href={editLocationsHref} className="underline">
+                    Edit the job&apos;s print locations
+                  </Link>
+                  , then send a new quote.
+                </p>
+              </div>
+            ) : null}
             {live.ok ? (
               <details open={!money.quote} className="rounded-lg border border-paper-300 p-3">
                 <summary className="cursor-pointer text-sm font-medium">{money.quote ? "Price from the matrix today" : "Lines"}</summary>
@@ -193,7 +222,7 @@ export default async function JobPage({ params }: { params: Promise<{ shop: stri
               <p className="rounded-lg bg-ochre-50 p-3 text-sm text-ochre-800">{live.message}</p>
             )}
             {prices?.isDemo ? <p className="text-xs text-ink-500">These are demo prices. The owner sets the shop&apos;s own under Prices.</p> : null}
-            {canEdit && live.ok && money.summary.state !== "paid-in-full" ? <SendQuoteForm shopSlug={shop} jobId={jobId} replaces={money.quote?.number ?? null} /> : null}
+            {canEdit && live.ok && money.summary.state !== "paid-in-full" ? <SendQuoteForm shopSlug={shop} jobId={jobId} replaces={money.quote?.number ?? null} mismatches={liveMismatches.map((m) => ({ key: `${m.kind}:${m.location}`, message: m.message, blocking: m.blocking }))} editLocationsHref={editLocationsHref} /> : null}
             <div>
               <h3 className="mb-1 text-sm font-semibold">Payments</h3>
               <PaymentList payments={money.payments} />
