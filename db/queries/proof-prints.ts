@@ -27,7 +27,7 @@ function prints(value: unknown): ProofPrint[] {
 export async function listProofPrints({ shopId, jobId }: { shopId: string; jobId: string }): Promise<JobProofPrints> {
   return db.transaction(
     async (tx) => {
-      const proofRows = await tx.select({ id: proofs.id, name: proofs.name }).from(proofs).where(and(eq(proofs.shopId, shopId), eq(proofs.jobId, jobId)));
+      const proofRows = await tx.select({ id: proofs.id, name: proofs.name, archivedAt: proofs.archivedAt }).from(proofs).where(and(eq(proofs.shopId, shopId), eq(proofs.jobId, jobId)));
       if (proofRows.length === 0) return { proofs: [], artColours: {} };
       const ids = proofRows.map((p) => p.id);
       const working = await tx.select({ proofId: placements.proofId, location: placements.location, artworkId: placements.artworkId }).from(placements).where(inArray(placements.proofId, ids));
@@ -37,6 +37,7 @@ export async function listProofPrints({ shopId, jobId }: { shopId: string; jobId
         .where(inArray(proofRevisions.proofId, ids));
       const result: ProofForCheck[] = proofRows.map((p) => ({
         name: p.name,
+        archived: p.archivedAt !== null,
         working: working.filter((w) => w.proofId === p.id).map((w) => ({ location: w.location, artworkId: w.artworkId })),
         revisions: revisions.filter((r) => r.proofId === p.id).map((r) => ({ letter: r.letter, state: r.state, sentAt: r.sentAt, placements: prints(r.placements) })),
       }));
