@@ -191,9 +191,10 @@ describe("the whole job from an empty shop", () => {
     await client.getByTestId("note").filter({ hasText: "our year" }).waitFor();
 
     await client.getByRole("tab", { name: "Approve" }).click();
-    await client.getByLabel("Your full name").fill("Ada Fenwick");
-    await client.getByRole("checkbox").check();
-    await client.getByRole("button", { name: "Approve revision A" }).click();
+    const decision = client.getByRole("region", { name: "Decision" });
+    await decision.getByLabel("Your full name").fill("Ada Fenwick");
+    await decision.getByRole("checkbox").check();
+    await decision.getByRole("button", { name: "Approve revision A" }).click();
     await client.getByTestId("decision-done").waitFor();
 
     const quote = client.getByTestId("quote-panel");
@@ -229,8 +230,8 @@ describe("the whole job from an empty shop", () => {
     await press.goto(firstLink(invite.text, "/invite/").replace(/^https?:\/\/[^/]+/, BASE_URL));
     await hydrated(press);
     await press.getByLabel("Your name").fill("Oskar Brenn");
-    await press.getByLabel("Password").fill(PASSWORD);
-    await press.getByRole("button", { name: /Join/ }).click();
+    await press.getByLabel("Choose a password").fill(PASSWORD);
+    await press.getByRole("button", { name: "Accept and join" }).click();
     await press.waitForURL(new RegExp(`/shops/${slug}`));
 
     // --- Production: the spec sheet, a test print and the gang sheet, all from revision A.
@@ -240,8 +241,8 @@ describe("the whole job from an empty shop", () => {
     await press.getByRole("button", { name: "Make the spec sheet" }).click();
     const spec = await pdfText(await download(press, "spec-sheet"));
     expect(spec.text).toContain(`Regatta crew tees ${tag}`);
-    // The front as approved: 9 in wide (the spec sheet gives decimals beside fractions).
-    expect(spec.text).toContain("9.00 x");
+    // The front as approved: 9 in wide, the art's 1720 x 1120 px ink keeping its shape (9 x 5.86 in).
+    expect(spec.text).toContain("9 x 5 7/8 in");
     await press.getByRole("button", { name: "Make test print" }).first().click();
     const testPrint = await pdfText(await download(press, "test-print"));
     expect(testPrint.pages).toBeGreaterThan(0);
@@ -270,7 +271,7 @@ describe("the whole job from an empty shop", () => {
     await expect(press.getByRole("region", { name: "Print sizes for Full front" }).getByRole("heading").textContent()).resolves.toMatch(/designed at 9 in wide on size M/);
     await press.getByRole("button", { name: "Make the spec sheet" }).click();
     const specAgain = await pdfText(await download(press, "spec-sheet", 2));
-    expect(specAgain.text).toContain("9.00 x");
-    expect(specAgain.text).toContain("revision A");
+    expect(specAgain.text).toContain("9 x 5 7/8 in");
+    expect(specAgain.text).toMatch(/proof revision\s+A/i);
   }, 600_000);
 });

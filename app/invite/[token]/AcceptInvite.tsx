@@ -3,10 +3,12 @@
 import { signIn } from "next-auth/react";
 import { useRouter } from "next/navigation";
 import { useState, type FormEvent } from "react";
+import { useHydrated } from "@/components/orders/useHydrated";
 import { acceptInvitationAction } from "./actions";
 
 export function AcceptInvite({ token, email, needsAccount }: { token: string; email: string; needsAccount: boolean }) {
   const router = useRouter();
+  const hydrated = useHydrated();
   const [error, setError] = useState<string>();
   const [fieldErrors, setFieldErrors] = useState<Record<string, string[] | undefined>>({});
   const [busy, setBusy] = useState(false);
@@ -33,7 +35,7 @@ export function AcceptInvite({ token, email, needsAccount }: { token: string; em
   }
 
   return (
-    <form onSubmit={onSubmit} className="mt-6 space-y-4" noValidate>
+    <form onSubmit={onSubmit} className="mt-6 space-y-4" noValidate data-hydrated={hydrated}>
       {error ? (
         <p role="alert" className="rounded-lg bg-brick-100 px-3 py-2 text-sm text-brick-800">
           {error}
