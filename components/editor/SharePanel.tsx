@@ -15,7 +15,7 @@ export function SharePanel({ open, onClose, shopSlug, proofId, defaultEmail, def
   const [name, setName] = useState(defaultName ?? "");
   const [days, setDays] = useState<string>("30");
   const [message, setMessage] = useState("");
-  const [result, setResult] = useState<{ url: string; letter: string; emailed: boolean | null } | null>(null);
+  const [result, setResult] = useState<{ url: string; letter: string; emailed: boolean | null; changes: { since: string; lines: string[] } | null } | null>(null);
   const [error, setError] = useState<string | null>(null);
   const [busy, setBusy] = useState(false);
 
@@ -126,6 +126,20 @@ export function SharePanel({ open, onClose, shopSlug, proofId, defaultEmail, def
               Revision {result.letter} is shared.{" "}
               {result.emailed === true ? "The e-mail is on its way." : result.emailed === false ? "The e-mail could not be sent; copy the link instead." : ""}
             </p>
+            {result.changes ? (
+              <div className="mt-2" data-testid="share-changes">
+                <p className="font-medium">Changed since revision {result.changes.since}:</p>
+                {result.changes.lines.length ? (
+                  <ul className="ml-4 list-disc">
+                    {result.changes.lines.map((line) => (
+                      <li key={line}>{line}</li>
+                    ))}
+                  </ul>
+                ) : (
+                  <p>Nothing that shows on the garment.</p>
+                )}
+              </div>
+            ) : null}
             <div className="mt-2 flex gap-2">
               <input readOnly value={result.url} className="field-input py-1 text-xs" aria-label="Review link" onFocus={(e) => e.currentTarget.select()} />
               <button type="button" className="btn-quiet px-2.5 py-1 text-xs" onClick={() => navigator.clipboard?.writeText(result.url)}>

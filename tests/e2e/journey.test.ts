@@ -273,5 +273,15 @@ describe("the whole job from an empty shop", () => {
     const specAgain = await pdfText(await download(press, "spec-sheet", 2));
     expect(specAgain.text).toContain("9 x 5 7/8 in");
     expect(specAgain.text).toMatch(/proof revision\s+A/i);
+
+    // --- Sharing again sends B beside A, with what changed in words; the press still prints A.
+    await owner.goto(`/shops/${slug}/proofs/${proofId}`);
+    await canvasDrawn(owner);
+    await owner.getByRole("button", { name: "Share with client" }).click();
+    await owner.getByRole("button", { name: "Make a link to copy" }).click();
+    await owner.getByRole("status").filter({ hasText: "Revision B is shared." }).waitFor();
+    await expect(owner.getByTestId("share-changes").textContent()).resolves.toMatch(/Changed since revision A:.*width 9 in → 11 in/);
+    await press.reload();
+    await press.getByTestId("production-revisions").getByText(/prints revision A, as the client approved it/).waitFor();
   }, 600_000);
 });

@@ -5,7 +5,8 @@ import { deniedAction, resolveShopAccess, type ActionResult } from "@/app/_serve
 import { appUrl } from "@/app/_server/config";
 import { notifyProofSent } from "@/app/_server/notify";
 import { findProofShop, getProofDocument } from "@/db/queries/proofs";
-import { createShareLink, listShareLinks, revokeShareLink, sendRevision } from "@/db/queries/review";
+import { createShareLink, listRevisions, listShareLinks, revokeShareLink, sendRevision } from "@/db/queries/review";
+import { describeRevisionChanges } from "@/lib/review/diff";
 import { parseInput } from "@/lib/input";
 
 const shareSchema = z.object({
@@ -21,7 +22,7 @@ const shareSchema = z.object({
 export type ShareLinkView = { id: string; permission: "view" | "comment" | "approve"; recipientEmail: string | null; recipientName: string | null; expiresAt: string | null; revokedAt: string | null; createdAt: string; lastSeenLetter: string | null };
 
 /** Freezes the current state as the revision the client sees, makes a link, and e-mails it when asked. */
-export async function shareProofAction(input: z.input<typeof shareSchema>): Promise<ActionResult<{ url: string; letter: string; emailed: boolean | null }>> {
+export async function shareProofAction(input: z.input<typeof shareSchema>): Promise<ActionResult<{ url: string; letter: string; emailed: boolean | null; changes: { since: string; lines: string[] } | null }>> {
   const parsed = parseInput(shareSchema, input);
   if (!parsed.success) return { ok: false, error: parsed.error.issues[0]?.message ?? "Check the form.", fieldErrors: z.flattenError(parsed.error).fieldErrors };
   const access = await resolveShopAccess(parsed.data.shopSlug, "proofs.edit");
@@ -31,6 +32,9 @@ export async function shareProofAction(input: z.input<typeof shareSchema>): Prom
   if (!document) return { ok: false, error: "This proof no longer exists.", status: 404 };
   try {
     const revision = await sendRevision({ document, userId: actor.id });
+    // What changed since the letter before it, in words, for the maker to check before the client does.
+    const previous = (await listRevisions({ proofId: document.proof.id })).filter((r) => r.letter !== revision.letter).pop();
+    const changes = previous ? { since: previous.letter, lines: describeRevisionChanges(previous.snapshot, revision.snapshot) } : null;
     const { token } = await createShareLink({
       shopId: shop.id,
       proofId: document.proof.id,
@@ -44,7 +48,7 @@ export async function shareProofAction(input: z.input<typeof shareSchema>): Prom
     const emailed = parsed.data.recipientEmail
       ? await notifyProofSent({ proofId: document.proof.id, to: parsed.data.recipientEmail, recipientName: parsed.data.recipientName, url, letter: revision.letter, message: parsed.data.message, senderName: actor.name ?? actor.email })
       : null;
-    return { ok: true, data: { url, letter: revision.letter, emailed } };
+    return { ok: true, data: { url, letter: revision.letter, emailed, changes } };
   } catch (error) {
     console.error("[share]", error);
     return { ok: false, error: "The link could not be made just now. Nothing was sent; try again." };
