@@ -11,6 +11,8 @@ export const saveProofSchema = z.object({
   proofId: z.string().min(1).max(80),
   baseVersion: z.number().int().positive(),
   doc: proofDocSchema,
+  /** The editor's key for this save, the same on its retries. */
+  saveKey: z.string().regex(/^[A-Za-z0-9-]{8,64}$/, "The save key is not valid.").optional(),
 });
 
 export type SaveProofInput = z.input<typeof saveProofSchema>;
@@ -34,7 +36,7 @@ export function invalidSave(error: z.ZodError): SaveProofResponse {
  * action resolves it from the session). Checks the permission again, the proof's shop, the size
  * and the art, then writes only if nobody saved since `baseVersion`.
  */
-export async function saveProofWithAccess(access: ShopAccess, input: { proofId: string; baseVersion: number; doc: ProofDoc }): Promise<SaveProofResponse> {
+export async function saveProofWithAccess(access: ShopAccess, input: { proofId: string; baseVersion: number; doc: ProofDoc; saveKey?: string }): Promise<SaveProofResponse> {
   if (!can(access.role, "proofs.edit")) return { ok: false, kind: "denied", message: "Your role in this shop does not allow this.", status: 403 };
   const { shop, actor } = access;
   const { doc, proofId, baseVersion } = input;
@@ -52,7 +54,7 @@ export async function saveProofWithAccess(access: ShopAccess, input: { proofId: 
       if (shopArt.length < unknownArt.length) return { ok: false, kind: "invalid", message: "Not saved: that artwork is not in this shop's library." };
     }
 
-    const result = await saveProof({ shopId: shop.id, proofId, baseVersion, ...doc, userId: actor.id });
+    const result = await saveProof({ shopId: shop.id, proofId, baseVersion, ...doc, userId: actor.id, saveKey: input.saveKey ?? null });
     if (result.kind === "saved") return { ok: true, version: result.version, savedAt: result.updatedAt.toISOString(), revision: result.revision };
     if (result.kind === "missing") return { ok: false, kind: "missing", message: "This proof no longer exists.", status: 404 };
     return { ok: false, kind: "conflict", message: CONFLICT_MESSAGE, version: result.current.proof.version, doc: toEditorDoc(result.current) };

@@ -35,13 +35,15 @@ export async function buildReviewProps(reviewer: Reviewer, key: string): Promise
   const changes = since && latest ? { since: since.letter, lines: describeRevisionChanges(since.snapshot, latest.snapshot) } : null;
 
   const placedArt = new Set(snapshot.placements.map((p) => p.artworkId).filter(Boolean));
+  // Older snapshots named all of the shop's art; a reviewer is told the names of placed art only.
+  const placedNames = Object.fromEntries(Object.entries(snapshot.artNames ?? {}).filter(([id]) => placedArt.has(id)));
   return {
     reviewKind: reviewer.kind === "link" ? "link" : "proof",
     reviewKey: key,
     shopName: context?.shopName ?? "",
     jobTitle: document.job.title,
     proofName: document.proof.name,
-    snapshot,
+    snapshot: { ...snapshot, artNames: placedNames },
     colourHex,
     blank: { category: blank.category, name: blank.name, sizeChart: blank.sizeChart },
     art: document.artworks.filter((a) => placedArt.has(a.id)).map((a) => ({ id: a.id, name: a.name, kind: a.kind, svg: a.kind === "generated" ? a.svg : null, inkWidthPx: a.inkWidthPx, inkHeightPx: a.inkHeightPx })),

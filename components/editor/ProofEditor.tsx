@@ -92,7 +92,7 @@ function EditorBody(props: Props & { store: EditorStore }) {
   const info = CATEGORY_INFO[blank.category];
 
   const save = useCallback(
-    (input: { baseVersion: number; doc: ProofDoc }) => saveProofAction({ shopSlug: props.shopSlug, proofId: props.proof.id, ...input }),
+    (input: { baseVersion: number; doc: ProofDoc; saveKey: string }) => saveProofAction({ shopSlug: props.shopSlug, proofId: props.proof.id, ...input }),
     [props.shopSlug, props.proof.id],
   );
   const [revision, setRevision] = useState(props.proof.revision);

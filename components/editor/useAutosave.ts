@@ -14,7 +14,7 @@ export type SaveStatus =
   | { kind: "conflict"; message: string; version: number; doc: ProofDoc }
   | { kind: "refused"; message: string };
 
-type Saver = (input: { baseVersion: number; doc: ProofDoc }) => Promise<SaveProofResponse>;
+type Saver = (input: { baseVersion: number; doc: ProofDoc; saveKey: string }) => Promise<SaveProofResponse>;
 
 const DEBOUNCE_MS = 700;
 const RETRY_STEPS_MS = [1_000, 2_000, 4_000, 8_000, 15_000];
@@ -35,6 +35,8 @@ export function useAutosave(opts: { proofId: string; store: EditorStore; initial
   const savedDoc = useRef<ProofDoc>(store.getState().doc);
   const timer = useRef<ReturnType<typeof setTimeout> | null>(null);
   const attempt = useRef(0);
+  /** The key of the save in progress: kept while the same edit is retried, so the server knows a repeat of a stored save. */
+  const current = useRef<{ doc: ProofDoc; baseVersion: number; key: string } | null>(null);
   const inFlight = useRef(false);
   const blocked = useRef(false);
   const scheduleRef = useRef<() => void>(() => {});
@@ -54,8 +56,11 @@ export function useAutosave(opts: { proofId: string; store: EditorStore; initial
     inFlight.current = true;
     setStatus({ kind: "saving" });
     let result: SaveProofResponse | null = null;
+    if (!current.current || current.current.doc !== doc || current.current.baseVersion !== version.current) {
+      current.current = { doc, baseVersion: version.current, key: crypto.randomUUID() };
+    }
     try {
-      result = await save({ baseVersion: version.current, doc });
+      result = await save({ baseVersion: version.current, doc, saveKey: current.current.key });
     } catch {
       result = null;
     }

@@ -82,6 +82,24 @@ export async function artworkShop({ artworkId }: { artworkId: string }): Promise
 }
 
 /**
+ * Whether art is placed on a revision that was sent to one of these clients: what a client may see
+ * of art that is not filed under their own record.
+ */
+export async function artSentToClients({ artworkId, clientIds }: { artworkId: string; clientIds: string[] }): Promise<boolean> {
+  if (clientIds.length === 0) return false;
+  const placed = JSON.stringify([{ artworkId }]);
+  const rows = await db.execute<{ found: boolean }>(sql`
+    select exists (
+      select 1 from proof_revisions r
+      join proofs p on p.id = r.proof_id
+      join jobs j on j.id = p.job_id
+      where j.client_id in (${sql.join(clientIds.map((id) => sql`${id}`), sql`, `)})
+        and r.snapshot -> 'placements' @> ${placed}::jsonb
+    ) as found`);
+  return rows.rows[0]?.found === true;
+}
+
+/**
  * Replaces art with a newer version everywhere it is placed. Each placement keeps its width; its
  * height follows the new art's proportions. Touched proofs get a new version, so an open editor
  * is told instead of silently overwriting the change.

@@ -122,6 +122,16 @@ export async function listProofsForJob({ shopId, jobId, includeArchived = false 
   });
 }
 
+/** Whether a placement belongs to one of the job's proofs: its working copy, or a revision sent of it. */
+export async function placementOnJob({ jobId, placementId }: { jobId: string; placementId: string }): Promise<boolean> {
+  const placed = JSON.stringify([{ id: placementId }]);
+  const rows = await db.execute<{ found: boolean }>(sql`
+    select exists (select 1 from placements pl join proofs p on p.id = pl.proof_id where p.job_id = ${jobId} and pl.id = ${placementId})
+        or exists (select 1 from proof_revisions r join proofs p on p.id = r.proof_id where p.job_id = ${jobId} and r.snapshot -> 'placements' @> ${placed}::jsonb)
+      as found`);
+  return rows.rows[0]?.found === true;
+}
+
 export type NewProofRow = {
   shopId: string;
   jobId: string;
@@ -239,6 +249,8 @@ export type SaveProofInput = {
   colourHex: string;
   placements: Placement[];
   userId: string;
+  /** Made by the editor for each save; the same key on a retry of that save. */
+  saveKey?: string | null;
 };
 
 export type SaveProofResult =
@@ -260,11 +272,13 @@ export type SaveProofResult =
 export async function saveProof(input: SaveProofInput): Promise<SaveProofResult> {
   const outcome = await db.transaction(async (tx) => {
     const [current] = await tx
-      .select({ revision: proofs.revision, version: proofs.version })
+      .select({ revision: proofs.revision, version: proofs.version, updatedAt: proofs.updatedAt, lastSaveKey: proofs.lastSaveKey })
       .from(proofs)
       .where(and(eq(proofs.id, input.proofId), eq(proofs.shopId, input.shopId)))
       .for("update");
-    if (!current || current.version !== input.baseVersion) return null;
+    if (!current) return null;
+    // A retry of the save stored last (its answer was lost on the way back) is that save, not a conflict.
+    if (current.version !== input.baseVersion) return input.saveKey && current.lastSaveKey === input.saveKey ? { version: current.version, updatedAt: current.updatedAt, revision: current.revision } : null;
     // A sent revision never changes: the first edit after a send (or an approval) starts the next
     // letter as a draft. The share lock makes a save wait for a send or an approval being recorded.
     let revision = current.revision;
@@ -284,6 +298,7 @@ export async function saveProof(input: SaveProofInput): Promise<SaveProofResult>
         colourHex: input.colourHex,
         updatedBy: input.userId,
         updatedAt: new Date(),
+        lastSaveKey: input.saveKey ?? null,
       })
       .where(and(eq(proofs.id, input.proofId), eq(proofs.shopId, input.shopId), eq(proofs.version, input.baseVersion)))
       .returning({ version: proofs.version, updatedAt: proofs.updatedAt, revision: proofs.revision });

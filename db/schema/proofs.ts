@@ -81,6 +81,8 @@ export const proofs = pgTable(
     size: text("size").notNull(),
     version: integer("version").notNull().default(1),
     updatedBy: text("updated_by").references(() => users.id, { onDelete: "set null" }),
+    /** The key the editor gave the last stored save: a retry of that save is recognised as it, not a conflict. */
+    lastSaveKey: text("last_save_key"),
     /** Set when a draft proof is put away; archived proofs are left out of the job, production and the quote check. */
     archivedAt: timestamp("archived_at", { withTimezone: true }),
     createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),

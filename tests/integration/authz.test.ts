@@ -125,7 +125,8 @@ const INPUTS: Record<string, Input> = {
   "save-size-run/ours": ({ f }) => ({ shopSlug: f.shop.slug, jobId: f.ids.secondClientJobId, sizes: [{ size: "S", quantity: 8 }, { size: "M", quantity: 12 }] }),
   "save-size-run/their-slug": ({ f }) => ({ shopSlug: f.other.slug, jobId: f.ids.secondClientJobId, sizes: [{ size: "M", quantity: 1 }] }),
   "save-size-run/their-ids": ({ f }) => ({ shopSlug: f.shop.slug, jobId: f.ids.otherJobId, sizes: [{ size: "M", quantity: 1 }] }),
-  "save-grading/ours": ({ f }) => ({ shopSlug: f.shop.slug, jobId: f.ids.secondClientJobId, placementId: `matrix-grading-${f.tag}`, transferCount: 1, assignment: { S: 10, M: 10 }, totalShortfall: 0 }),
+  // A print that is on the job's proof (insertProof names its placement after the proof).
+  "save-grading/ours": ({ f }) => ({ shopSlug: f.shop.slug, jobId: f.ids.jobId, placementId: `matrix-${f.ids.proofId}`, transferCount: 1, assignment: { S: 10, M: 10 }, totalShortfall: 0 }),
   "save-grading/their-slug": ({ f }) => ({ shopSlug: f.other.slug, jobId: f.ids.secondClientJobId, placementId: `matrix-grading-${f.tag}`, transferCount: 1, assignment: { M: 10 }, totalShortfall: 0 }),
   "save-grading/their-ids": ({ f }) => ({ shopSlug: f.shop.slug, jobId: f.ids.otherJobId, placementId: `matrix-grading-${f.tag}`, transferCount: 1, assignment: { M: 10 }, totalShortfall: 0 }),
   "request-export/ours": ({ f }) => ({ kind: "spec-sheet", shopSlug: f.shop.slug, jobId: f.ids.secondClientJobId }),

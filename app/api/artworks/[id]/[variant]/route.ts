@@ -1,7 +1,7 @@
 import { NextResponse } from "next/server";
 import { z } from "zod";
 import { getActor } from "@/app/_server/access";
-import { artworkShop, getArtworkImage } from "@/db/queries/artworks";
+import { artSentToClients, artworkShop, getArtworkImage } from "@/db/queries/artworks";
 import { can } from "@/lib/access";
 import { parseInput } from "@/lib/input";
 
@@ -19,8 +19,12 @@ export async function GET(_request: Request, { params }: { params: Promise<{ id:
   const owner = await artworkShop({ artworkId: parsed.data.id });
   if (!owner) return notFound();
   const member = actor.memberships.find((m) => m.shopId === owner.shopId);
-  const ownClient = actor.contacts.some((c) => c.shopId === owner.shopId && (owner.clientId === null || c.clientId === owner.clientId));
-  if (!(member && can(member.role, "jobs.view")) && !ownClient) return notFound();
+  if (!(member && can(member.role, "jobs.view"))) {
+    // A client sees art filed under their own record, or art placed on a revision sent to them; never the shop's other art.
+    const mine = actor.contacts.filter((c) => c.shopId === owner.shopId).map((c) => c.clientId);
+    const filedUnderMine = owner.clientId !== null && mine.includes(owner.clientId);
+    if (!filedUnderMine && !(await artSentToClients({ artworkId: parsed.data.id, clientIds: mine }))) return notFound();
+  }
 
   const image = await getArtworkImage({ shopId: owner.shopId, artworkId: parsed.data.id, variant: parsed.data.variant === "thumbnail" ? "thumbnail" : "preview" });
   if (!image) return notFound();

@@ -6,6 +6,7 @@ import { deniedAction, resolveShopAccess, type ActionResult } from "@/app/_serve
 import { enqueueExport } from "@/app/_server/queue";
 import { findJob } from "@/db/queries/jobs";
 import { createExport, findExport, markExport, saveGrading, saveJobSizes } from "@/db/queries/production";
+import { placementOnJob } from "@/db/queries/proofs";
 import { PAPER_SIZES, type PaperId } from "@/lib/production/tiling";
 import { parseInput } from "@/lib/input";
 
@@ -52,6 +53,8 @@ export async function saveGradingAction(input: z.input<typeof gradingSchema>): P
   const access = await resolveShopAccess(parsed.data.shopSlug, "proofs.edit");
   if (access.kind !== "ok") return deniedAction(access);
   if (!(await findJob({ shopId: access.access.shop.id, jobId: parsed.data.jobId }))) return { ok: false, error: "Not found.", status: 404 };
+  // The print graded must be on this job's proofs: never another job's, never one that does not exist.
+  if (!(await placementOnJob({ jobId: parsed.data.jobId, placementId: parsed.data.placementId }))) return { ok: false, error: "That print is not on this job's proofs.", status: 404 };
   await saveGrading({ jobId: parsed.data.jobId, placementId: parsed.data.placementId, transferCount: parsed.data.transferCount, assignment: parsed.data.assignment, totalShortfall: parsed.data.totalShortfall });
   revalidatePath(`/shops/${parsed.data.shopSlug}/jobs/${parsed.data.jobId}/production`);
   return { ok: true, data: null };

@@ -1,0 +1,1 @@
+ALTER TABLE "proofs" ADD COLUMN "last_save_key" text;
