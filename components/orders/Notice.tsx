@@ -1,3 +1,5 @@
+import type { Ref } from "react";
+
 export type NoticeTone = "ok" | "warn" | "error";
 
 const TONES: Record<NoticeTone, string> = {
@@ -6,10 +8,13 @@ const TONES: Record<NoticeTone, string> = {
   error: "bg-brick-100 text-brick-800",
 };
 
-/** A short message under a form or panel; errors are announced at once, the rest politely. */
-export function Notice({ tone, children, testId }: { tone: NoticeTone; children: React.ReactNode; testId?: string }) {
+/**
+ * A short message under a form or panel; errors are announced at once, the rest politely.
+ * `focusable` lets a page move the focus to it (out of the tab order).
+ */
+export function Notice({ tone, children, testId, ref, focusable }: { tone: NoticeTone; children: React.ReactNode; testId?: string; ref?: Ref<HTMLDivElement>; focusable?: boolean }) {
   return (
-    <div role={tone === "error" ? "alert" : "status"} data-testid={testId} className={`rounded-lg px-3 py-2 text-sm ${TONES[tone]}`}>
+    <div ref={ref} role={tone === "error" ? "alert" : "status"} tabIndex={focusable ? -1 : undefined} data-testid={testId} className={`rounded-lg px-3 py-2 text-sm ${TONES[tone]}`}>
       {children}
     </div>
   );

@@ -21,7 +21,7 @@ async function post<T>(url: string, body: unknown): Promise<T> {
  * The client's side of a quote: every line, accept with a typed name, then pay the deposit, the
  * full amount or the balance on the payment service's page.
  */
-export function QuotePanel({ data, linkToken, canAccept, returned }: { data: QuotePanelData; linkToken?: string; canAccept: boolean; returned?: "paid" | "pending" | "cancelled" | "unknown" }) {
+export function QuotePanel({ data, linkToken, canAccept }: { data: QuotePanelData; linkToken?: string; canAccept: boolean }) {
   const router = useRouter();
   const hydrated = useHydrated();
   const { quote, summary } = data;
@@ -41,7 +41,7 @@ export function QuotePanel({ data, linkToken, canAccept, returned }: { data: Quo
 
   const job = quote.snapshot.job;
   return (
-    <section className="card space-y-4 p-5" aria-label="Quote" data-testid="quote-panel" data-hydrated={hydrated}>
+    <section id="quote" className="card scroll-mt-20 space-y-4 p-5" aria-label="Quote" data-testid="quote-panel" data-hydrated={hydrated}>
       <div className="flex flex-wrap items-baseline justify-between gap-2">
         <h2 className="text-lg">Quote Q{quote.number}</h2>
         <span className="rounded-full bg-paper-200 px-2.5 py-0.5 text-xs font-medium" data-testid="quote-state">
@@ -53,10 +53,6 @@ export function QuotePanel({ data, linkToken, canAccept, returned }: { data: Quo
         {job.locations.map((l) => l.label).join(", ")}. {job.sizeRun.map((r) => `${r.size} × ${r.quantity}`).join(", ")}.
       </p>
       <QuoteLines quote={quote.snapshot.quote} />
-
-      {returned === "paid" ? <Notice tone="ok">Payment received. A receipt is on its way by e-mail.</Notice> : null}
-      {returned === "pending" ? <Notice tone="warn">Your payment is being confirmed. This page updates once it is through.</Notice> : null}
-      {returned === "cancelled" ? <Notice tone="warn">The payment was not completed. Nothing was charged; you can try again.</Notice> : null}
 
       {summary.state === "quote-sent" ? (
         canAccept ? (

@@ -1,15 +1,19 @@
 "use client";
 
 import { useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
-import { useMemo, useState } from "react";
+import { useEffect, useId, useMemo, useRef, useState, type RefObject } from "react";
 import { useCalibration } from "@/components/editor/calibration";
 import { CalibrationDialog } from "@/components/editor/CalibrationDialog";
 import { ProofCanvas, type ArtSource } from "@/components/editor/ProofCanvas";
+import { useHydrated } from "@/components/orders/useHydrated";
 import { LOCATION_LABELS, sideOf } from "@/lib/garments/locations";
-import type { GarmentCategory, GarmentMeasurements, GarmentSide, SizeGroup } from "@/lib/garments/types";
+import { buildSilhouette } from "@/lib/garments/silhouette";
+import type { GarmentCategory, GarmentMeasurements, GarmentSide, Point, Rect, SizeGroup } from "@/lib/garments/types";
+import { placementCenter } from "@/lib/placement/model";
 import { svgDataUrl } from "@/lib/demo-art";
 import { APPROVAL_STATEMENT } from "@/lib/review/approval";
 import type { RevisionSnapshot } from "@/lib/review/diff";
+import { PinMover } from "./PinMover";
 import { formatLength, type LengthUnit } from "@/lib/units";
 
 type Comment = {
@@ -49,6 +53,13 @@ export type ReviewViewProps = {
   signedIn: boolean;
 };
 
+/**
+ * A pin waiting for its note. `via` says how it was placed: a tap on the garment, or a spot picked
+ * from the list (its name). `focus` is where the keyboard goes once the note form shows, and `seq`
+ * changes with every placing, so placing again brings the form back into view.
+ */
+type DraftPin = { xIn: number; yIn: number; side: GarmentSide; via: string | null; focus: "note" | "pin"; seq: number };
+
 const STATE_TEXT: Record<string, { text: string; tone: string }> = {
   open: { text: "Waiting for your decision", tone: "bg-ochre-100 text-ochre-800" },
   approved: { text: "Approved", tone: "bg-patina-100 text-patina-800" },
@@ -69,17 +80,54 @@ export function ReviewView(props: ReviewViewProps) {
     refetchInterval: 3_000,
   });
   const state = query.data;
+  const revision = state.revision;
+  const decided = revision && revision.state !== "open";
   const [side, setSide] = useState<GarmentSide>("front");
   const [size, setSize] = useState(props.snapshot.size);
   const [unit, setUnit] = useState<LengthUnit>("in");
   const [worn, setWorn] = useState(false);
   const [zoom, setZoom] = useState<number | null>(null);
-  const [draftPin, setDraftPin] = useState<{ xIn: number; yIn: number; side: GarmentSide } | null>(null);
+  const [draftPin, setDraftPin] = useState<DraftPin | null>(null);
+  const pinSeq = useRef(0);
+  const chooserToggle = useRef<HTMLButtonElement>(null);
+  const hydrated = useHydrated();
   const [activeNote, setActiveNote] = useState<string | null>(null);
   const calibration = useCalibration(props.signedIn);
   const [calibrating, setCalibrating] = useState(false);
 
   const row = props.blank.sizeChart.find((r) => r.size === size) ?? props.blank.sizeChart[0]!;
+  const canPin = props.canComment && !decided;
+  // Pins stay on the garment's flat outline (sleeves included), the box the canvas draws.
+  const draftSide = draftPin?.side ?? side;
+  const pinBounds: Rect = useMemo(() => {
+    const outline = buildSilhouette(props.blank.category, row.measurements, draftSide).outline;
+    const xs = outline.map((p) => p.x);
+    const ys = outline.map((p) => p.y);
+    return { x: Math.min(...xs), y: Math.min(...ys), width: Math.max(...xs) - Math.min(...xs), height: Math.max(...ys) - Math.min(...ys) };
+  }, [props.blank.category, row.measurements, draftSide]);
+  const pinSpots = useMemo(() => {
+    const spots: Array<{ key: string; label: string; point: Point }> = props.snapshot.placements
+      .filter((p) => sideOf(p.location) === side)
+      .map((p) => {
+        const artName = props.art.find((a) => a.id === p.artworkId)?.name;
+        return { key: p.id, label: `${LOCATION_LABELS[p.location]}${artName ? ` (${artName})` : ""}`, point: placementCenter(p) };
+      });
+    // For a side with no print, or a note about the garment itself: the middle of the body.
+    const hemY = buildSilhouette(props.blank.category, row.measurements, side).hemY;
+    spots.push({ key: "middle", label: `Middle of the ${props.blank.category === "tote" ? "bag" : "garment"}`, point: { x: 0, y: hemY / 2 } });
+    return spots;
+  }, [props.snapshot.placements, props.art, props.blank.category, row.measurements, side]);
+
+  function placePin(point: Point, via: string | null, focus: DraftPin["focus"]) {
+    pinSeq.current += 1;
+    setDraftPin({ xIn: point.x, yIn: point.y, side, via, focus, seq: pinSeq.current });
+  }
+  /** The form goes away; a keyboard user goes back to where they started. */
+  function closeDraft() {
+    const back = draftPin?.focus === "pin";
+    setDraftPin(null);
+    if (back) requestAnimationFrame(() => chooserToggle.current?.focus());
+  }
   const art: ArtSource[] = useMemo(
     () =>
       props.art.map((a) => ({
@@ -109,8 +157,6 @@ export function ReviewView(props: ReviewViewProps) {
     onSuccess: (data) => client.setQueryData(["review", props.reviewKind, props.reviewKey], { comments: data.comments, revision: data.revision, approvals: data.approvals }),
   });
 
-  const revision = state.revision;
-  const decided = revision && revision.state !== "open";
   const latestApproval = state.approvals.find((a) => a.revisionLetter === revision?.letter);
 
   function downloadMockup(multiplier: number) {
@@ -128,7 +174,7 @@ export function ReviewView(props: ReviewViewProps) {
   }
 
   return (
-    <div className="mx-auto max-w-6xl">
+    <div className="mx-auto max-w-6xl" data-testid="review" data-hydrated={hydrated}>
       <header className="mb-4">
         <p className="text-sm text-ink-500">{props.shopName}</p>
         <h1 className="text-2xl">{props.jobTitle}</h1>
@@ -221,11 +267,11 @@ export function ReviewView(props: ReviewViewProps) {
               callouts
               worn={worn}
               pins={pins}
-              onGarmentClick={props.canComment && !decided ? (p) => setDraftPin({ xIn: p.x, yIn: p.y, side }) : undefined}
+              onGarmentClick={canPin ? (p) => placePin(p, null, "note") : undefined}
             />
           </div>
           <div className="flex flex-wrap items-center justify-between gap-2 border-t border-paper-200 p-2 text-xs text-ink-500">
-            <span>{props.canComment && !decided ? "Tap the garment to pin a note to that spot." : "Sizes are the print's real size."}</span>
+            <span>{canPin ? "Tap the garment to pin a note to that spot." : "Sizes are the print's real size."}</span>
             <span className="flex gap-1">
               Mock-up PNG:
               {[1, 2, 3].map((m) => (
@@ -235,9 +281,30 @@ export function ReviewView(props: ReviewViewProps) {
               ))}
             </span>
           </div>
+          {canPin ? <PinChooser side={side} spots={pinSpots} toggle={chooserToggle} onChoose={(spot) => placePin(spot.point, spot.label, "pin")} /> : null}
         </div>
 
         <aside className="space-y-4">
+          {draftPin ? (
+            <NoteComposer
+              title={`Note ${threads.length + 1}: ${draftPin.via ? `pinned on the ${draftPin.via.charAt(0).toLowerCase()}${draftPin.via.slice(1)}` : "pinned where you tapped"}${draftPin.side !== side ? ` (${draftPin.side})` : ""}`}
+              askName={props.reviewKind === "link" && !props.viewerName}
+              busy={post.isPending}
+              error={post.error?.message ?? null}
+              pin={{ x: draftPin.xIn, y: draftPin.yIn }}
+              unit={unit}
+              tote={props.blank.category === "tote"}
+              bounds={pinBounds}
+              focusRequest={{ seq: draftPin.seq, target: draftPin.focus }}
+              onMove={(p) => setDraftPin((d) => (d ? { ...d, xIn: p.x, yIn: p.y } : d))}
+              onCancel={closeDraft}
+              onSubmit={async (body, authorName) => {
+                await post.mutateAsync({ body, side: draftPin.side, xIn: draftPin.xIn, yIn: draftPin.yIn, authorName });
+                closeDraft();
+              }}
+            />
+          ) : null}
+
           <section className="card p-4" aria-label="Print sizes">
             <h2 className="text-sm font-semibold uppercase tracking-wider text-ink-500">Prints</h2>
             <ul className="mt-2 space-y-2 text-sm">
@@ -252,20 +319,6 @@ export function ReviewView(props: ReviewViewProps) {
               ))}
             </ul>
           </section>
-
-          {draftPin ? (
-            <NoteComposer
-              title={`Note ${threads.length + 1}`}
-              askName={props.reviewKind === "link" && !props.viewerName}
-              busy={post.isPending}
-              error={post.error?.message ?? null}
-              onCancel={() => setDraftPin(null)}
-              onSubmit={async (body, authorName) => {
-                await post.mutateAsync({ body, side: draftPin.side, xIn: draftPin.xIn, yIn: draftPin.yIn, authorName });
-                setDraftPin(null);
-              }}
-            />
-          ) : null}
 
           <section className="card p-4" aria-label="Notes">
             <h2 className="text-sm font-semibold uppercase tracking-wider text-ink-500">Notes</h2>
@@ -313,23 +366,103 @@ export function ReviewView(props: ReviewViewProps) {
   );
 }
 
-function NoteComposer(props: { title: string; askName: boolean; busy: boolean; error: string | null; onCancel: () => void; onSubmit: (body: string, authorName?: string) => Promise<void> }) {
+/**
+ * Pin a note without tapping: lists the prints on the side shown (and the middle of the garment),
+ * and drops the pin at the middle of the one chosen.
+ */
+function PinChooser(props: {
+  side: GarmentSide;
+  spots: Array<{ key: string; label: string; point: Point }>;
+  onChoose: (spot: { label: string; point: Point }) => void;
+  toggle: RefObject<HTMLButtonElement | null>;
+}) {
+  const [open, setOpen] = useState(false);
+  const listId = useId();
+  const { toggle } = props;
+  const close = () => {
+    setOpen(false);
+    toggle.current?.focus();
+  };
+  return (
+    <div
+      className="border-t border-paper-200 p-2 text-sm"
+      onKeyDown={(e) => {
+        if (e.key === "Escape" && open) {
+          e.preventDefault();
+          close();
+        }
+      }}
+    >
+      <button ref={toggle} type="button" className="btn-quiet px-3 py-1.5" aria-expanded={open} aria-controls={listId} onClick={() => setOpen((o) => !o)}>
+        Pin a note on…
+      </button>
+      {open ? (
+        <ul id={listId} className="mt-2 flex flex-wrap gap-2" aria-label={`Spots on the ${props.side} to pin a note on`}>
+          {props.spots.map((spot) => (
+            <li key={spot.key}>
+              <button
+                type="button"
+                className="rounded-lg border border-paper-300 bg-chalk px-3 py-1.5 text-left text-ink-800 hover:bg-paper-200"
+                onClick={() => {
+                  setOpen(false);
+                  props.onChoose(spot);
+                }}
+              >
+                {spot.label}
+              </button>
+            </li>
+          ))}
+        </ul>
+      ) : null}
+    </div>
+  );
+}
+
+function NoteComposer(props: {
+  title: string;
+  askName: boolean;
+  busy: boolean;
+  error: string | null;
+  pin: Point;
+  unit: LengthUnit;
+  tote: boolean;
+  bounds: Rect;
+  focusRequest: { seq: number; target: "note" | "pin" };
+  onMove: (pin: Point) => void;
+  onCancel: () => void;
+  onSubmit: (body: string, authorName?: string) => Promise<void>;
+}) {
   const [body, setBody] = useState("");
   const [name, setName] = useState("");
+  const form = useRef<HTMLFormElement>(null);
+  const note = useRef<HTMLTextAreaElement>(null);
+  const pad = useRef<HTMLDivElement>(null);
+  const { seq, target } = props.focusRequest;
+  // Each new pin brings the form to where the thumb is: in view, with the keyboard in the note
+  // (after a tap) or on the pin (after picking a print, so the arrow keys move it).
+  useEffect(() => {
+    const field = target === "pin" ? pad.current : note.current;
+    field?.focus({ preventScroll: true });
+    const still = window.matchMedia?.("(prefers-reduced-motion: reduce)").matches ?? true;
+    form.current?.scrollIntoView?.({ block: "nearest", behavior: still ? "auto" : "smooth" });
+  }, [seq, target]);
   return (
     <form
-      className="card space-y-2 border-ochre-300 p-4"
+      ref={form}
+      className="card scroll-mb-4 scroll-mt-20 space-y-2 border-ochre-300 p-4"
       onSubmit={async (e) => {
         e.preventDefault();
         await props.onSubmit(body, props.askName ? name || undefined : undefined).catch(() => undefined);
       }}
       aria-label="New note"
+      data-testid="note-composer"
     >
-      <h2 className="text-sm font-semibold">{props.title}: pinned where you tapped</h2>
+      <h2 className="text-sm font-semibold">{props.title}</h2>
+      <PinMover pin={props.pin} unit={props.unit} tote={props.tote} bounds={props.bounds} onMove={props.onMove} ref={pad} />
+      <textarea ref={note} className="field-input min-h-20 text-sm" value={body} onChange={(e) => setBody(e.target.value)} aria-label="Note" maxLength={2000} placeholder="What should change here?" />
       {props.askName ? (
-        <input className="field-input py-1.5 text-sm" placeholder="Your name" value={name} onChange={(e) => setName(e.target.value)} aria-label="Your name" maxLength={80} />
+        <input className="field-input py-1.5 text-sm" placeholder="Your name" value={name} onChange={(e) => setName(e.target.value)} aria-label="Your name" maxLength={80} autoComplete="name" />
       ) : null}
-      <textarea className="field-input min-h-20 text-sm" value={body} onChange={(e) => setBody(e.target.value)} aria-label="Note" maxLength={2000} placeholder="What should change here?" />
       {props.error ? <p className="field-error">{props.error}</p> : null}
       <div className="flex gap-2">
         <button type="submit" className="btn-primary px-3 py-1.5" disabled={props.busy || !body.trim()}>

@@ -1,6 +1,7 @@
 import { notFound } from "next/navigation";
 import { quotePanelData } from "@/app/_server/orders";
 import { checkoutReturn } from "@/app/_server/quote-return";
+import { CheckoutResult } from "@/components/orders/CheckoutResult";
 import { buildReviewProps } from "@/app/_server/review-props";
 import { QuotePanel } from "@/components/orders/QuotePanel";
 import { findProofShop } from "@/db/queries/proofs";
@@ -31,10 +32,12 @@ export default async function ReviewByLinkPage({ params, searchParams }: { param
         <span className="text-xs text-ink-500">Proof from {props.shopName}</span>
       </header>
       <main className="px-3 py-4 sm:px-gutter sm:py-6">
+        {/* Back from checkout: the outcome comes first, not under the mock-up and the notes. */}
+        <CheckoutResult outcome={returned} quoteHref="#quote" className="mx-auto mb-4 max-w-6xl" />
         <ReviewView {...props} />
         {panel ? (
           <div className="mx-auto mt-6 max-w-3xl">
-            <QuotePanel data={panel} linkToken={token} canAccept={reviewer.canApprove} returned={returned} />
+            <QuotePanel data={panel} linkToken={token} canAccept={reviewer.canApprove} />
           </div>
         ) : null}
       </main>

@@ -3,6 +3,7 @@ import { notFound } from "next/navigation";
 import { requireActorPage } from "@/app/_server/access";
 import { quotePanelData } from "@/app/_server/orders";
 import { checkoutReturn } from "@/app/_server/quote-return";
+import { CheckoutResult } from "@/components/orders/CheckoutResult";
 import { QuotePanel } from "@/components/orders/QuotePanel";
 import { EmptyState } from "@/components/ui/EmptyState";
 import { PageHeader } from "@/components/ui/PageHeader";
@@ -24,6 +25,7 @@ export default async function PortalJobPage({ params, searchParams }: { params: 
   const proofs = shared.filter((p) => p.jobId === job.id);
   return (
     <>
+      <CheckoutResult outcome={returned} />
       <p className="mb-2 text-sm">
         <Link href="/portal" className="text-patina-700 hover:underline">
           ← My jobs
@@ -31,7 +33,7 @@ export default async function PortalJobPage({ params, searchParams }: { params: 
       </p>
       <PageHeader title={job.title} lead={`${contact.shopName}${job.dueDate ? ` · wanted by ${job.dueDate}` : ""}`} actions={<StatusBadge status={job.status} />} />
       <div className="grid gap-6 lg:grid-cols-[minmax(0,3fr)_minmax(0,2fr)]">
-        {panel ? <QuotePanel data={panel} canAccept returned={returned} /> : <EmptyState title="No quote yet">The print shop will send a quote here once the details are settled.</EmptyState>}
+        {panel ? <QuotePanel data={panel} canAccept /> : <EmptyState title="No quote yet">The print shop will send a quote here once the details are settled.</EmptyState>}
         <section className="card h-fit p-5" aria-label="Proofs">
           <h2 className="mb-2 text-lg">Proofs</h2>
           {proofs.length === 0 ? (
