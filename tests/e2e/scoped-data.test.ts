@@ -77,7 +77,10 @@ describe("a client reaches only art meant for them", () => {
   });
 
   it("a review page names the placed art only, never the rest of the shop's library", async () => {
-    const { token } = await createShareLink({ shopId: shop.id, proofId: records.proofId, permission: "comment", expiresAt: null, recipientEmail: null, recipientName: null, createdBy: ownerId });
+    // Sent now, while the shop's library holds art that is not on this proof.
+    const proofId = await insertProof(shop.id, records.jobId, `Mill back ${tag}`, records.artworkId, ownerId);
+    await sendRevision({ document: (await getProofDocument({ shopId: shop.id, proofId }))!, userId: ownerId });
+    const { token } = await createShareLink({ shopId: shop.id, proofId, permission: "comment", expiresAt: null, recipientEmail: null, recipientName: null, createdBy: ownerId });
     const response = await fetch(`${BASE_URL}/r/${token}`);
     expect(response.status).toBe(200);
     const html = await response.text();
