@@ -65,6 +65,6 @@ console.log(`
 
   Demo sign-ins (password: ${DEMO_PASSWORD})
 ${DEMO_ACCOUNTS.map((a) => `    ${a.email.padEnd(width)}  ${a.role}`).join("\n")}
-${stack.env.MAIL_FAKE_API ? `\n  E-mail sent by the app lands in ${url}/dev/mailbox\n` : ""}
+${stack.env.MAIL_FAKE_API ? `\n  E-mail sent by the app lands in ${url}/dev/mailbox?key=${stack.env.MAIL_FAKE_KEY}\n  (the key is this install's own, in .data/fakes-key; without it the mailbox is not there)\n` : ""}
   Press Ctrl+C to stop.
 `);

@@ -11,6 +11,16 @@ export function mailFakeApi(): string | null {
   return process.env.MAIL_FAKE_API ?? null;
 }
 
+/**
+ * The local mail catcher and its key, when the fake is in use. The mailbox page answers only to a
+ * request that carries this install's key; without one, or with real SMTP settings, it is not there.
+ */
+export function mailFake(): { api: string; key: string } | null {
+  const api = mailFakeApi();
+  const key = process.env.MAIL_FAKE_KEY;
+  return api && key && key.length >= 16 ? { api, key } : null;
+}
+
 export function mailFrom(): string {
   return process.env.MAIL_FROM ?? "Chalkline <proofs@chalkline.test>";
 }

@@ -22,7 +22,7 @@ import { mkdirSync, readdirSync, readFileSync, renameSync, rmSync, writeFileSync
 import http from "node:http";
 import type { AddressInfo } from "node:net";
 import path from "node:path";
-import { randomBytes } from "node:crypto";
+import { randomBytes, timingSafeEqual } from "node:crypto";
 import { simpleParser, type AddressObject, type EmailAddress, type ParsedMail } from "mailparser";
 import {
   SMTPServer,
@@ -98,6 +98,11 @@ export interface StoredMessage {
 
 export interface SmtpFakeOptions extends MailTarget {
   log?: LogFn;
+  /**
+   * The per-install key every HTTP request but /health must carry (header `x-fake-key` or query
+   * `key`); without it the catcher answers 404, so nobody who reaches the port reads the mail.
+   */
+  key: string;
 }
 
 export interface SmtpFake {
@@ -376,14 +381,15 @@ function sendHtml(res: http.ServerResponse, status: number, html: string, sandbo
   res.end(html);
 }
 
-function inboxPage(messages: StoredMessage[]): string {
+function inboxPage(messages: StoredMessage[], key: string): string {
+  const q = `?key=${encodeURIComponent(key)}`;
   const rows = messages
     .map(
       (m) =>
         `<tr><td>${escapeHtml(m.date.replace("T", " ").slice(0, 19))}</td><td>${escapeHtml(m.from)}</td>` +
         `<td>${escapeHtml([...m.to, ...m.cc].join(", ") || m.envelope.to.join(", "))}</td>` +
-        `<td><a href="/messages/${m.id}/html">${escapeHtml(m.subject || "(no subject)")}</a> ` +
-        `<a href="/messages/${m.id}">json</a></td></tr>`,
+        `<td><a href="/messages/${m.id}/html${q}">${escapeHtml(m.subject || "(no subject)")}</a> ` +
+        `<a href="/messages/${m.id}${q}">json</a></td></tr>`,
     )
     .join("\n");
   return `<!doctype html><html><head><meta charset="utf-8"><title>Local mail (${messages.length})</title>
@@ -401,7 +407,15 @@ function parseIntParam(v: string | null, max: number): number | undefined {
   return Math.min(n, max);
 }
 
-function createHttpHandler(store: MessageStore, log: LogFn, pending: Set<() => void>) {
+/** Whether a request carries the catcher's key, compared in constant time. */
+export function carriesKey(req: http.IncomingMessage, url: URL, key: string): boolean {
+  const given = String(req.headers["x-fake-key"] ?? url.searchParams.get("key") ?? "");
+  const a = Buffer.from(given);
+  const b = Buffer.from(key);
+  return a.length === b.length && timingSafeEqual(a, b);
+}
+
+function createHttpHandler(store: MessageStore, log: LogFn, pending: Set<() => void>, key: string) {
   return async (req: http.IncomingMessage, res: http.ServerResponse): Promise<void> => {
     const url = new URL(req.url ?? "/", `http://${HOST}`);
     const method = req.method ?? "GET";
@@ -411,13 +425,15 @@ function createHttpHandler(store: MessageStore, log: LogFn, pending: Set<() => v
       sendJson(res, 405, { error: `method ${method} not allowed`, allowed: allowed.split(", ") });
     };
 
-    if (parts.length === 0) {
-      if (method !== "GET") return notAllowed("GET");
-      return sendHtml(res, 200, inboxPage(store.list()));
-    }
     if (parts[0] === "health" && parts.length === 1) {
       if (method !== "GET") return notAllowed("GET");
-      return sendJson(res, 200, { ok: true, messages: store.size });
+      return sendJson(res, 200, { ok: true });
+    }
+    // Without the key the catcher is not there at all: no mail, no count, no hint.
+    if (!carriesKey(req, url, key)) return sendJson(res, 404, { error: "not found" });
+    if (parts.length === 0) {
+      if (method !== "GET") return notAllowed("GET");
+      return sendHtml(res, 200, inboxPage(store.list(), key));
     }
     if (parts[0] !== "messages" || parts.length > 3) {
       return sendJson(res, 404, { error: "not found", path: url.pathname });
@@ -548,7 +564,8 @@ export async function startSmtpFake(opts: SmtpFakeOptions): Promise<SmtpFake> {
   });
 
   const pending = new Set<() => void>();
-  const handler = createHttpHandler(store, log, pending);
+  if (!opts.key || opts.key.length < 16) throw new Error("The mail catcher needs a key of at least 16 characters.");
+  const handler = createHttpHandler(store, log, pending, opts.key);
   const web = http.createServer((req, res) => {
     handler(req, res).catch((err: unknown) => {
       log(`http error: ${(err as Error).message}`);
@@ -619,6 +636,7 @@ export async function startSmtpFake(opts: SmtpFakeOptions): Promise<SmtpFake> {
  */
 export async function waitForMail(opts: {
   httpPort: number;
+  key: string;
   to: string;
   /** Only messages with an id greater than this. */
   since?: string;
@@ -630,7 +648,7 @@ export async function waitForMail(opts: {
     const wait = Math.max(0, Math.min(MAX_WAIT_MS, deadline - Date.now()));
     const qs = new URLSearchParams({ to: opts.to, wait: String(wait) });
     if (opts.since) qs.set("since", opts.since);
-    const res = await fetch(`http://${HOST}:${opts.httpPort}/messages?${qs.toString()}`).catch(
+    const res = await fetch(`http://${HOST}:${opts.httpPort}/messages?${qs.toString()}`, { headers: { "x-fake-key": opts.key } }).catch(
       (err: unknown) => {
         throw new Error(`Mail catcher not reachable on ${HOST}:${opts.httpPort}: ${(err as Error).message}`, {
           cause: err,
@@ -659,8 +677,9 @@ async function main(argv: string[]): Promise<void> {
   }
   const target = argv.includes("--test") ? TEST_MAIL : DEV_MAIL;
   const log = stderrLogger("mail");
-  const fake = await startSmtpFake({ ...target, log });
-  log(`inbox: ${fake.apiUrl}/   (Ctrl-C to stop)`);
+  const key = process.env.FAKES_KEY ?? randomBytes(24).toString("base64url");
+  const fake = await startSmtpFake({ ...target, log, key });
+  log(`inbox: ${fake.apiUrl}/?key=${key}   (Ctrl-C to stop)`);
   const stop = (signal: NodeJS.Signals) => {
     log(`${signal}: shutting down`);
     fake.close().then(

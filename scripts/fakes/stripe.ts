@@ -201,6 +201,8 @@ export interface StripeFakeOptions extends StripeTarget {
   /** Base URL browsers reach the fake at (for session.url); default http://127.0.0.1:<port>. */
   publicUrl?: string;
   log?: LogFn;
+  /** Key the admin endpoints (/__fake/…) require in `x-fake-key`; a random one when not given. */
+  adminKey?: string;
   /** When set, only this secret key is accepted; otherwise any sk_test_… / rk_test_… key is. */
   secretKey?: string;
   /** Delays before each webhook retry; default 250, 1000, 3000 ms (four attempts). */
@@ -242,6 +244,8 @@ export interface StoredEvent {
 
 export interface StripeFake {
   close(): Promise<void>;
+  /** The key its admin endpoints (/__fake/…) require in the `x-fake-key` header. */
+  readonly adminKey: string;
   /** Base URL, e.g. http://127.0.0.1:2720 */
   readonly url: string;
   readonly port: number;
@@ -1057,6 +1061,7 @@ function fillSessionId(url: string, id: string): string {
 
 export async function startStripeFake(opts: StripeFakeOptions): Promise<StripeFake> {
   const log = opts.log ?? (() => {});
+  const adminKey = opts.adminKey ?? randomBytes(24).toString("base64url");
   const retryDelays = [...(opts.webhookRetryDelaysMs ?? DEFAULT_WEBHOOK_RETRY_DELAYS_MS)];
   const webhookTimeoutMs = opts.webhookTimeoutMs ?? 10_000;
   if (!opts.webhookSecret) throw new Error("A webhook secret is required");
@@ -1715,6 +1720,15 @@ export async function startStripeFake(opts: StripeFakeOptions): Promise<StripeFa
       sendJson(res, 200, JSON.stringify({ ok: true, sessions: sessions.size, events: events.size }));
       return;
     }
+    // The admin endpoints list customers' e-mail addresses and replay events: key holders only.
+    if (pathname.startsWith("/__fake/")) {
+      const given = Buffer.from(String(req.headers["x-fake-key"] ?? ""));
+      const want = Buffer.from(adminKey);
+      if (!(given.length === want.length && timingSafeEqual(given, want))) {
+        sendJson(res, 404, JSON.stringify({ error: { type: "invalid_request_error", message: "Unrecognized request URL." } }));
+        return;
+      }
+    }
     if (pathname === "/__fake/events" && method === "GET") {
       const list = [...events.values()].sort((a, b) => b.event.created - a.event.created);
       sendJson(res, 200, JSON.stringify(list, null, 2));
@@ -1786,6 +1800,7 @@ export async function startStripeFake(opts: StripeFakeOptions): Promise<StripeFa
   return {
     url: baseUrl,
     port,
+    adminKey,
     events: () => [...events.values()].sort((a, b) => b.event.created - a.event.created),
     resend(eventId: string) {
       const stored = events.get(eventId);
@@ -1832,6 +1847,7 @@ async function main(argv: string[]): Promise<void> {
     webhookSecret: keys.webhookSecret,
     secretKey: keys.secretKey,
     publicUrl: process.env.STRIPE_FAKE_PUBLIC_URL,
+    adminKey: process.env.FAKES_KEY,
     log,
   });
   for (const [k, v] of Object.entries(fakeStripeEnv({ url: fake.url, ...keys }))) log(`${k}=${v}`);

@@ -41,6 +41,21 @@ export function authSecret(): string {
  * second checkout on this machine can run its tests beside the first. The fakes sit 100 ports
  * apart, so use a multiple of 1000 (1000, 2000…) or an offset under 40. Dev ports never move.
  */
+/**
+ * The key of the local fakes' own pages and APIs (the mail catcher, the payments fake's admin
+ * endpoints): FAKES_KEY from the environment, or one made once per install into .data/.
+ */
+export function fakesKey(): string {
+  if (process.env.FAKES_KEY) return process.env.FAKES_KEY;
+  const dir = path.join(repoRoot, ".data");
+  mkdirSync(dir, { recursive: true, mode: 0o755 });
+  const file = path.join(dir, "fakes-key");
+  if (existsSync(file)) return readFileSync(file, "utf8").trim();
+  const key = randomBytes(24).toString("base64url");
+  writeFileSync(file, `${key}\n`, { mode: 0o600 });
+  return key;
+}
+
 export function testPortOffset(): number {
   const raw = process.env.CHALKLINE_PORT_OFFSET;
   if (!raw) return 0;
@@ -106,11 +121,13 @@ async function bringUp({ mode, port }: { mode: StackMode; port: number }, closer
     log("e-mail: sending through SMTP_URL");
   } else {
     const mail = mode === "test" ? { smtpPort: TEST_MAIL.smtpPort + offset, httpPort: TEST_MAIL.httpPort + offset, dir: TEST_MAIL.dir + suffix } : DEV_MAIL;
-    const fake = await startSmtpFake({ ...mail, log: (line) => log(`mail: ${line}`) });
+    const key = fakesKey();
+    const fake = await startSmtpFake({ ...mail, key, log: (line) => log(`mail: ${line}`) });
     closers.push(() => fake.close());
     env.MAIL_FAKE_SMTP_PORT = String(mail.smtpPort);
     env.MAIL_FAKE_API = `http://127.0.0.1:${mail.httpPort}`;
-    log(`e-mail: local catcher on 127.0.0.1:${mail.smtpPort}; read it at ${baseUrl}/dev/mailbox`);
+    env.MAIL_FAKE_KEY = key;
+    log(`e-mail: local catcher on 127.0.0.1:${mail.smtpPort}; read it at ${baseUrl}/dev/mailbox?key=${key}`);
   }
 
   if (process.env.UPLOADTHING_TOKEN && !process.env.UPLOADTHING_FAKE_URL) {
@@ -134,10 +151,12 @@ async function bringUp({ mode, port }: { mode: StackMode; port: number }, closer
       webhookUrl: `http://127.0.0.1:${port}/api/stripe/webhook`,
       webhookSecret: keys.webhookSecret,
       secretKey: keys.secretKey,
+      adminKey: fakesKey(),
       log: (line) => log(`payments: ${line}`),
     });
     closers.push(() => fake.close());
     Object.assign(env, fakeStripeEnv({ url: fake.url, ...keys }));
+    env.STRIPE_FAKE_ADMIN_KEY = fake.adminKey;
     log(`payments: local fake of the payments API on ${fake.url}; its checkout page says it is a test page`);
   }
 

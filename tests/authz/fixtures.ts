@@ -274,6 +274,7 @@ export async function buildAuthzFixture(): Promise<AuthzFixture> {
     commentId: comment.id,
     device: `matrix-${tag}-screen`,
     utVersion: "",
+    mailKey: process.env.MAIL_FAKE_KEY ?? "",
     otherJobId: their.jobId,
     otherProofId: their.proofId,
     otherClientId: their.clientId,

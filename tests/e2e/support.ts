@@ -3,6 +3,8 @@ import { expect } from "vitest";
 
 export const BASE_URL = process.env.E2E_BASE_URL ?? "http://localhost:3100";
 export const MAIL_API = process.env.MAIL_FAKE_API ?? "http://127.0.0.1:2590";
+/** The mail catcher's key, from the stack `npm test` started. */
+export const MAIL_KEY = process.env.MAIL_FAKE_KEY ?? "";
 export const DEMO_PASSWORD = "chalkline-demo";
 export const DEMO_SHOP = "quarry-street-print-co";
 
@@ -72,7 +74,7 @@ export type CaughtMail = { id: string; to: string[]; subject: string; text: stri
 export async function waitForMail(to: string, subject: RegExp, since = 0, timeoutMs = 15_000): Promise<CaughtMail> {
   const deadline = Date.now() + timeoutMs;
   while (Date.now() < deadline) {
-    const response = await fetch(`${MAIL_API}/messages?to=${encodeURIComponent(to)}`);
+    const response = await fetch(`${MAIL_API}/messages?to=${encodeURIComponent(to)}`, { headers: { "x-fake-key": MAIL_KEY } });
     const messages = (await response.json()) as CaughtMail[];
     const match = messages.find((m) => subject.test(m.subject) && Date.parse(m.date) >= since);
     if (match) return match;

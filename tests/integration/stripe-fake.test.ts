@@ -288,7 +288,7 @@ describe("webhook delivery", () => {
     const s = await createSession();
     await submitPage(s.id, "action=pay");
     const first = hooks.find((h) => h.type === "checkout.session.completed")!;
-    const res = await fetch(`${fake.url}/__fake/resend/${first.id}`, { method: "POST" });
+    const res = await fetch(`${fake.url}/__fake/resend/${first.id}`, { method: "POST", headers: { "x-fake-key": fake.adminKey } });
     expect(res.status).toBe(200);
     expect(await res.json()).toMatchObject({ eventId: first.id, delivered: true });
     const again = hooks.filter((h) => h.id === first.id);
@@ -298,7 +298,7 @@ describe("webhook delivery", () => {
       first.id,
     );
 
-    const missing = await fetch(`${fake.url}/__fake/resend/evt_nope`, { method: "POST" });
+    const missing = await fetch(`${fake.url}/__fake/resend/evt_nope`, { method: "POST", headers: { "x-fake-key": fake.adminKey } });
     expect(missing.status).toBe(404);
   });
 
@@ -419,7 +419,7 @@ describe("storage", () => {
     expect(again).toMatchObject({ status: "complete", payment_status: "paid" });
     const event = await stripe.events.retrieve(eventId);
     expect(event.type).toBe("checkout.session.completed");
-    const res = await fetch(`${fake.url}/__fake/resend/${eventId}`, { method: "POST" });
+    const res = await fetch(`${fake.url}/__fake/resend/${eventId}`, { method: "POST", headers: { "x-fake-key": fake.adminKey } });
     expect(res.status).toBe(200);
     expect(hooks.filter((h) => h.id === eventId)).toHaveLength(2);
   });

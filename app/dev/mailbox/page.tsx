@@ -1,19 +1,30 @@
+import { timingSafeEqual } from "node:crypto";
 import { notFound } from "next/navigation";
-import { mailFakeApi } from "@/app/_server/config";
+import { mailFake } from "@/app/_server/config";
 import { Logo } from "@/components/ui/Logo";
 import { MailboxView, type CaughtMessage } from "./MailboxView";
 
 export const dynamic = "force-dynamic";
 export const metadata = { title: "Dev mailbox" };
 
-/** Lists what the local mail catcher received. Exists only while the catcher is in use. */
-export default async function MailboxPage() {
-  const api = mailFakeApi();
-  if (!api) notFound();
+function sameKey(given: string, key: string): boolean {
+  const a = Buffer.from(given);
+  const b = Buffer.from(key);
+  return a.length === b.length && timingSafeEqual(a, b);
+}
+
+/**
+ * Lists what the local mail catcher received. Exists only while the catcher is in use, and only
+ * for whoever holds this install's key (`npm start` prints the full address).
+ */
+export default async function MailboxPage({ searchParams }: { searchParams: Promise<{ key?: string | string[] }> }) {
+  const fake = mailFake();
+  const { key } = await searchParams;
+  if (!fake || typeof key !== "string" || !sameKey(key, fake.key)) notFound();
   let messages: CaughtMessage[] = [];
   let error: string | undefined;
   try {
-    const response = await fetch(`${api}/messages`, { cache: "no-store" });
+    const response = await fetch(`${fake.api}/messages`, { cache: "no-store", headers: { "x-fake-key": fake.key } });
     messages = (await response.json()) as CaughtMessage[];
   } catch {
     error = "The local mail catcher is not answering. Restart with `npm start`.";
