@@ -283,5 +283,33 @@ describe("the whole job from an empty shop", () => {
     await expect(owner.getByTestId("share-changes").textContent()).resolves.toMatch(/Changed since revision A:.*width 9 in → 11 in/);
     await press.reload();
     await press.getByTestId("production-revisions").getByText(/prints revision A, as the client approved it/).waitFor();
+
+    // --- A designer joins and makes a second proof for the job (a hoodie): the editor opens with the canvas.
+    const designerEmail = `designer-${tag}@journey.test`;
+    await owner.goto(`/shops/${slug}/settings`);
+    await owner.locator('form[aria-label="Invite a team member"][data-hydrated="true"]').waitFor();
+    await owner.getByLabel("E-mail").fill(designerEmail);
+    await owner.getByRole("radio", { name: /Designer/ }).check();
+    await owner.getByRole("button", { name: "Send invitation" }).click();
+    const designerInvite = await waitForMail(designerEmail, /invited you/i, since);
+    const designerContext = await context();
+    const designer = await designerContext.newPage();
+    await designer.goto(firstLink(designerInvite.text, "/invite/").replace(/^https?:\/\/[^/]+/, BASE_URL));
+    await hydrated(designer);
+    await designer.getByLabel("Your name").fill("Lio Marchetti");
+    await designer.getByLabel("Choose a password").fill(PASSWORD);
+    await designer.getByRole("button", { name: "Accept and join" }).click();
+    await designer.waitForURL(new RegExp(`/shops/${slug}`));
+    await designer.goto(jobUrl);
+    await designer.getByRole("link", { name: "Make another proof" }).click();
+    await hydrated(designer);
+    await designer.getByLabel("Blank").selectOption({ label: "Campfire Pullover Hoodie (pullover hoodie)" });
+    await designer.getByRole("button", { name: "Make proof and open the editor" }).click();
+    await designer.waitForURL(/\/shops\/[^/]+\/proofs\/[0-9a-f-]{36}$/);
+    await canvasDrawn(designer);
+    const hoodie = await proofJson(designer, new URL(designer.url()).pathname.split("/").pop()!);
+    expect(hoodie.placements.map((p) => p.location)).toEqual(["full-front", "full-back"]);
+    // The press cannot make proofs: the page is not open to production.
+    expect((await press.goto(`${jobUrl}/proofs/new`))?.status()).toBe(403);
   }, 600_000);
 });
