@@ -32,7 +32,6 @@ export async function isEmpty(): Promise<boolean> {
   return (row?.n ?? 0) === 0;
 }
 
-const account = (role: (typeof DEMO_ACCOUNTS)[number]["role"]) => DEMO_ACCOUNTS.find((a) => a.role === role)!;
 const run = (sizes: Array<[string, number]>): SizeRunEntry[] => sizes.map(([size, quantity]) => ({ size, quantity }));
 
 /** How the demo's makers left each print in the editor: width (height follows the art) and distance from the collar or top edge. */
@@ -41,12 +40,26 @@ type Tuned = { widthIn: number; belowCollarIn: number };
 export async function seedDemo(): Promise<{ seeded: boolean }> {
   await ensureLibraryBlanks(db);
   if (!(await isEmpty())) return { seeded: false };
-  const passwordHash = await bcrypt.hash(DEMO_PASSWORD, 10);
+  const shop = await buildDemoShop({ shopName: DEMO_SHOP.name, emails: Object.fromEntries(DEMO_ACCOUNTS.map((a) => [a.role, a.email])) as DemoEmails, password: DEMO_PASSWORD });
+  if (shop.slug !== DEMO_SHOP.slug) throw new Error(`The demo shop's slug came out as ${shop.slug}, not ${DEMO_SHOP.slug}.`);
+  return { seeded: true };
+}
+
+export type DemoEmails = Record<(typeof DEMO_ACCOUNTS)[number]["role"], string>;
+
+/**
+ * The demo scenario as a new shop would build it: its shop name, its people's e-mails and their
+ * password are the caller's, so a test can build its own copy of the demo and change it freely.
+ * Returns the shop and the people's ids.
+ */
+export async function buildDemoShop(opts: { shopName: string; emails: DemoEmails; password: string }): Promise<{ id: string; slug: string; userIds: Record<keyof DemoEmails, string> }> {
+  await ensureLibraryBlanks(db);
+  const passwordHash = await bcrypt.hash(opts.password, 10);
+  const account = (role: keyof DemoEmails) => ({ ...DEMO_ACCOUNTS.find((a) => a.role === role)!, email: opts.emails[role] });
 
   // Sign-up: the owner makes the shop, then proves the e-mail address.
   const owner = account("owner");
-  const made = await createShopWithOwner({ shopName: DEMO_SHOP.name, name: owner.name, email: owner.email, passwordHash });
-  if (made.shopSlug !== DEMO_SHOP.slug) throw new Error(`The demo shop's slug came out as ${made.shopSlug}, not ${DEMO_SHOP.slug}.`);
+  const made = await createShopWithOwner({ shopName: opts.shopName, name: owner.name, email: owner.email, passwordHash });
   const shop = (await findShopBySlug({ slug: made.shopSlug }))!;
   const ownerId = made.userId;
   await markEmailVerified({ userId: ownerId });
@@ -135,5 +148,5 @@ export async function seedDemo(): Promise<{ seeded: boolean }> {
 
   // The bakery's totes are with the client, as the owner marked them on the board.
   await setJobStatus({ shopId: shop.id, jobId: totes.id, status: "with-client", actorUserId: ownerId });
-  return { seeded: true };
+  return { id: shop.id, slug: shop.slug, userIds: { owner: ownerId, designer: designerId, production: ids.production!, client: clientUser.id } };
 }

@@ -2,18 +2,24 @@ import AxeBuilder from "@axe-core/playwright";
 import type { Browser, BrowserContext, Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { fetchProof, openTeeProof, waitSaved } from "./editor-support";
-import { DEMO_SHOP, launch, newContext, signIn } from "./support";
+import { launch, newContext, signIn } from "./support";
+import { demoCopy, type DemoCopy } from "./demo-copy";
+import { getPool } from "@/db/client";
 
 let browser: Browser;
 let owner: BrowserContext;
 let page: Page;
+let demo: DemoCopy;
 beforeAll(async () => {
+  demo = await demoCopy("a11y");
   browser = await launch();
   owner = await newContext(browser, { viewport: { width: 1440, height: 1000 } });
   page = await owner.newPage();
-  await signIn(page, "owner@chalkline.test");
+  await signIn(page, demo.emails.owner);
 });
 afterAll(async () => {
+  await demo?.drop();
+  await getPool().end();
   await browser?.close();
 });
 
@@ -31,7 +37,7 @@ async function audit(target: Page, label: string) {
 }
 
 async function proofIdOf(target: Page, jobTitle: RegExp, proofName: RegExp): Promise<string> {
-  await target.goto(`/shops/${DEMO_SHOP}/jobs`);
+  await target.goto(`/shops/${demo.slug}/jobs`);
   await target.getByRole("link", { name: jobTitle }).click();
   await target.getByRole("link", { name: proofName }).click();
   await target.waitForURL(/\/proofs\//);
@@ -47,7 +53,7 @@ describe("accessibility of the main pages (axe, WCAG 2.2 AA)", () => {
     await audit(visitor, "landing /");
     await visitor.goto("/sign-in");
     await audit(visitor, "/sign-in");
-    await visitor.getByLabel("E-mail").fill("owner@chalkline.test");
+    await visitor.getByLabel("E-mail").fill(demo.emails.owner);
     await visitor.getByLabel("Password").fill("not-the-password");
     await visitor.getByRole("button", { name: "Sign in", exact: true }).click();
     await visitor.getByRole("alert").waitFor();
@@ -56,40 +62,40 @@ describe("accessibility of the main pages (axe, WCAG 2.2 AA)", () => {
   });
 
   it("shop overview, blanks and art library", async () => {
-    await page.goto(`/shops/${DEMO_SHOP}`);
+    await page.goto(`/shops/${demo.slug}`);
     await audit(page, "shop overview");
-    await page.goto(`/shops/${DEMO_SHOP}/blanks`);
+    await page.goto(`/shops/${demo.slug}/blanks`);
     await audit(page, "blanks list");
-    await page.goto(`/shops/${DEMO_SHOP}/art`);
+    await page.goto(`/shops/${demo.slug}/art`);
     await audit(page, "art library");
   });
 
   it("jobs list and board, a job with its quote, the job form, clients and prices", async () => {
-    await page.goto(`/shops/${DEMO_SHOP}/jobs`);
+    await page.goto(`/shops/${demo.slug}/jobs`);
     await audit(page, "jobs list");
-    await page.goto(`/shops/${DEMO_SHOP}/jobs?view=board`);
+    await page.goto(`/shops/${demo.slug}/jobs?view=board`);
     await audit(page, "jobs board");
-    await page.goto(`/shops/${DEMO_SHOP}/jobs/new`);
+    await page.goto(`/shops/${demo.slug}/jobs/new`);
     await audit(page, "new job form");
     await page.getByRole("button", { name: "Create job" }).click();
     await page.locator(".field-error").first().waitFor();
     await audit(page, "new job form with errors");
-    await page.goto(`/shops/${DEMO_SHOP}/jobs`);
+    await page.goto(`/shops/${demo.slug}/jobs`);
     await page.getByRole("link", { name: /Spring season team tees/ }).click();
     await page.getByTestId("job-money").waitFor();
     await audit(page, "job page with quote and payments");
-    await page.goto(`/shops/${DEMO_SHOP}/clients`);
+    await page.goto(`/shops/${demo.slug}/clients`);
     await audit(page, "clients");
-    await page.goto(`/shops/${DEMO_SHOP}/clients/new`);
+    await page.goto(`/shops/${demo.slug}/clients/new`);
     await audit(page, "new client form");
-    await page.goto(`/shops/${DEMO_SHOP}/prices`);
+    await page.goto(`/shops/${demo.slug}/prices`);
     await audit(page, "price matrix");
   });
 
   it("the client's jobs", async () => {
     const clientContext = await newContext(browser, { viewport: { width: 420, height: 900 } });
     const client = await clientContext.newPage();
-    await signIn(client, "client@chalkline.test");
+    await signIn(client, demo.emails.client);
     await client.goto("/portal");
     await audit(client, "client portal");
     await client.getByRole("link", { name: /Spring season team tees/ }).click();
@@ -99,7 +105,7 @@ describe("accessibility of the main pages (axe, WCAG 2.2 AA)", () => {
   });
 
   it("the proof editor", async () => {
-    await openTeeProof(page);
+    await openTeeProof(page, 0.3, demo.slug);
     await audit(page, "editor");
     await page.getByRole("button", { name: "Share with client" }).click();
     await page.getByRole("dialog").waitFor();
@@ -127,7 +133,7 @@ describe("accessibility of the main pages (axe, WCAG 2.2 AA)", () => {
   });
 
   it("the production page", async () => {
-    await page.goto(`/shops/${DEMO_SHOP}/jobs`);
+    await page.goto(`/shops/${demo.slug}/jobs`);
     await page.getByRole("link", { name: /Spring season team tees/ }).click();
     await page.getByRole("link", { name: "Production" }).click();
     await page.getByTestId("grading-summary").first().waitFor();
@@ -139,8 +145,8 @@ describe("the editor without a mouse", () => {
   it("reaches the art with Tab, nudges it with the arrow keys, and sizes and places it from the inspector fields", async () => {
     const context = await newContext(browser, { viewport: { width: 1440, height: 1000 } });
     const keys = await context.newPage();
-    await signIn(keys, "designer@chalkline.test");
-    const proofId = await openTeeProof(keys);
+    await signIn(keys, demo.emails.designer);
+    const proofId = await openTeeProof(keys, 0.3, demo.slug);
     const start = (await fetchProof(keys, proofId)).placements[0]!;
 
     /** Presses Tab until the focused element matches, as a keyboard user would. */

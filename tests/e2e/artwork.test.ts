@@ -4,15 +4,21 @@ import path from "node:path";
 import type { Browser } from "playwright-core";
 import sharp from "sharp";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { DEMO_SHOP, launch, newContext, signIn } from "./support";
+import { launch, newContext, signIn } from "./support";
+import { demoCopy, type DemoCopy } from "./demo-copy";
+import { getPool } from "@/db/client";
 
 let browser: Browser;
 const dir = mkdtempSync(path.join(tmpdir(), "chalkline-art-"));
 
+let demo: DemoCopy;
 beforeAll(async () => {
+  demo = await demoCopy("artwork");
   browser = await launch();
 });
 afterAll(async () => {
+  await demo?.drop();
+  await getPool().end();
   await browser?.close();
 });
 
@@ -41,8 +47,8 @@ describe("artwork uploads", () => {
 
     const context = await newContext(browser, { viewport: { width: 1440, height: 1000 } });
     const page = await context.newPage();
-    await signIn(page, "designer@chalkline.test");
-    await page.goto(`/shops/${DEMO_SHOP}/jobs`);
+    await signIn(page, demo.emails.designer);
+    await page.goto(`/shops/${demo.slug}/jobs`);
     await page.getByRole("link", { name: /Spring season team tees/ }).click();
     await page.getByRole("link", { name: /Team tee/ }).click();
     await page.waitForURL(/\/proofs\//);
@@ -83,7 +89,7 @@ describe("artwork uploads", () => {
     await page.getByRole("button", { name: "Remove print" }).click();
 
     // The library shows the trimmed ink size, not the padded canvas.
-    await page.goto(`/shops/${DEMO_SHOP}/art`);
+    await page.goto(`/shops/${demo.slug}/art`);
     const card = page.locator('[data-testid=art-card][data-name="pennant-crest"]');
     await card.getByText("3300 × 3300 px", { exact: true }).waitFor();
     await card.getByText("3700 × 3500 px", { exact: true }).waitFor();
@@ -93,9 +99,9 @@ describe("artwork uploads", () => {
   it("refuses uploads from production, whose role cannot add art", async () => {
     const context = await newContext(browser);
     const page = await context.newPage();
-    await signIn(page, "press@chalkline.test");
+    await signIn(page, demo.emails.production);
     const response = await page.request.post("/api/uploadthing?actionType=upload&slug=artwork", {
-      data: { input: { shopSlug: DEMO_SHOP }, files: [{ name: "x.png", size: 10, type: "image/png", lastModified: Date.now() }] },
+      data: { input: { shopSlug: demo.slug }, files: [{ name: "x.png", size: 10, type: "image/png", lastModified: Date.now() }] },
     });
     expect(response.status()).toBeGreaterThanOrEqual(400);
     expect(response.status()).toBeLessThan(500);

@@ -1,14 +1,20 @@
 import type { Browser, BrowserContext, Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { DEMO_SHOP, launch, newContext, signIn } from "./support";
+import { launch, newContext, signIn } from "./support";
+import { demoCopy, type DemoCopy } from "./demo-copy";
+import { getPool } from "@/db/client";
 
-const LIBRARY_TEE = `/shops/${DEMO_SHOP}/blanks/library-everyday-crew-tee`;
+const libraryTee = () => `/shops/${demo.slug}/blanks/library-everyday-crew-tee`;
 
 let browser: Browser;
+let demo: DemoCopy;
 beforeAll(async () => {
+  demo = await demoCopy("blanks");
   browser = await launch();
 });
 afterAll(async () => {
+  await demo?.drop();
+  await getPool().end();
   await browser?.close();
 });
 
@@ -18,7 +24,7 @@ async function settle(page: Page): Promise<void> {
 }
 
 async function openCopyOfLibraryTee(page: Page): Promise<string> {
-  await page.goto(LIBRARY_TEE);
+  await page.goto(libraryTee());
   await settle(page);
   await page.getByRole("button", { name: "Make an editable copy" }).click();
   await page.waitForURL((url) => /\/blanks\/(?!library-)[^/]+$/.test(url.pathname));
@@ -64,7 +70,7 @@ describe("the blank library", () => {
   it("lets the owner copy a library tee, fix one number, and keep it", async () => {
     const context = await newContext(browser);
     const page = await context.newPage();
-    await signIn(page, "owner@chalkline.test");
+    await signIn(page, demo.emails.owner);
     await page
       .getByRole("navigation", { name: "Main" })
       .getByRole("link", { name: "Blanks", exact: true })
@@ -79,7 +85,7 @@ describe("the blank library", () => {
     await expect(card.getByText("Library", { exact: true }).count()).resolves.toBe(1);
     await expect(card.getByText("XS–4XL").count()).resolves.toBe(1);
     await card.click();
-    await page.waitForURL((url) => url.pathname === LIBRARY_TEE);
+    await page.waitForURL((url) => url.pathname === libraryTee());
     await settle(page);
 
     await page.getByRole("heading", { level: 1, name: "Everyday Crew Tee" }).waitFor();
@@ -114,14 +120,14 @@ describe("the blank library", () => {
     await expect(page.getByLabel("M chest width", { exact: true }).inputValue()).resolves.toBe("20.5");
 
     // The library tee still reads 20.
-    await page.goto(LIBRARY_TEE);
+    await page.goto(libraryTee());
     await expect(chartCell(page, "M", 1).textContent()).resolves.toBe("20");
     await expect(
       page.getByRole("link", { name: "Everyday Crew Tee (our chart)" }).count(),
     ).resolves.toBeGreaterThan(0);
 
     // The copy is listed as the shop's own.
-    await page.goto(`/shops/${DEMO_SHOP}/blanks`);
+    await page.goto(`/shops/${demo.slug}/blanks`);
     const ours = page
       .getByRole("link")
       .filter({ has: page.getByRole("heading", { name: "Everyday Crew Tee (our chart)", exact: true }) });
@@ -133,7 +139,7 @@ describe("the blank library", () => {
   it("refuses a negative or missing number with a clear message and saves nothing", async () => {
     const context = await newContext(browser);
     const page = await context.newPage();
-    await signIn(page, "owner@chalkline.test");
+    await signIn(page, demo.emails.owner);
     await openCopyOfLibraryTee(page);
 
     const chest = page.getByLabel("M chest width", { exact: true });
@@ -165,7 +171,7 @@ describe("the blank library", () => {
   it("reads sizes typed in centimetres or as fractions, and adds and removes size rows", async () => {
     const context = await newContext(browser);
     const page = await context.newPage();
-    await signIn(page, "owner@chalkline.test");
+    await signIn(page, demo.emails.owner);
     await openCopyOfLibraryTee(page);
 
     await page.getByLabel("S chest width", { exact: true }).fill("18 1/2");
@@ -199,8 +205,8 @@ describe("the blank library", () => {
   it("shows production the chart with no edit controls, and refuses their copy and save", async () => {
     const press = await newContext(browser);
     const pressPage = await press.newPage();
-    await signIn(pressPage, "press@chalkline.test");
-    const response = await pressPage.goto(LIBRARY_TEE);
+    await signIn(pressPage, demo.emails.production);
+    const response = await pressPage.goto(libraryTee());
     expect(response?.status()).toBe(200);
     await settle(pressPage);
     await pressPage.getByRole("heading", { level: 1, name: "Everyday Crew Tee" }).waitFor();
@@ -208,26 +214,26 @@ describe("the blank library", () => {
     await expect(pressPage.getByRole("button", { name: "Make an editable copy" }).count()).resolves.toBe(0);
     await expect(pressPage.getByRole("button", { name: "Save blank" }).count()).resolves.toBe(0);
     await expect(pressPage.getByRole("textbox").count()).resolves.toBe(0);
-    await pressPage.goto(`/shops/${DEMO_SHOP}/blanks`);
+    await pressPage.goto(`/shops/${demo.slug}/blanks`);
     const copiesBefore = await pressPage.getByText("Our copy", { exact: true }).count();
-    expect((await pressPage.goto(`/shops/${DEMO_SHOP}/blanks/no-such-blank`))?.status()).toBe(404);
+    expect((await pressPage.goto(`/shops/${demo.slug}/blanks/no-such-blank`))?.status()).toBe(404);
 
     // Server actions sent from an owner's page with a production session: the server still says no.
     const owner = await newContext(browser);
     const page = await owner.newPage();
-    await signIn(page, "owner@chalkline.test");
+    await signIn(page, demo.emails.owner);
     const copyPath = await openCopyOfLibraryTee(page);
     await sendActionsAs(page, press);
 
-    await page.goto(LIBRARY_TEE);
+    await page.goto(libraryTee());
     await settle(page);
     await page.getByRole("button", { name: "Make an editable copy" }).click();
     await page
       .getByRole("alert")
       .filter({ hasText: "Your role in this shop does not allow this." })
       .waitFor();
-    expect(new URL(page.url()).pathname).toBe(LIBRARY_TEE);
-    await pressPage.goto(`/shops/${DEMO_SHOP}/blanks`);
+    expect(new URL(page.url()).pathname).toBe(libraryTee());
+    await pressPage.goto(`/shops/${demo.slug}/blanks`);
     // One copy more than before: the owner's, made before the switch; none from production.
     await expect(pressPage.getByText("Our copy", { exact: true }).count()).resolves.toBe(copiesBefore + 1);
 

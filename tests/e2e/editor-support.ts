@@ -9,14 +9,14 @@ export type ProofJson = {
   placements: Array<{ id: string; widthIn: number; heightIn: number; offsetFromCenterIn: number; belowCollarIn: number; rotationDeg: number }>;
 };
 
-/** Opens the demo "Team tee" proof from the jobs list and waits for its art to be drawn. */
-export async function openTeeProof(page: Page, zoom = 0.3): Promise<string> {
-  await page.goto(`/shops/${DEMO_SHOP}/jobs`);
+/** Opens the "Team tee" proof of a shop built like the demo from its jobs list and waits for its art to be drawn. */
+export async function openTeeProof(page: Page, zoom = 0.3, shopSlug: string = DEMO_SHOP): Promise<string> {
+  await page.goto(`/shops/${shopSlug}/jobs`);
   await page.getByRole("link", { name: /Spring season team tees/ }).click();
   await page.getByRole("link", { name: /Team tee/ }).click();
   await page.waitForURL(/\/proofs\//);
   const proofId = new URL(page.url()).pathname.split("/").pop()!;
-  await page.goto(`/shops/${DEMO_SHOP}/proofs/${proofId}?zoom=${zoom}`);
+  await page.goto(`/shops/${shopSlug}/proofs/${proofId}?zoom=${zoom}`);
   await waitForArt(page);
   return proofId;
 }

@@ -1,6 +1,8 @@
 import type { Browser, Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { DEMO_SHOP, launch, newContext, signIn } from "./support";
+import { launch, newContext, signIn } from "./support";
+import { demoCopy, type DemoCopy } from "./demo-copy";
+import { getPool } from "@/db/client";
 
 type ProofJson = {
   id: string;
@@ -10,20 +12,24 @@ type ProofJson = {
 };
 
 let browser: Browser;
+let demo: DemoCopy;
 beforeAll(async () => {
+  demo = await demoCopy("editor");
   browser = await launch();
 });
 afterAll(async () => {
+  await demo?.drop();
+  await getPool().end();
   await browser?.close();
 });
 
 async function openTeeProof(page: Page, zoom = 0.3): Promise<string> {
-  await page.goto(`/shops/${DEMO_SHOP}/jobs`);
+  await page.goto(`/shops/${demo.slug}/jobs`);
   await page.getByRole("link", { name: /Spring season team tees/ }).click();
   await page.getByRole("link", { name: /Team tee/ }).click();
   await page.waitForURL(/\/proofs\//);
   const proofId = new URL(page.url()).pathname.split("/").pop()!;
-  await page.goto(`/shops/${DEMO_SHOP}/proofs/${proofId}?zoom=${zoom}`);
+  await page.goto(`/shops/${demo.slug}/proofs/${proofId}?zoom=${zoom}`);
   await page.locator("[data-testid=proof-canvas][data-scale]").waitFor();
   await page.waitForFunction(() => {
     const konva = (window as unknown as { Konva?: { stages: Array<{ findOne: (s: string) => unknown }> } }).Konva;
@@ -67,7 +73,7 @@ describe("true-scale editor", () => {
   it("moves art by the dragged inches, sizes it from the inspector, and keeps it after a reload", async () => {
     const context = await newContext(browser, { viewport: { width: 1440, height: 1000 } });
     const page = await context.newPage();
-    await signIn(page, "designer@chalkline.test");
+    await signIn(page, demo.emails.designer);
     const proofId = await openTeeProof(page, 0.3);
 
     // Calibration: an ID-1 card is 85.60 mm wide (ISO/IEC 7810); 337.0 px across it is 100.0 px per inch.
@@ -122,7 +128,7 @@ describe("true-scale editor", () => {
   it("nudges with the arrow keys by 1/8 in and by 1 in with shift, and undoes", async () => {
     const context = await newContext(browser, { viewport: { width: 1440, height: 1000 } });
     const page = await context.newPage();
-    await signIn(page, "designer@chalkline.test");
+    await signIn(page, demo.emails.designer);
     const proofId = await openTeeProof(page);
     const start = (await fetchProof(page, proofId)).placements[0]!;
     await page.getByRole("heading", { name: "Team tee" }).click();
@@ -144,7 +150,7 @@ describe("true-scale editor", () => {
   it("warns in words when art is too wide for the size, through the API and on screen", async () => {
     const context = await newContext(browser, { viewport: { width: 1440, height: 1000 } });
     const page = await context.newPage();
-    await signIn(page, "owner@chalkline.test");
+    await signIn(page, demo.emails.owner);
     const proofId = await openTeeProof(page);
     const width = page.getByLabel("Width", { exact: true });
     await width.fill("13");
@@ -164,8 +170,8 @@ describe("true-scale editor", () => {
     const b = await newContext(browser, { viewport: { width: 1440, height: 1000 } });
     const pageA = await a.newPage();
     const pageB = await b.newPage();
-    await signIn(pageA, "designer@chalkline.test");
-    await signIn(pageB, "owner@chalkline.test");
+    await signIn(pageA, demo.emails.designer);
+    await signIn(pageB, demo.emails.owner);
     const proofId = await openTeeProof(pageA);
     await openTeeProof(pageB);
     const belowA = pageA.getByLabel("Below collar");
@@ -189,7 +195,7 @@ describe("true-scale editor", () => {
   it("keeps edits made offline and saves them when the connection returns", async () => {
     const context = await newContext(browser, { viewport: { width: 1440, height: 1000 } });
     const page = await context.newPage();
-    await signIn(page, "designer@chalkline.test");
+    await signIn(page, demo.emails.designer);
     const proofId = await openTeeProof(page);
     await context.setOffline(true);
     const below = page.getByLabel("Below collar");
@@ -208,7 +214,7 @@ describe("true-scale editor", () => {
   it("lets production look but not edit, and hides another shop's proof", async () => {
     const context = await newContext(browser, { viewport: { width: 1280, height: 900 } });
     const page = await context.newPage();
-    await signIn(page, "press@chalkline.test");
+    await signIn(page, demo.emails.production);
     const proofId = await openTeeProof(page);
     await page.getByText("View only").waitFor();
     await expect(page.getByLabel("Width", { exact: true }).isDisabled()).resolves.toBe(true);

@@ -1,13 +1,19 @@
 import type { Browser, Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { formatCents } from "@/lib/pricing";
-import { DEMO_SHOP, launch, newContext, signIn, waitForMail } from "./support";
+import { launch, newContext, signIn, waitForMail } from "./support";
+import { demoCopy, type DemoCopy } from "./demo-copy";
+import { getPool } from "@/db/client";
 
 let browser: Browser;
+let demo: DemoCopy;
 beforeAll(async () => {
+  demo = await demoCopy("orders");
   browser = await launch();
 });
 afterAll(async () => {
+  await demo?.drop();
+  await getPool().end();
   await browser?.close();
 });
 
@@ -23,10 +29,10 @@ describe("orders, quotes and payments", () => {
     const since = Date.now();
     const shop = await newContext(browser, { viewport: { width: 1440, height: 1000 } });
     const owner = await shop.newPage();
-    await signIn(owner, "owner@chalkline.test");
+    await signIn(owner, demo.emails.owner);
 
     // A new job: youth and adult sizes in one run.
-    await owner.goto(`/shops/${DEMO_SHOP}/jobs/new`);
+    await owner.goto(`/shops/${demo.slug}/jobs/new`);
     await ready(owner);
     await owner.getByRole("button", { name: "Create job" }).click();
     await expect.poll(() => owner.getByText("Give the job a title").count()).toBe(1);
@@ -56,13 +62,13 @@ describe("orders, quotes and payments", () => {
     await owner.reload();
     const panel = owner.getByTestId("job-money");
     expect(await panel.getByTestId("money-state").textContent()).toBe("Quote out");
-    const quoteMail = await waitForMail("client@chalkline.test", /Quote Q1 .*Autumn league tees/, since);
+    const quoteMail = await waitForMail(demo.emails.client, /Quote Q1 .*Autumn league tees/, since);
     expect(quoteMail.text).toContain(`/portal/jobs/${jobId}`);
 
     // The client accepts and pays the deposit on the payment page.
     const clientContext = await newContext(browser, { viewport: { width: 420, height: 900 } });
     const client = await clientContext.newPage();
-    await signIn(client, "client@chalkline.test");
+    await signIn(client, demo.emails.client);
     await client.goto(`/portal/jobs/${jobId}`);
     await ready(client);
     const quote = client.getByTestId("quote-panel");
@@ -96,19 +102,19 @@ describe("orders, quotes and payments", () => {
     expect(await panel.getByTestId("payment-list").textContent()).toContain("Paid");
 
     // The receipt is in the mailbox.
-    const receipt = await waitForMail("client@chalkline.test", /Receipt: .* paid for Autumn league tees/, since);
+    const receipt = await waitForMail(demo.emails.client, /Receipt: .* paid for Autumn league tees/, since);
     expect(receipt.text).toContain(formatCents(deposit));
     expect(receipt.text).toContain(`Balance due: ${formatCents(total - deposit)}`);
 
     // Production sees the job and its quantities but no money.
     const pressContext = await newContext(browser);
     const press = await pressContext.newPage();
-    await signIn(press, "press@chalkline.test");
-    await press.goto(`/shops/${DEMO_SHOP}/jobs/${jobId}`);
+    await signIn(press, demo.emails.production);
+    await press.goto(`/shops/${demo.slug}/jobs/${jobId}`);
     expect(await press.getByTestId("job-size-run").count()).toBe(1);
     expect(await press.getByTestId("job-money").count()).toBe(0);
     expect(await press.content()).not.toContain(formatCents(total));
-    await press.goto(`/shops/${DEMO_SHOP}/prices`);
+    await press.goto(`/shops/${demo.slug}/prices`);
     expect(await press.getByText("This page is not open to you").count()).toBe(1);
 
     await Promise.all([shop.close(), clientContext.close(), pressContext.close()]);
@@ -117,8 +123,8 @@ describe("orders, quotes and payments", () => {
   it("clients are created with contacts, edited and archived; jobs filter, sort and move on the board", async () => {
     const context = await newContext(browser, { viewport: { width: 1440, height: 1000 } });
     const page = await context.newPage();
-    await signIn(page, "designer@chalkline.test");
-    await page.goto(`/shops/${DEMO_SHOP}/clients/new`);
+    await signIn(page, demo.emails.designer);
+    await page.goto(`/shops/${demo.slug}/clients/new`);
     await ready(page);
     await page.getByLabel("Name", { exact: true }).first().fill("Harbour Choir");
     await page.getByLabel("E-mail").fill("not-an-address");
@@ -140,12 +146,12 @@ describe("orders, quotes and payments", () => {
     expect(await page.getByTestId("contact-row").count()).toBe(2);
     await page.getByRole("button", { name: "Archive client" }).click();
     await page.getByText(/Archived\./).waitFor();
-    await page.goto(`/shops/${DEMO_SHOP}/clients`);
+    await page.goto(`/shops/${demo.slug}/clients`);
     expect(await page.getByText("Harbour Choir").count()).toBe(0);
-    await page.goto(`/shops/${DEMO_SHOP}/clients?archived=1`);
+    await page.goto(`/shops/${demo.slug}/clients?archived=1`);
     expect(await page.getByText("Harbour Choir").count()).toBe(1);
 
-    await page.goto(`/shops/${DEMO_SHOP}/jobs`);
+    await page.goto(`/shops/${demo.slug}/jobs`);
     await ready(page);
     const table = page.getByTestId("job-table");
     const rowTexts = () => table.locator("tbody tr").allTextContents();
@@ -171,7 +177,7 @@ describe("orders, quotes and payments", () => {
     expect(text.split("\r\n")[0]).toMatch(/^Job,Client,Status,Due,.*,Total$/);
     expect(text).toContain("Competition hoodies");
 
-    await page.goto(`/shops/${DEMO_SHOP}/jobs?view=board`);
+    await page.goto(`/shops/${demo.slug}/jobs?view=board`);
     await ready(page);
     const saved = page.waitForResponse((r) => r.request().method() === "POST" && new URL(r.url()).pathname.endsWith("/jobs"));
     await page.getByLabel("Move Autumn league tees to").selectOption("cleared");
@@ -185,8 +191,8 @@ describe("orders, quotes and payments", () => {
   it("the owner edits the price matrix; the designer sees it read-only", async () => {
     const context = await newContext(browser, { viewport: { width: 1440, height: 1000 } });
     const page = await context.newPage();
-    await signIn(page, "owner@chalkline.test");
-    await page.goto(`/shops/${DEMO_SHOP}/prices`);
+    await signIn(page, demo.emails.owner);
+    await page.goto(`/shops/${demo.slug}/prices`);
     await ready(page);
     await page.getByLabel("Deposit to start (%)").fill("40");
     await page.getByLabel("DTG, break 1, 1 locations, dollars per garment").fill("");
@@ -207,8 +213,8 @@ describe("orders, quotes and payments", () => {
 
     const designerContext = await newContext(browser);
     const designer = await designerContext.newPage();
-    await signIn(designer, "designer@chalkline.test");
-    await designer.goto(`/shops/${DEMO_SHOP}/prices`);
+    await signIn(designer, demo.emails.designer);
+    await designer.goto(`/shops/${demo.slug}/prices`);
     await ready(designer);
     await designer.getByText("Only the owner can change them").waitFor();
     expect(await designer.getByRole("button", { name: "Save prices" }).count()).toBe(0);

@@ -1,12 +1,18 @@
 import type { Browser } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { DEMO_SHOP, launch, newContext, signIn } from "./support";
+import { launch, newContext, signIn } from "./support";
+import { demoCopy, type DemoCopy } from "./demo-copy";
+import { getPool } from "@/db/client";
 
 let browser: Browser;
+let demo: DemoCopy;
 beforeAll(async () => {
+  demo = await demoCopy("production");
   browser = await launch();
 });
 afterAll(async () => {
+  await demo?.drop();
+  await getPool().end();
   await browser?.close();
 });
 
@@ -28,8 +34,8 @@ describe("production exports", () => {
   it("grades the size run, and exports a spec sheet and a tiled test print with progress", async () => {
     const context = await newContext(browser, { viewport: { width: 1440, height: 1000 }, acceptDownloads: true });
     const page = await context.newPage();
-    await signIn(page, "press@chalkline.test");
-    await page.goto(`/shops/${DEMO_SHOP}/jobs`);
+    await signIn(page, demo.emails.production);
+    await page.goto(`/shops/${demo.slug}/jobs`);
     await page.getByRole("link", { name: /Spring season team tees/ }).click();
     await page.getByRole("link", { name: "Production" }).click();
     await page.getByText(/Heat presses and transfer platens are hot enough to burn/).waitFor();

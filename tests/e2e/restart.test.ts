@@ -2,14 +2,20 @@ import type { Browser } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { startCluster, stopCluster, testCluster, waitForHealth } from "./db-control";
 import { fetchProof, openTeeProof, waitForArt, waitSaved } from "./editor-support";
-import { DEMO_SHOP, launch, newContext, signIn } from "./support";
+import { launch, newContext, signIn } from "./support";
+import { demoCopy, type DemoCopy } from "./demo-copy";
+import { getPool } from "@/db/client";
 
 const cluster = testCluster();
 let browser: Browser;
+let demo: DemoCopy;
 beforeAll(async () => {
+  demo = await demoCopy("restart");
   browser = await launch();
 });
 afterAll(async () => {
+  await demo?.drop();
+  await getPool().end();
   await browser?.close();
 });
 
@@ -20,8 +26,8 @@ describe("database restart during an editing session", () => {
     const context = await newContext(browser, { viewport: { width: 1440, height: 1000 } });
     const page = await context.newPage();
     try {
-      await signIn(page, "designer@chalkline.test");
-      const proofId = await openTeeProof(page);
+      await signIn(page, demo.emails.designer);
+      const proofId = await openTeeProof(page, 0.3, demo.slug);
       const before = (await fetchProof(page, proofId)).placements[0]!;
       await page.locator("[data-testid=save-status][data-state=saved]").waitFor();
 
@@ -78,7 +84,7 @@ describe("database restart during an editing session", () => {
 
       // The export queue reconnected too: the worker still makes a spec sheet (on a job the
       // production tests do not use).
-      await page.goto(`/shops/${DEMO_SHOP}/jobs`);
+      await page.goto(`/shops/${demo.slug}/jobs`);
       await page.getByRole("link", { name: /Market stall totes/ }).click();
       await page.getByRole("link", { name: "Production" }).click();
       const done = page.locator("[data-testid=export-row][data-kind=spec-sheet][data-state=done]");

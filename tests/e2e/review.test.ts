@@ -2,18 +2,24 @@ import { mkdirSync } from "node:fs";
 import path from "node:path";
 import type { Browser, Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { BASE_URL, DEMO_SHOP, firstLink, launch, newContext, signIn, waitForMail } from "./support";
+import { BASE_URL, firstLink, launch, newContext, signIn, waitForMail } from "./support";
+import { demoCopy, type DemoCopy } from "./demo-copy";
+import { getPool } from "@/db/client";
 
 let browser: Browser;
+let demo: DemoCopy;
 beforeAll(async () => {
+  demo = await demoCopy("review");
   browser = await launch();
 });
 afterAll(async () => {
+  await demo?.drop();
+  await getPool().end();
   await browser?.close();
 });
 
 async function openProof(page: Page, jobTitle: RegExp, proofName: RegExp) {
-  await page.goto(`/shops/${DEMO_SHOP}/jobs`);
+  await page.goto(`/shops/${demo.slug}/jobs`);
   await page.getByRole("link", { name: jobTitle }).click();
   await page.getByRole("link", { name: proofName }).click();
   await page.waitForURL(/\/proofs\//);
@@ -38,7 +44,7 @@ describe("client review", () => {
   it("shares by e-mail, takes a pinned note, shows replies live on both sides, and records an approval", async () => {
     const maker = await newContext(browser, { viewport: { width: 1440, height: 1000 } });
     const makerPage = await maker.newPage();
-    await signIn(makerPage, "designer@chalkline.test");
+    await signIn(makerPage, demo.emails.designer);
     const proofId = await openProof(makerPage, /Competition hoodies/, /Team hoodie/);
 
     const since = Date.now() - 1000;
@@ -96,7 +102,7 @@ describe("client review", () => {
     await clientPage.getByRole("button", { name: "Approve revision A" }).click();
     await clientPage.getByTestId("decision-done").waitFor();
 
-    const approvedMail = await waitForMail("owner@chalkline.test", /Approved: Competition hoodies, revision A/, approvedSince);
+    const approvedMail = await waitForMail(demo.emails.owner, /Approved: Competition hoodies, revision A/, approvedSince);
     expect(approvedMail.text).toContain("/jobs/");
     await makerPage.goto(firstLink(approvedMail.text, "/jobs/").replace(/^https?:\/\/[^/]+/, BASE_URL));
     const record = makerPage.getByTestId("approval-record");
@@ -105,7 +111,7 @@ describe("client review", () => {
     await record.getByText(/IP /).waitFor();
 
     // An approved revision is locked: the next edit starts revision B.
-    await makerPage.goto(`/shops/${DEMO_SHOP}/proofs/${proofId}`);
+    await makerPage.goto(`/shops/${demo.slug}/proofs/${proofId}`);
     await makerPage.locator("[data-testid=proof-canvas][data-scale]").waitFor();
     const below = makerPage.getByLabel("Below collar");
     await below.fill("2.5");
@@ -119,7 +125,7 @@ describe("client review", () => {
   it("gives withdrawn, expired and wrong links a clear 404 page, and the API says 410 for withdrawn ones", async () => {
     const maker = await newContext(browser, { viewport: { width: 1440, height: 1000 } });
     const page = await maker.newPage();
-    await signIn(page, "owner@chalkline.test");
+    await signIn(page, demo.emails.owner);
     await openProof(page, /Market stall totes/, /Market tote/);
     await page.getByRole("button", { name: "Share with client" }).click();
     await page.getByRole("button", { name: "Make a link to copy" }).click();
