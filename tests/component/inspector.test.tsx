@@ -11,8 +11,23 @@ import type { Placement } from "@/lib/placement/model";
 import type { LengthUnit } from "@/lib/units";
 
 const tee = findBlank("everyday-crew-tee")!;
-const blank: EditorBlank = { id: tee.id, name: tee.styleName, category: tee.category, colours: tee.colors, sizeChart: tee.sizes.map((r) => ({ size: r.size, group: r.group, measurements: r.measurements })) };
-const start: Placement = { id: "print-1", location: "full-front", artworkId: null, widthIn: 12, heightIn: 10, offsetFromCenterIn: 0, belowCollarIn: 3, rotationDeg: 0 };
+const blank: EditorBlank = {
+  id: tee.id,
+  name: tee.styleName,
+  category: tee.category,
+  colours: tee.colors,
+  sizeChart: tee.sizes.map((r) => ({ size: r.size, group: r.group, measurements: r.measurements })),
+};
+const start: Placement = {
+  id: "print-1",
+  location: "full-front",
+  artworkId: null,
+  widthIn: 12,
+  heightIn: 10,
+  offsetFromCenterIn: 0,
+  belowCollarIn: 3,
+  rotationDeg: 0,
+};
 
 function setup({ unit = "in", editable = true }: { unit?: LengthUnit; editable?: boolean } = {}) {
   const onResize = vi.fn<(id: string, change: { widthIn?: number; heightIn?: number }) => void>();
@@ -135,7 +150,8 @@ describe("Inspector length fields", () => {
 
   it("locks every length for someone who cannot edit the proof", () => {
     const { field } = setup({ editable: false });
-    for (const name of ["Width", "Height", "From center", "Below collar"]) expect(field(name)).toHaveProperty("disabled", true);
+    for (const name of ["Width", "Height", "From center", "Below collar"])
+      expect(field(name)).toHaveProperty("disabled", true);
     expect(screen.queryByRole("button", { name: "Remove print" })).toBeNull();
   });
 

@@ -4,11 +4,30 @@ import { describe, expect, it, vi } from "vitest";
 import { LengthField } from "@/components/editor/LengthField";
 import type { LengthUnit } from "@/lib/units";
 
-function setup(props: { valueIn?: number; unit?: LengthUnit; allowNegative?: boolean; hint?: string; label?: string; disabled?: boolean } = {}) {
+function setup(
+  props: {
+    valueIn?: number;
+    unit?: LengthUnit;
+    allowNegative?: boolean;
+    hint?: string;
+    label?: string;
+    disabled?: boolean;
+  } = {},
+) {
   const onCommit = vi.fn();
   const user = userEvent.setup();
   const label = props.label ?? "Width";
-  render(<LengthField label={label} valueIn={props.valueIn ?? 10} unit={props.unit ?? "in"} allowNegative={props.allowNegative} hint={props.hint} disabled={props.disabled} onCommit={onCommit} />);
+  render(
+    <LengthField
+      label={label}
+      valueIn={props.valueIn ?? 10}
+      unit={props.unit ?? "in"}
+      allowNegative={props.allowNegative}
+      hint={props.hint}
+      disabled={props.disabled}
+      onCommit={onCommit}
+    />,
+  );
   const field = screen.getByRole("textbox", { name: label });
   return { user, field, onCommit };
 }
@@ -75,16 +94,28 @@ describe("LengthField in inches", () => {
   });
 
   it.each([
-    { typed: "abc", message: /"abc" isn't a length we can read; try 11, 11\.5, 11 1\/2, 3\/4 or 28 cm\./, what: "letters" },
+    {
+      typed: "abc",
+      message: /"abc" isn't a length we can read; try 11, 11\.5, 11 1\/2, 3\/4 or 28 cm\./,
+      what: "letters",
+    },
     { typed: "ten", message: /"ten" isn't a length we can read/, what: "a number in words" },
     { typed: "-2", message: /^Enter a length of zero or more\.$/, what: "a negative width" },
     { typed: "0", message: /^Use a size above zero\.$/, what: "zero" },
     { typed: "", message: /^Enter a length, for example 11 1\/2 or 28 cm\.$/, what: "nothing" },
     { typed: "1/0", message: /bottom number of a fraction can't be zero/, what: "a fraction over zero" },
-    { typed: "10 3/2", message: /fraction part must be less than 1/, what: "a mixed number whose fraction is 1 or more" },
+    {
+      typed: "10 3/2",
+      message: /fraction part must be less than 1/,
+      what: "a mixed number whose fraction is 1 or more",
+    },
     { typed: "cm", message: /Put a number before the unit/, what: "a unit alone" },
     // A typed ½ sign is not one of the forms the field reads; it says which forms it does read.
-    { typed: "10½", message: /"10½" isn't a length we can read; try 11, 11\.5, 11 1\/2/, what: "a fraction sign" },
+    {
+      typed: "10½",
+      message: /"10½" isn't a length we can read; try 11, 11\.5, 11 1\/2/,
+      what: "a fraction sign",
+    },
   ])("refuses $what with a message tied to the field, and commits nothing", async ({ typed, message }) => {
     const { user, field, onCommit } = setup({ valueIn: 10.5 });
     await typeAndEnter(user, field, typed);
@@ -105,7 +136,12 @@ describe("LengthField in inches", () => {
   });
 
   it("takes a negative offset where negatives are allowed", async () => {
-    const { user, field, onCommit } = setup({ label: "From center", valueIn: 0, allowNegative: true, hint: "Centered" });
+    const { user, field, onCommit } = setup({
+      label: "From center",
+      valueIn: 0,
+      allowNegative: true,
+      hint: "Centered",
+    });
     expect(description(field)).toBe("Centered");
     await typeAndEnter(user, field, "-1 1/4");
     expect(onCommit).toHaveBeenCalledWith(-1.25);

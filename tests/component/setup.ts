@@ -13,7 +13,10 @@ afterEach(() => {
 });
 
 if (typeof HTMLDialogElement !== "undefined") {
-  const proto = HTMLDialogElement.prototype as HTMLDialogElement & { showModal?: () => void; close?: (value?: string) => void };
+  const proto = HTMLDialogElement.prototype as HTMLDialogElement & {
+    showModal?: () => void;
+    close?: (value?: string) => void;
+  };
   if (typeof proto.showModal !== "function") {
     proto.showModal = function showModal(this: HTMLDialogElement) {
       this.setAttribute("open", "");
