@@ -229,11 +229,4 @@ describe("QuotePanel pay buttons", () => {
     expect(screen.queryByRole("button", { name: /^Pay / })).toBeNull();
     expect(screen.getByText("Online payment is not set up for this shop. Contact them to pay.")).toBeTruthy();
   });
-
-  it("tells the client a cancelled payment charged nothing", () => {
-    renderWithQuery(<QuotePanel data={panelData("accepted")} canAccept returned="cancelled" />);
-    expect(screen.getByRole("status").textContent).toBe(
-      "The payment was not completed. Nothing was charged; you can try again.",
-    );
-  });
 });
