@@ -26,6 +26,7 @@ export default defineConfig({
           name: "component",
           include: ["tests/component/**/*.test.tsx"],
           environment: "jsdom",
+          setupFiles: ["tests/component/setup.ts"],
           testTimeout: 30_000,
         },
       },

@@ -7,6 +7,7 @@ import path from "node:path";
 import { buildApp, startNext, startWorker, stopChild, waitForHealth } from "./lib/next";
 import { isRoot, repoRoot, run } from "./lib/proc";
 import { bringUpStack, testPortOffset } from "./lib/stack";
+import { componentTestFiles } from "./lib/test-files";
 
 const log = (line: string) => console.log(`[test] ${line}`);
 const PORT = Number(process.env.TEST_PORT ?? 3100 + testPortOffset());
@@ -38,7 +39,9 @@ async function vitest(projects: string[], env: Record<string, string>, label: st
     path.join(repoRoot, "node_modules", "vitest", "vitest.mjs"),
     "run",
     ...projects.flatMap((p) => ["--project", p]),
-    "--passWithNoTests",
+    // A run limited to some files (`npm test -- tests/e2e/x.test.ts`) leaves the other projects
+    // empty, and that is fine; a full run must find tests in every project.
+    ...(only.length ? ["--passWithNoTests"] : []),
     "--reporter=default",
     "--reporter=json",
     `--outputFile.json=${out}`,
@@ -59,6 +62,13 @@ async function vitest(projects: string[], env: Record<string, string>, label: st
     totals.failed += 1;
   }
   return result.code === 0;
+}
+
+// vitest passes a run in which one project is empty as long as another has tests, so an emptied
+// tests/component would go unnoticed; a full run refuses to start without component tests.
+if (only.length === 0 && componentTestFiles(repoRoot).length === 0) {
+  console.error("[test] tests/component holds no *.test.tsx files: the component project would pass without testing anything.");
+  process.exit(1);
 }
 
 mkdirSync(reportDir, { recursive: true });

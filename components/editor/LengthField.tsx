@@ -1,6 +1,6 @@
 "use client";
 
-import { useId, useState } from "react";
+import { useId, useRef, useState } from "react";
 import { formatLength, parseLength, type LengthUnit } from "@/lib/units";
 
 type Props = {
@@ -20,6 +20,8 @@ export function LengthField({ label, valueIn, unit, disabled, allowNegative, hin
   // While the field has focus it holds what is typed; otherwise it shows the model's value.
   const [draft, setDraft] = useState<string | null>(null);
   const [error, setError] = useState<string | null>(null);
+  // Escape blurs the field to leave it; that blur must not commit what Escape threw away.
+  const cancelling = useRef(false);
   const text = draft ?? shown;
   const setText = (value: string) => setDraft(value);
 
@@ -58,13 +60,20 @@ export function LengthField({ label, valueIn, unit, disabled, allowNegative, hin
           aria-describedby={error ? `${id}-err` : hint ? `${id}-hint` : undefined}
           onFocus={() => setDraft(shown)}
           onChange={(e) => setText(e.target.value)}
-          onBlur={commit}
+          onBlur={() => {
+            if (cancelling.current) {
+              cancelling.current = false;
+              return;
+            }
+            commit();
+          }}
           onKeyDown={(e) => {
             if (e.key === "Enter") {
               e.preventDefault();
               commit();
             }
             if (e.key === "Escape") {
+              cancelling.current = true;
               setDraft(null);
               setError(null);
               (e.target as HTMLInputElement).blur();

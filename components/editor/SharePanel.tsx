@@ -17,6 +17,8 @@ export function SharePanel({ open, onClose, shopSlug, proofId, defaultEmail, def
   const [message, setMessage] = useState("");
   const [result, setResult] = useState<{ url: string; letter: string; emailed: boolean | null; changes: { since: string; lines: string[] } | null } | null>(null);
   const [error, setError] = useState<string | null>(null);
+  // The refusal is about the address: the e-mail field is marked and described by it.
+  const [emailRefused, setEmailRefused] = useState(false);
   const [busy, setBusy] = useState(false);
 
   async function refresh() {
@@ -47,6 +49,7 @@ export function SharePanel({ open, onClose, shopSlug, proofId, defaultEmail, def
       message: message.trim() || null,
     });
     setBusy(false);
+    setEmailRefused(!r.ok && Boolean(r.fieldErrors?.recipientEmail?.length));
     if (!r.ok) return setError(r.error);
     setResult(r.data);
     await refresh();
@@ -69,7 +72,15 @@ export function SharePanel({ open, onClose, shopSlug, proofId, defaultEmail, def
             <label htmlFor="share-email" className="field-label">
               Client e-mail
             </label>
-            <input id="share-email" type="email" className="field-input" value={email} onChange={(e) => setEmail(e.target.value)} />
+            <input
+              id="share-email"
+              type="email"
+              className="field-input"
+              value={email}
+              aria-invalid={error && emailRefused ? true : undefined}
+              aria-describedby={error && emailRefused ? "share-error" : undefined}
+              onChange={(e) => setEmail(e.target.value)}
+            />
           </div>
           <div>
             <label htmlFor="share-name" className="field-label">
@@ -108,7 +119,7 @@ export function SharePanel({ open, onClose, shopSlug, proofId, defaultEmail, def
           <textarea id="share-message" className="field-input min-h-16" value={message} onChange={(e) => setMessage(e.target.value)} maxLength={1000} />
         </div>
         {error ? (
-          <p role="alert" className="field-error">
+          <p id="share-error" role="alert" className="field-error">
             {error}
           </p>
         ) : null}

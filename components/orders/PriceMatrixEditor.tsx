@@ -2,7 +2,7 @@
 
 import { zodResolver } from "@hookform/resolvers/zod";
 import { useRouter } from "next/navigation";
-import { useState } from "react";
+import { useId, useState } from "react";
 import { get, useForm, useWatch, type FieldErrors, type FieldPath, type UseFormRegister } from "react-hook-form";
 import { savePricesAction } from "@/app/shops/[shop]/prices/actions";
 import type { PriceMatrix } from "@/lib/pricing";
@@ -16,22 +16,32 @@ const num = { valueAsNumber: true } as const;
 
 function Cell({ path, register, errors, label, step = "0.01", disabled, prefix, initial }: { path: string; register: UseFormRegister<PriceForm>; errors: FieldErrors<PriceForm>; label: string; step?: string; disabled: boolean; prefix?: string; initial: PriceForm }) {
   const error = (get(errors, path) as { message?: string } | undefined)?.message;
+  const errorId = `${useId()}-error`;
   return (
-    <span className="relative block">
-      {prefix ? <span className="pointer-events-none absolute left-2 top-1/2 -translate-y-1/2 text-xs text-ink-400">{prefix}</span> : null}
-      <input
-        type="number"
-        step={step}
-        min={0}
-        aria-label={label}
-        title={error ?? label}
-        aria-invalid={error ? true : undefined}
-        disabled={disabled}
-        // The server-rendered page shows the numbers before the form script takes over.
-        defaultValue={get(initial, path) as number | undefined}
-        className={`field-input measure w-24 py-1 text-right text-sm ${prefix ? "pl-5" : ""} ${error ? "border-brick-500 bg-brick-50" : ""}`}
-        {...register(path as FieldPath<PriceForm>, num)}
-      />
+    <span className="block">
+      <span className="relative block">
+        {prefix ? <span className="pointer-events-none absolute left-2 top-1/2 -translate-y-1/2 text-xs text-ink-400">{prefix}</span> : null}
+        <input
+          type="number"
+          step={step}
+          min={0}
+          aria-label={label}
+          title={error ?? label}
+          aria-invalid={error ? true : undefined}
+          aria-describedby={error ? errorId : undefined}
+          disabled={disabled}
+          // The server-rendered page shows the numbers before the form script takes over.
+          defaultValue={get(initial, path) as number | undefined}
+          className={`field-input measure w-24 py-1 text-right text-sm ${prefix ? "pl-5" : ""} ${error ? "border-brick-500 bg-brick-50" : ""}`}
+          {...register(path as FieldPath<PriceForm>, num)}
+        />
+      </span>
+      {/* The reason in words under its cell: a hover title alone reaches neither touch nor keyboard users. */}
+      {error ? (
+        <span id={errorId} className="field-error block w-24 text-xs">
+          {error}
+        </span>
+      ) : null}
     </span>
   );
 }
@@ -61,7 +71,7 @@ export function PriceMatrixEditor({ shopSlug, matrix, canEdit }: { shopSlug: str
       setNotice({ tone: "ok", text: "Prices saved. New quotes use them; quotes already sent keep their numbers." });
       router.refresh();
     },
-    () => setNotice({ tone: "error", text: "Some prices need fixing; see the highlighted cells (hover for the reason)." }),
+    () => setNotice({ tone: "error", text: "Some prices need fixing; the reason is under each highlighted cell." }),
   );
 
   const update = <K extends keyof PriceForm>(key: K, next: PriceForm[K]) => setValue(key, next as never, { shouldDirty: true });
@@ -191,7 +201,6 @@ export function PriceMatrixEditor({ shopSlug, matrix, canEdit }: { shopSlug: str
           <label key={path} className="block">
             <span className="field-label">{label}</span>
             <Cell path={path} register={register} errors={errors} initial={initial} label={label} step={step} disabled={disabled} />
-            {formError(path) ? <span className="field-error block">{formError(path)}</span> : null}
           </label>
         ))}
         <label className="block">

@@ -7,6 +7,9 @@ import { GRID_SIZES } from "./size-run";
 
 type SizeRunForm = { sizeRun: Array<{ size: string; quantity: number }> };
 
+/** An id for a size's field; "One size" holds a space, which would split aria-describedby in two. */
+const fieldId = (size: string) => `size-${size.replace(/\s+/g, "-")}`;
+
 /**
  * Quantities per size, youth and adult side by side. Infant, toddler and one-size rows open
  * on demand (and stay open when they hold quantities).
@@ -30,6 +33,9 @@ export function SizeRunGrid<T extends SizeRunForm>({
   };
   const total = GRID_SIZES.reduce((s, size) => s + quantity(size), 0);
   const reg = register as unknown as UseFormRegister<SizeRunForm>;
+  // A refusal of the whole run: from the resolver it sits at `root` (the run is a field array), from setError at the top.
+  const runError = errors as { message?: string; root?: { message?: string } } | undefined;
+  const runMessage = runError?.root?.message ?? runError?.message;
   return (
     <div className="space-y-3" data-testid="size-run-grid">
       {SIZE_GROUPS.filter((g) => open.has(g.key)).map((group) => {
@@ -43,25 +49,26 @@ export function SizeRunGrid<T extends SizeRunForm>({
               {group.sizes.map((size) => {
                 const i = GRID_SIZES.indexOf(size);
                 const err = errors?.[i]?.quantity?.message;
+                const id = fieldId(size);
                 return (
                   <div key={size} className="w-16">
-                    <label htmlFor={`size-${size}`} className="block text-center text-xs font-medium text-ink-600">
+                    <label htmlFor={id} className="block text-center text-xs font-medium text-ink-600">
                       {size}
                     </label>
                     <input
-                      id={`size-${size}`}
+                      id={id}
                       type="number"
                       inputMode="numeric"
                       min={0}
                       step={1}
                       disabled={disabled}
                       aria-invalid={err ? true : undefined}
-                      aria-describedby={err ? `size-${size}-error` : undefined}
+                      aria-describedby={err ? `${id}-error` : undefined}
                       className={`field-input measure px-1 text-center ${quantity(size) > 0 ? "border-patina-400 bg-patina-50" : ""}`}
                       {...reg(`sizeRun.${i}.quantity`, { setValueAs: (v: unknown) => (v === "" || v === null || v === undefined ? 0 : Number(v)) })}
                     />
                     {err ? (
-                      <p id={`size-${size}-error`} className="mt-0.5 text-center text-xs text-brick-700">
+                      <p id={`${id}-error`} className="mt-0.5 text-center text-xs text-brick-700">
                         {err}
                       </p>
                     ) : null}
@@ -82,7 +89,7 @@ export function SizeRunGrid<T extends SizeRunForm>({
           Total <span className="measure">{total}</span>
         </span>
       </div>
-      {typeof (errors as { message?: string } | undefined)?.message === "string" ? <p className="field-error">{(errors as { message?: string }).message}</p> : null}
+      {typeof runMessage === "string" ? <p className="field-error">{runMessage}</p> : null}
     </div>
   );
 }
