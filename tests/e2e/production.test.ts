@@ -38,7 +38,8 @@ describe("production exports", () => {
     await page.goto(`/shops/${demo.slug}/jobs`);
     await page.getByRole("link", { name: /Spring season team tees/ }).click();
     await page.getByRole("link", { name: "Production" }).click();
-    await page.getByText(/Heat presses and transfer platens are hot enough to burn/).waitFor();
+    await page.getByText(/Heat presses and transfer platens run hot enough to burn skin/).waitFor();
+    await page.getByText(/waist or bottom drawstring may show at most 3 in/).waitFor();
     await page.getByTestId("grading-summary").first().waitFor();
     await page.getByLabel("Number of transfer sizes").first().selectOption("1");
     await expect(page.getByTestId("grading-summary").first().textContent()).resolves.toMatch(/^T1 /);

@@ -10,6 +10,7 @@ import {
 } from "pdf-lib";
 import sharp from "sharp";
 import { PDF_UNITS_PER_INCH, formatLength } from "@/lib/units";
+import { SAFETY_CAUTIONS } from "@/lib/safety";
 
 /**
  * Production spec sheet: the one document the press operator works from. Letter portrait
@@ -55,12 +56,7 @@ export interface SpecSheetInput {
 }
 
 /** Safety and compliance notes printed on every spec sheet unless the shop supplies its own. */
-export const DEFAULT_CAUTIONS: readonly string[] = [
-  "Heat presses and transfer platens run hot enough to burn skin. Use the time, temperature and pressure given by the maker of the transfer or vinyl.",
-  "Keep the work area ventilated while curing inks or pressing transfers.",
-  "Children's garments: no drawstrings at the hood or neck in children's sizes 2T to 12 (US 16 CFR 1120), and tracking labels where they are required.",
-  "Local rules and the transfer maker's instructions always come first; follow them where they differ from this sheet.",
-];
+export const DEFAULT_CAUTIONS: readonly string[] = SAFETY_CAUTIONS;
 
 // ---------------------------------------------------------------------------------------
 // Text that the standard fonts can show

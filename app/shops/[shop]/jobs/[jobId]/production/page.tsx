@@ -7,6 +7,7 @@ import { listExports, listGradings, listJobSizes } from "@/db/queries/production
 import { getProductionDocument, listProofsForJob } from "@/db/queries/proofs";
 import { can } from "@/lib/access";
 import { LOCATION_LABELS } from "@/lib/garments/locations";
+import { SAFETY_CAUTIONS } from "@/lib/safety";
 import { ProductionBoard } from "./ProductionBoard";
 
 export const dynamic = "force-dynamic";
@@ -34,7 +35,12 @@ export default async function ProductionPage({ params }: { params: Promise<{ sho
       </p>
       <PageHeader title="Production" lead="Size run, print sizes per garment size, and the files the press needs." />
       <div role="note" className="mb-6 rounded-card border border-ochre-300 bg-ochre-100 p-4 text-sm text-ochre-800">
-        <strong>Safety.</strong> Heat presses and transfer platens are hot enough to burn: follow the transfer or vinyl maker&apos;s time, temperature and pressure. Ventilate when curing. Children&apos;s garments: no drawstrings at the hood or neck in children&apos;s sizes 2T to 12 (US 16 CFR 1120), and add tracking labels where required. Local rules and the transfer maker&apos;s instructions come first.
+        <strong>Safety.</strong>
+        <ul className="mt-1 list-disc space-y-1 pl-5">
+          {SAFETY_CAUTIONS.map((line) => (
+            <li key={line}>{line}</li>
+          ))}
+        </ul>
       </div>
       <ul className="mb-6 space-y-2" aria-label="Which revision production prints" data-testid="production-revisions">
         {printed.map(({ document: d, approvedLetter, newerDraft }) => (
