@@ -7,6 +7,7 @@ import { DEFAULT_PACKER, PACKER_ALGORITHMS, expandTransfers, packGangSheet } fro
 import { gradingSizes, printsPerSize, type ChartRow } from "@/lib/production/plan";
 import { MAX_TILE_PAGES, PAPER_SIZES, planTiles, tileCoverage, type PaperId } from "@/lib/production/tiling";
 import { GARMENT_CATEGORIES } from "@/lib/garments/types";
+import { expectTiledArt } from "../oracles/tiling";
 import { garmentOf, nonFinitePaths } from "./arbitraries";
 
 // Property runs share two cores with other work; give them room beyond the 5 s default.
@@ -219,6 +220,7 @@ describe("tiling on wild input", () => {
           expect(plan.pages).toBe(plan.tiles.length);
           expect(plan.pages).toBeGreaterThan(0);
           expect(plan.pages).toBeLessThanOrEqual(MAX_TILE_PAGES);
+          expectTiledArt(plan);
           const coverage = tileCoverage(plan);
           expect(coverage.coversArt && coverage.insideArt && coverage.insidePrintable).toBe(true);
           for (const o of [...coverage.horizontalOverlaps, ...coverage.verticalOverlaps])
