@@ -7,6 +7,7 @@ import {
   DEFAULT_MAX_SHEET_LENGTH_IN,
   DEFAULT_PACKER,
   DEFAULT_ROLL_WIDTH_IN,
+  MIN_PIECE_SIDE_IN,
   PACKER_ALGORITHMS,
   ROLL_WIDTHS_IN,
   areaLowerBound,
@@ -252,6 +253,30 @@ describe("packGangSheet on small jobs", () => {
   ])("rejects $name", ({ opts }) => {
     const pieces = expandTransfers([{ id: "a", widthIn: 2, heightIn: 2, quantity: 1 }], 0);
     expect(() => packGangSheet({ pieces, ...opts })).toThrow(RangeError);
+  });
+
+  it("refuses pieces too small for its fit checks instead of stacking them on one spot", () => {
+    // Found by the wild-input property test: two 1.5e-323 × 0.25 in pieces on a 1.5e-323 in roll
+    // with no gap or margin were both laid at (0, 0), sharing all their area (efficiency 2).
+    // Our packers compare sizes with 1e-9 in of float slack, so sides far below that cannot be
+    // told apart; a piece must be at least MIN_PIECE_SIDE_IN (0.001 in, our own limit) each way.
+    const tiny = expandTransfers([{ id: "t0", widthIn: 1.5e-323, heightIn: 0.25, quantity: 2 }], 0);
+    const opts = {
+      rollWidthIn: 1.5e-323,
+      gapIn: 0,
+      edgeMarginIn: 0,
+      allowRotation: false,
+      maxSheetLengthIn: 24,
+    };
+    for (const algorithm of PACKER_ALGORITHMS) {
+      const call = () => packGangSheet({ ...opts, pieces: tiny, algorithm });
+      expect(call).toThrow(RangeError);
+      expect(call).toThrow(/t0#1.*at least 0\.001 in/);
+    }
+    expect(MIN_PIECE_SIDE_IN).toBe(0.001); // our own limit
+    const small = expandTransfers([{ id: "dot", widthIn: 0.001, heightIn: 0.001, quantity: 3 }], 0);
+    const result = packGangSheet({ pieces: small, gapIn: 0, edgeMarginIn: 0 });
+    expectValidLayout(result, small, { gapIn: 0, edgeMarginIn: 0 });
   });
 
   it("rejects a piece id used twice", () => {
