@@ -7,6 +7,7 @@ import { DEFAULT_PACKER, PACKER_ALGORITHMS, expandTransfers, packGangSheet } fro
 import { gradingSizes, printsPerSize, type ChartRow } from "@/lib/production/plan";
 import { MAX_TILE_PAGES, PAPER_SIZES, planTiles, tileCoverage, type PaperId } from "@/lib/production/tiling";
 import { GARMENT_CATEGORIES } from "@/lib/garments/types";
+import { expectSoundLayout } from "../oracles/gang-sheet";
 import { expectTiledArt } from "../oracles/tiling";
 import { garmentOf, nonFinitePaths } from "./arbitraries";
 
@@ -307,6 +308,13 @@ describe("gang sheets on wild input", () => {
         }
         expect(result.efficiency).toBeGreaterThanOrEqual(0);
         expect(result.efficiency).toBeLessThanOrEqual(1 + 1e-9);
+        expectSoundLayout(result, pieces, {
+          rollWidthIn: result.rollWidthIn,
+          gapIn: options.gapIn,
+          edgeMarginIn: options.edgeMarginIn,
+          maxSheetLengthIn: options.maxSheetLengthIn,
+          allowRotation: options.allowRotation,
+        });
       }),
       { numRuns: 300 },
     );
