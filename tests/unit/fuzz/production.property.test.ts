@@ -10,9 +10,26 @@ import { GARMENT_CATEGORIES } from "@/lib/garments/types";
 import { expectSoundLayout } from "../oracles/gang-sheet";
 import { expectTiledArt } from "../oracles/tiling";
 import { garmentOf, nonFinitePaths } from "./arbitraries";
+import { reachCounter } from "./reach";
 
 // Property runs share two cores with other work; give them room beyond the 5 s default.
 vi.setConfig({ testTimeout: 30_000 });
+
+/**
+ * Least share of generated cases that must reach each guarded check (reach.ts). Each is set well
+ * below the share measured over several seeds, noted beside it, so chance alone does not fail it.
+ */
+const SHARE = {
+  sizeRunEntry: 0.6, // measured 0.78 to 0.88
+  gradedSize: 0.3, // measured 0.49 to 0.65
+  noRoomSize: 0.1, // measured 0.25 to 0.27
+  printRow: 0.7, // measured 0.87 to 0.91
+  assignedRow: 0.35, // measured 0.55 to 0.61
+  plannedTiles: 0.45, // measured 0.59 to 0.6
+  refusedTiles: 0.25, // measured 0.4 to 0.41
+  packedSheet: 0.3, // measured 0.45 to 0.51 (0.11 to 0.14 before half the jobs were valid throughout)
+  refusedSheet: 0.2, // measured 0.37 to 0.39
+};
 
 /** A size chart of one category: catalog blanks, or up to six generated rows of the same category. */
 const chart = fc.oneof(
@@ -71,8 +88,10 @@ function placementOf(j: {
 
 describe("grading inputs from a proof (gradingSizes)", () => {
   it("puts every size-run entry in exactly one of sizes, missing or noRoom, with 0 < ideal ≤ allowed, all finite", () => {
+    const reach = reachCounter("gradingSizes");
     fc.assert(
       fc.property(job, (j) => {
+        reach.generated();
         const { sizes, missing, noRoom } = gradingSizes({
           category: j.category,
           chart: j.rows,
@@ -81,6 +100,9 @@ describe("grading inputs from a proof (gradingSizes)", () => {
           designedOn: j.designedOn,
         });
         expect(nonFinitePaths(sizes)).toEqual([]);
+        if (j.sizeRun.length > 0) reach.reached("a size-run entry");
+        if (sizes.length > 0) reach.reached("a graded size");
+        if (noRoom.length > 0) reach.reached("a size with no room");
         const chartSizes = new Set(j.rows.map((r) => r.size));
         for (const entry of j.sizeRun) {
           const inSizes = sizes.filter((s) => s.size === entry.size).length;
@@ -109,11 +131,16 @@ describe("grading inputs from a proof (gradingSizes)", () => {
       }),
       { numRuns: 120 },
     );
+    reach.expectShare("a size-run entry", SHARE.sizeRunEntry);
+    reach.expectShare("a graded size", SHARE.gradedSize);
+    reach.expectShare("a size with no room", SHARE.noRoomSize);
   });
 
   it("gives gradeSizeRun input it accepts, and grading assigns every ordered size exactly one width within its allowance", () => {
+    const reach = reachCounter("grading from a proof");
     fc.assert(
       fc.property(job, (j) => {
+        reach.generated();
         const { sizes } = gradingSizes({
           category: j.category,
           chart: j.rows,
@@ -122,6 +149,7 @@ describe("grading inputs from a proof (gradingSizes)", () => {
           designedOn: j.designedOn,
         });
         if (sizes.length === 0) return;
+        reach.reached("a graded size");
         const result = gradeSizeRun(sizes, j.k);
         expect(nonFinitePaths(result)).toEqual([]);
         expect(result.groups.length).toBeLessThanOrEqual(j.k);
@@ -139,11 +167,13 @@ describe("grading inputs from a proof (gradingSizes)", () => {
       }),
       { numRuns: 120 },
     );
+    reach.expectShare("a graded size", SHARE.gradedSize);
   });
 });
 
 describe("prints per size (printsPerSize)", () => {
   it("gives one row per size in order, positive finite sizes with the designed aspect, and T1… narrowest first", () => {
+    const reach = reachCounter("printsPerSize");
     fc.assert(
       fc.property(
         fc.record({
@@ -160,10 +190,13 @@ describe("prints per size (printsPerSize)", () => {
           { nil: null },
         ),
         (p, sizeRun, assignment) => {
+          reach.generated();
           const placement = placementOf(p);
           const prints = printsPerSize({ placement, sizeRun, assignment });
           expect(prints.map((r) => r.size)).toEqual(sizeRun.map((r) => r.size));
           const widths = [...new Set(Object.values(assignment ?? {}))].sort((a, b) => a - b);
+          if (prints.length > 0) reach.reached("a print row");
+          if (prints.some((row) => assignment?.[row.size] !== undefined)) reach.reached("a graded row");
           for (const row of prints) {
             expect(nonFinitePaths(row)).toEqual([]);
             expect(row.widthIn).toBeGreaterThan(0);
@@ -178,6 +211,8 @@ describe("prints per size (printsPerSize)", () => {
       ),
       { numRuns: 200 },
     );
+    reach.expectShare("a print row", SHARE.printRow);
+    reach.expectShare("a graded row", SHARE.assignedRow);
   });
 });
 
@@ -201,6 +236,7 @@ describe("tiling on wild input", () => {
   );
 
   it("either plans at most MAX_TILE_PAGES pages with finite numbers that cover the art inside the printable area, or throws RangeError", () => {
+    const reach = reachCounter("tiling on wild input");
     fc.assert(
       fc.property(
         side,
@@ -209,14 +245,17 @@ describe("tiling on wild input", () => {
         small,
         small,
         (w, h, paper, marginIn, overlapIn) => {
+          reach.generated();
           let plan: ReturnType<typeof planTiles>;
           try {
             plan = planTiles({ artWidthIn: w, artHeightIn: h, paper, marginIn, overlapIn });
           } catch (error) {
             expect(error).toBeInstanceOf(RangeError);
             expect((error as Error).message).not.toMatch(/undefined/);
+            reach.reached("a refusal");
             return;
           }
+          reach.reached("a plan");
           expect(nonFinitePaths(plan)).toEqual([]);
           expect(plan.pages).toBe(plan.tiles.length);
           expect(plan.pages).toBeGreaterThan(0);
@@ -230,46 +269,60 @@ describe("tiling on wild input", () => {
       ),
       { numRuns: 400 },
     );
+    reach.expectShare("a plan", SHARE.plannedTiles);
+    reach.expectShare("a refusal", SHARE.refusedTiles);
   });
 });
 
 describe("gang sheets on wild input", () => {
-  /** Mostly a valid value, sometimes a wild one: every layout rule and every refusal gets exercised. */
-  const mostly = <T, U>(valid: fc.Arbitrary<T>, wild: fc.Arbitrary<U>) =>
+  type Pick = <T, U>(valid: fc.Arbitrary<T>, wild: fc.Arbitrary<U>) => fc.Arbitrary<T | U>;
+  /** Mostly a valid value, sometimes a wild one: every refusal gets exercised. */
+  const mostly: Pick = (valid, wild) =>
     fc.oneof({ weight: 5, arbitrary: valid }, { weight: 1, arbitrary: wild });
+  /** Only the valid value, for jobs that mostly reach a layout. */
+  const validOnly: Pick = (valid, wild) => {
+    void wild;
+    return valid;
+  };
   // Wild, but a roll a million inches wide is as far as it goes: beyond that the areas overflow to Infinity.
   const wildNumber = fc.oneof(
     fc.double({ min: -1e6, max: 1e6 }),
     fc.double({ min: -2, max: 3 }),
     fc.constantFrom(Number.NaN, Infinity, 0, 1e-7, 1e6),
   );
-  const job = fc.tuple(
-    fc.array(
+  const jobWith = (pick: Pick) =>
+    fc.tuple(
+      fc.array(
+        fc.record({
+          widthIn: pick(fc.double({ min: 0.25, max: 12, noNaN: true }), wildNumber),
+          heightIn: pick(fc.double({ min: 0.25, max: 20, noNaN: true }), wildNumber),
+          quantity: pick(fc.integer({ min: 1, max: 6 }), fc.constantFrom(-1, 0, 2.5, Number.NaN)),
+        }),
+        { maxLength: 5 },
+      ),
+      // Spares are bounded here: a spare percentage in the millions multiplies the pieces by ten thousand.
+      pick(
+        fc.integer({ min: 0, max: 20 }),
+        fc.oneof(fc.double({ min: -5, max: 100 }), fc.constantFrom(Number.NaN, Infinity)),
+      ),
       fc.record({
-        widthIn: mostly(fc.double({ min: 0.25, max: 12, noNaN: true }), wildNumber),
-        heightIn: mostly(fc.double({ min: 0.25, max: 20, noNaN: true }), wildNumber),
-        quantity: mostly(fc.integer({ min: 1, max: 6 }), fc.constantFrom(-1, 0, 2.5, Number.NaN)),
+        rollWidthIn: pick(fc.constantFrom(11, 13, 22, 24), wildNumber),
+        gapIn: pick(fc.constantFrom(0, 0.125, 0.25), wildNumber),
+        edgeMarginIn: pick(fc.constantFrom(0, 0.25, 0.5), wildNumber),
+        allowRotation: fc.boolean(),
+        maxSheetLengthIn: pick(fc.integer({ min: 24, max: 200 }), wildNumber),
+        algorithm: fc.constantFrom(DEFAULT_PACKER, ...PACKER_ALGORITHMS),
       }),
-      { maxLength: 5 },
-    ),
-    // Spares are bounded here: a spare percentage in the millions multiplies the pieces by ten thousand.
-    mostly(
-      fc.integer({ min: 0, max: 20 }),
-      fc.oneof(fc.double({ min: -5, max: 100 }), fc.constantFrom(Number.NaN, Infinity)),
-    ),
-    fc.record({
-      rollWidthIn: mostly(fc.constantFrom(11, 13, 22, 24), wildNumber),
-      gapIn: mostly(fc.constantFrom(0, 0.125, 0.25), wildNumber),
-      edgeMarginIn: mostly(fc.constantFrom(0, 0.25, 0.5), wildNumber),
-      allowRotation: fc.boolean(),
-      maxSheetLengthIn: mostly(fc.integer({ min: 24, max: 200 }), wildNumber),
-      algorithm: fc.constantFrom(DEFAULT_PACKER, ...PACKER_ALGORITHMS),
-    }),
-  );
+    );
+  // Half the jobs may hold wild values anywhere (most are refused); the other half hold only valid
+  // ones, so that layouts, not only refusals, are checked in numbers.
+  const job = fc.oneof(jobWith(mostly), jobWith(validOnly));
 
   it("either lays every piece inside the roll width without overlaps and with finite numbers, or throws RangeError", () => {
+    const reach = reachCounter("gang sheets on wild input");
     fc.assert(
       fc.property(job, ([items, spare, options]) => {
+        reach.generated();
         let result: ReturnType<typeof packGangSheet>;
         let pieces: ReturnType<typeof expandTransfers>;
         try {
@@ -281,8 +334,10 @@ describe("gang sheets on wild input", () => {
         } catch (error) {
           expect(error).toBeInstanceOf(RangeError);
           expect((error as Error).message).not.toMatch(/undefined/);
+          reach.reached("a refusal");
           return;
         }
+        if (result.sheets.length > 0) reach.reached("a packed sheet");
         expect(nonFinitePaths(result)).toEqual([]);
         const placed = result.sheets.flatMap((sheet) => sheet.placements.map((p) => p.pieceId)).sort();
         expect(placed).toEqual(pieces.map((p) => p.pieceId).sort());
@@ -316,8 +371,10 @@ describe("gang sheets on wild input", () => {
           allowRotation: options.allowRotation,
         });
       }),
-      { numRuns: 300 },
+      { numRuns: 600 },
     );
+    reach.expectShare("a packed sheet", SHARE.packedSheet);
+    reach.expectShare("a refusal", SHARE.refusedSheet);
   });
 });
 
