@@ -549,11 +549,16 @@ describe("messages and robustness", () => {
     (_id, _size, location, category, row) => {
       const spec = locationSpec({ location, category, group: row.group, measurements: row.measurements });
       const base = defaultPlacement(spec, 1);
-      for (const patch of [
-        { widthIn: 30, heightIn: 30 },
-        { offsetFromCenterIn: base.offsetFromCenterIn + 7, rotationDeg: 37 },
-        { belowCollarIn: -4, rotationDeg: -1 },
-        { offsetFromCenterIn: base.offsetFromCenterIn + 0.05 },
+      // `warns`: whether the placement must draw at least one warning, so the loop below has
+      // something to read (undefined where it depends on the garment).
+      for (const { patch, warns } of [
+        // 30 in square is past every location's maximum.
+        { patch: { widthIn: 30, heightIn: 30 }, warns: true },
+        { patch: { offsetFromCenterIn: base.offsetFromCenterIn + 7, rotationDeg: 37 }, warns: undefined },
+        // 4 in above the collar (or the tote's top edge): every location has a check that says so.
+        { patch: { belowCollarIn: -4, rotationDeg: -1 }, warns: true },
+        // A nudge under 1/8 in is a slip only where the art is centered.
+        { patch: { offsetFromCenterIn: base.offsetFromCenterIn + 0.05 }, warns: spec.anchor === "center" },
       ]) {
         const warnings = checkPlacement({
           placement: { ...base, ...patch },
@@ -563,6 +568,7 @@ describe("messages and robustness", () => {
           size: row.size,
           previousSize: { size: "other", measurements: row.measurements as ApparelMeasurements },
         });
+        if (warns) expect(codes(warnings).length, JSON.stringify(patch)).toBeGreaterThan(0);
         for (const w of warnings) {
           expect(w.message).not.toMatch(/NaN|undefined|Infinity/);
           expect(w.message).toMatch(/^[A-Z].*\.$/);
