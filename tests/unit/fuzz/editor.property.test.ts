@@ -95,6 +95,7 @@ describe("view transform", () => {
           }
         },
       ),
+      { seed: reach.seed },
     );
     reach.expectShare("a zoom inside the range", SHARE.zoomInRange);
   });
@@ -152,7 +153,7 @@ describe("view transform", () => {
           expect(centre.y).toBeCloseTo(vh / 2, 6);
         },
       ),
-      { numRuns: 300 },
+      { numRuns: 300, seed: reach.seed },
     );
     reach.expectShare("a zoom above the minimum", SHARE.zoomAboveMin);
   });
@@ -183,7 +184,7 @@ describe("view transform", () => {
           }
         },
       ),
-      { numRuns: 300 },
+      { numRuns: 300, seed: reach.seed },
     );
     reach.expectShare("snapped to the centre line", SHARE.snapped);
     reach.expectShare("not snapped", SHARE.notSnapped);
@@ -230,7 +231,7 @@ describe("rulers", () => {
         const wholes = new Set(ticks.filter((t) => t.kind === "inch").map((t) => t.at));
         for (let n = Math.ceil(from); n <= to; n++) expect(wholes.has(n)).toBe(true);
       }),
-      { numRuns: 300 },
+      { numRuns: 300, seed: reach.seed },
     );
     reach.expectShare("two or more ticks", SHARE.ticks);
     reach.expectShare("a whole inch in the range", SHARE.wholeInch);
@@ -253,7 +254,7 @@ describe("rulers", () => {
           if (i > 0) expect(t.atIn).toBeGreaterThan(ticks[i - 1]!.atIn);
         }
       }),
-      { numRuns: 300 },
+      { numRuns: 300, seed: reach.seed },
     );
     reach.expectShare("two or more ticks", SHARE.cmTicks);
     reach.expectShare("a whole-centimetre tick", SHARE.cmLabel);
@@ -335,6 +336,7 @@ describe("document edits", () => {
           expect(nonFinitePaths(r)).toEqual([]);
         },
       ),
+      { seed: reach.seed },
     );
     reach.expectShare("a size above zero", SHARE.resized);
   });
@@ -399,7 +401,7 @@ describe("proofToJson", () => {
           expect(() => JSON.stringify(json)).not.toThrow();
         },
       ),
-      { numRuns: 200 },
+      { numRuns: 200, seed: reach.seed },
     );
     reach.expectShare("a placement with warnings", SHARE.placementWarnings);
     reach.expectShare("placements on an unknown size", SHARE.unknownSize);

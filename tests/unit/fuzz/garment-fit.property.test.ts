@@ -59,7 +59,7 @@ describe("silhouettes of any chart row the schema accepts", () => {
           expect(Number.isFinite(edge.left) && Number.isFinite(edge.right)).toBe(true);
         }
       }),
-      RUNS,
+      { ...RUNS, seed: reach.seed },
     );
     reach.expectShare("a body edge halfway down", SHARE.bodyEdge);
   });
@@ -130,7 +130,7 @@ describe("default placements", () => {
           expect(fit.map((w) => w.message)).toEqual([]);
         },
       ),
-      { numRuns: 300 },
+      { numRuns: 300, seed: reach.seed },
     );
     reach.expectShare("a location with room", SHARE.roomForDefault);
   });
@@ -166,7 +166,7 @@ describe("checkPlacement on finite input", () => {
           expect(order).toEqual([...order].sort((a, b) => a - b));
         },
       ),
-      { numRuns: 400 },
+      { numRuns: 400, seed: reach.seed },
     );
     reach.expectShare("some warning", SHARE.someWarning);
     reach.expectShare("two or more warnings to order", SHARE.warningsToOrder);
@@ -189,7 +189,7 @@ describe("checkPlacement on finite input", () => {
           reach.reached("a warning with numbers in its details");
         for (const w of warnings) expect(nonFinitePaths(w.details ?? {})).toEqual([]);
       }),
-      { numRuns: 300 },
+      { numRuns: 300, seed: reach.seed },
     );
     reach.expectShare("a warning with numbers in its details", SHARE.numericDetails);
   });
@@ -273,7 +273,7 @@ describe("checkPlacement on finite input", () => {
           reach.reached(heightIn > spec.maxHeight + EPSILON_IN ? "too tall" : "not too tall");
         },
       ),
-      RUNS,
+      { ...RUNS, seed: reach.seed },
     );
     for (const label of ["too wide", "not too wide", "too tall", "not too tall"])
       reach.expectShare(label, SHARE.eachSideOfALimit);
@@ -334,7 +334,7 @@ describe("checkPlacement on finite input", () => {
           expect(warning!.details!.overhangIn as number).toBeCloseTo(poke, 6);
         },
       ),
-      RUNS,
+      { ...RUNS, seed: reach.seed },
     );
     // fast-check draws again after fc.pre rejects a case, so RUNS cases always reach the check;
     // the share says how many draws that took.

@@ -129,7 +129,7 @@ describe("grading inputs from a proof (gradingSizes)", () => {
           expect(s.quantity).toBe(j.sizeRun.find((e) => e.size === s.size)!.quantity);
         }
       }),
-      { numRuns: 120 },
+      { numRuns: 120, seed: reach.seed },
     );
     reach.expectShare("a size-run entry", SHARE.sizeRunEntry);
     reach.expectShare("a graded size", SHARE.gradedSize);
@@ -165,7 +165,7 @@ describe("grading inputs from a proof (gradingSizes)", () => {
         }
         expect(result.totalShortfall).toBeGreaterThanOrEqual(0);
       }),
-      { numRuns: 120 },
+      { numRuns: 120, seed: reach.seed },
     );
     reach.expectShare("a graded size", SHARE.gradedSize);
   });
@@ -209,7 +209,7 @@ describe("prints per size (printsPerSize)", () => {
           }
         },
       ),
-      { numRuns: 200 },
+      { numRuns: 200, seed: reach.seed },
     );
     reach.expectShare("a print row", SHARE.printRow);
     reach.expectShare("a graded row", SHARE.assignedRow);
@@ -267,7 +267,7 @@ describe("tiling on wild input", () => {
             expect(o).toBeCloseTo(plan.overlapIn, 6);
         },
       ),
-      { numRuns: 400 },
+      { numRuns: 400, seed: reach.seed },
     );
     reach.expectShare("a plan", SHARE.plannedTiles);
     reach.expectShare("a refusal", SHARE.refusedTiles);
@@ -371,7 +371,7 @@ describe("gang sheets on wild input", () => {
           allowRotation: options.allowRotation,
         });
       }),
-      { numRuns: 600 },
+      { numRuns: 600, seed: reach.seed },
     );
     reach.expectShare("a packed sheet", SHARE.packedSheet);
     reach.expectShare("a refusal", SHARE.refusedSheet);

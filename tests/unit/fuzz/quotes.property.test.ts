@@ -72,6 +72,7 @@ describe("size runs", () => {
         expect(Object.values(byGroup).reduce((a, b) => a + b, 0)).toBe(total);
         for (const r of run) expect(SIZE_GROUPS.filter((g) => g.sizes.includes(r.size)).length).toBe(1);
       }),
+      { seed: reach.seed },
     );
     reach.expectShare("a size in the run", SHARE.sizeInRun);
   });
@@ -101,6 +102,7 @@ describe("size runs", () => {
           });
         },
       ),
+      { seed: reach.seed },
     );
     reach.expectShare("a job row", SHARE.jobRow);
   });
@@ -147,7 +149,7 @@ describe("quoteJob on any job the job form accepts", () => {
           j.printLocations.map((l) => l.location),
         );
       }),
-      { numRuns: 300 },
+      { numRuns: 300, seed: reach.seed },
     );
     reach.expectShare("a priced quote", SHARE.priced);
   });
@@ -190,7 +192,7 @@ describe("what is due", () => {
         }
         if (!q || q.state !== "accepted") expect(s.payable).toEqual([]);
       }),
-      { numRuns: 300 },
+      { numRuns: 300, seed: reach.seed },
     );
     reach.expectShare("something payable", SHARE.payable);
   });
@@ -215,7 +217,7 @@ describe("what is due", () => {
           }
         },
       ),
-      { numRuns: 300 },
+      { numRuns: 300, seed: reach.seed },
     );
     reach.expectShare("a payable kind", SHARE.offered);
     reach.expectShare("a kind not payable", SHARE.refused);
