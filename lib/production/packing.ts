@@ -134,6 +134,12 @@ export interface GangSheetOptions {
 /** Float slack for fits (inches; far below anything a printer can place). */
 const FIT_EPS = 1e-9;
 
+/**
+ * Smallest side a piece may have, inches (Chalkline's own limit): far below any transfer that is
+ * cut, and a million times FIT_EPS, so the packers' fit checks are decided by sizes, not by slack.
+ */
+export const MIN_PIECE_SIDE_IN = 0.001;
+
 function requireNumber(value: number, what: string, rule: "positive" | "non-negative"): void {
   if (!Number.isFinite(value) || (rule === "positive" ? value <= 0 : value < 0)) {
     const bound = rule === "positive" ? "more than 0" : "0 or more";
@@ -752,6 +758,11 @@ function normalise(options: GangSheetOptions): Normalised {
     seen.add(p.pieceId);
     requireNumber(p.widthIn, `The width of piece ${name}`, "positive");
     requireNumber(p.heightIn, `The height of piece ${name}`, "positive");
+    if (p.widthIn < MIN_PIECE_SIDE_IN || p.heightIn < MIN_PIECE_SIDE_IN) {
+      throw new RangeError(
+        `Piece ${name} (${p.widthIn} in × ${p.heightIn} in) is too small to lay out; each side must be at least ${inches(MIN_PIECE_SIDE_IN)}.`,
+      );
+    }
     const w = p.widthIn + gapIn;
     const h = p.heightIn + gapIn;
     const size = `${inches(p.widthIn)} × ${inches(p.heightIn)}`;

@@ -1,21 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { CATALOG, findBlank, findSizeRow } from "@/lib/garments/catalog";
-import {
-  CHEST_LIMITS,
-  FULL_FRONT_LIMITS,
-  LOCATION_LABELS,
-  PLUS_CEILING,
-  PLUS_GROWTH_START_CHEST_IN,
-  POCKET_CLEARANCE_IN,
-  SIDE_SEAM_CLEARANCE_BY_GROUP,
-  SIDE_SEAM_CLEARANCE_IN,
-  TOTE_BOTTOM_MARGIN_IN,
-  TOTE_SIDE_MARGIN_IN,
-  TOTE_TOP_MARGIN_IN,
-  locationSpec,
-  locationsFor,
-  type PrintLocation,
-} from "@/lib/garments/locations";
+import { LOCATION_LABELS, locationSpec, locationsFor, type PrintLocation } from "@/lib/garments/locations";
 import { buildSilhouette, minEdgeBetween, pointInPolygon } from "@/lib/garments/silhouette";
 import {
   GARMENT_CATEGORIES,
@@ -26,6 +11,33 @@ import {
   type Point,
   type SizeGroup,
 } from "@/lib/garments/types";
+
+// Limits the location specs must keep, written here rather than imported from the code they test.
+// Trade values (common practice, no published source):
+/** An adult tee's full front: at most about 11.25 in across and 14 in down. */
+const ADULT_FULL_FRONT_MAX = { widthIn: 11.25, heightIn: 14 };
+/** Keep art this far inside the side seam and armhole seam on adults. */
+const SIDE_SEAM_CLEARANCE_IN = 2;
+/** Keep hoodie front art this far above the pouch pocket. */
+const POCKET_CLEARANCE_IN = 1;
+// From memory, approximate:
+/** Side-seam clearance per size group: adults keep the full 2 in, smaller garments less. */
+const SIDE_SEAM_CLEARANCE_BY_GROUP: Readonly<Record<SizeGroup, number>> = {
+  adult: SIDE_SEAM_CLEARANCE_IN,
+  youth: 1.5,
+  toddler: 1.25,
+  infant: 1,
+};
+/** Youth left or right chest: at most about 3.5 in wide. */
+const YOUTH_CHEST_MAX_WIDTH_IN = 3.5;
+/** Tote face margins: 1.5 in at the sides, 2 in below the top edge, 1.5 in above the bottom or gusset fold. */
+const TOTE_SIDE_MARGIN_IN = 1.5;
+const TOTE_TOP_MARGIN_IN = 2;
+const TOTE_BOTTOM_MARGIN_IN = 1.5;
+// The product's own rule (Chalkline default, no published source): adult full fronts grow past a
+// 24.5 in chest (about a unisex XL), up to a large-platen ceiling of 14 × 16 in.
+const PLUS_GROWTH_START_CHEST_IN = 24.5;
+const PLUS_CEILING = { width: 14, height: 16 };
 
 type Case = [string, GarmentCategory, string, SizeGroup, GarmentMeasurements, PrintLocation];
 
@@ -193,8 +205,8 @@ describe("full front (common practice, no published source)", () => {
     "%s %s: never over 11.25 x 14 in below plus sizes",
     (_id, _size, category, measurements) => {
       const s = locationSpec({ location: "full-front", category, group: "adult", measurements });
-      expect(s.maxWidth).toBeLessThanOrEqual(11.25);
-      expect(s.maxHeight).toBeLessThanOrEqual(14);
+      expect(s.maxWidth).toBeLessThanOrEqual(ADULT_FULL_FRONT_MAX.widthIn);
+      expect(s.maxHeight).toBeLessThanOrEqual(ADULT_FULL_FRONT_MAX.heightIn);
     },
   );
 
@@ -274,7 +286,7 @@ describe("other locations (common practice or from memory, as noted)", () => {
     expect(youth.maxWidth).toBeLessThan(adult.maxWidth);
     expect(youth.typicalWidth).toBeLessThan(adult.typicalWidth);
     expect(youth.defaultOffsetFromCenter).toBeLessThan(adult.defaultOffsetFromCenter);
-    expect(youth.maxWidth).toBeLessThanOrEqual(CHEST_LIMITS.youth.capWidth);
+    expect(youth.maxWidth).toBeLessThanOrEqual(YOUTH_CHEST_MAX_WIDTH_IN);
   });
 
   it.each(
@@ -331,10 +343,28 @@ describe("other locations (common practice or from memory, as noted)", () => {
     },
   );
 
-  it("side-seam clearance is 2 in on adults and smaller on small garments (from memory, approximate)", () => {
-    expect(SIDE_SEAM_CLEARANCE_IN).toBe(2);
-    expect(SIDE_SEAM_CLEARANCE_BY_GROUP.adult).toBe(SIDE_SEAM_CLEARANCE_IN);
+  it.each(
+    CATALOG.filter((b) => b.category !== "tote").map((b) => [b.id, b.sizes[0]!.group, b.category] as const),
+  )(
+    "%s (%s): side-seam clearance is 2 in on adults and smaller on small garments (from memory, approximate)",
+    (blankId, group, category) => {
+      const r = findBlank(blankId)!.sizes[0]!;
+      const s = locationSpec({ location: "full-front", category, group, measurements: r.measurements });
+      expect(s.sideSeamClearance).toBe(SIDE_SEAM_CLEARANCE_BY_GROUP[group]);
+    },
+  );
+
+  it("side-seam clearances shrink from adult to infant, and the adult full front is capped at 11.25 in", () => {
+    expect(SIDE_SEAM_CLEARANCE_BY_GROUP.adult).toBe(2);
     expect(SIDE_SEAM_CLEARANCE_BY_GROUP.infant).toBeLessThan(SIDE_SEAM_CLEARANCE_BY_GROUP.youth);
-    expect(FULL_FRONT_LIMITS.adult.capWidth).toBe(11.25);
+    // A wide adult body below the plus-size growth still stops at the cap.
+    const m = row("everyday-crew-tee", "M");
+    const s = locationSpec({
+      location: "full-front",
+      category: "unisex-tee",
+      group: "adult",
+      measurements: { ...m.measurements, chestWidth: PLUS_GROWTH_START_CHEST_IN },
+    });
+    expect(s.maxWidth).toBeCloseTo(ADULT_FULL_FRONT_MAX.widthIn, 10);
   });
 });

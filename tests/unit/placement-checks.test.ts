@@ -1,14 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { CATALOG, findBlank, findSizeRow } from "@/lib/garments/catalog";
-import {
-  COLLAR_CLEARANCE_IN,
-  HEM_CLEARANCE_IN,
-  POCKET_CLEARANCE_IN,
-  TOP_TOLERANCE_IN,
-  locationSpec,
-  locationsFor,
-  type PrintLocation,
-} from "@/lib/garments/locations";
+import { locationSpec, locationsFor, type PrintLocation } from "@/lib/garments/locations";
 import { buildSilhouette, minEdgeBetween } from "@/lib/garments/silhouette";
 import type {
   ApparelMeasurements,
@@ -16,16 +8,31 @@ import type {
   GarmentMeasurements,
   SizeGroup,
 } from "@/lib/garments/types";
-import {
-  SIDE_SEAM_CLEARANCE_IN,
-  SLIGHT_OFFSET_IN,
-  SLIGHT_TILT_DEG,
-  checkAcrossSizes,
-  checkPlacement,
-  type PlacementWarning,
-} from "@/lib/placement/checks";
+import { checkAcrossSizes, checkPlacement, type PlacementWarning } from "@/lib/placement/checks";
 import { defaultPlacement, type Placement } from "@/lib/placement/model";
 import { formatLength } from "@/lib/units";
+
+// Thresholds the checks must keep, written here rather than imported from the code they test.
+// Trade values (common practice, no published source):
+/** An adult full front starts 3 to 3.5 in below the collar seam; the product's default is 3 in. */
+const FULL_FRONT_TOP_IN = 3;
+/** An adult tee's full front takes at most about 11.25 in across and 14 in down. */
+const ADULT_FULL_FRONT_MAX = { widthIn: 11.25, heightIn: 14 };
+/** Keep art this far inside the side seam and the armhole seam on adults. */
+const SIDE_SEAM_CLEARANCE_IN = 2;
+/** Keep art this far below the collar seam. */
+const COLLAR_CLEARANCE_IN = 0.5;
+/** Keep art this far above the hem stitching, a rib band or a leg opening. */
+const HEM_CLEARANCE_IN = 1;
+/** Keep hoodie front art this far above the pouch pocket. */
+const POCKET_CLEARANCE_IN = 1;
+// Margins of the product's own (Chalkline defaults, no published source):
+/** How far the top of the art may stray from a location's usual top before the check says so. */
+const TOP_TOLERANCE_IN = 1.5;
+/** Centered art nudged by less than this (one eighth of an inch) looks like a slip. */
+const SLIGHT_OFFSET_IN = 0.125;
+/** Art turned by less than this many degrees looks crooked rather than angled. */
+const SLIGHT_TILT_DEG = 2;
 
 interface Garment {
   category: GarmentCategory;
@@ -50,7 +57,7 @@ function art(patch: Partial<Placement> = {}): Placement {
     widthIn: 11,
     heightIn: 11,
     offsetFromCenterIn: 0,
-    belowCollarIn: 3,
+    belowCollarIn: FULL_FRONT_TOP_IN,
     rotationDeg: 0,
     ...patch,
   };
@@ -97,6 +104,128 @@ describe("acceptance: adult M unisex tee full front (common practice, no publish
 
   it("11 x 11 in, 3 in below the collar, offset 0, rotation 0: no warnings", () => {
     expect(check(art())).toEqual([]);
+  });
+});
+
+describe("each threshold at its edge (values written above, with their sources)", () => {
+  const sil = buildSilhouette(TEE_M.category, TEE_M.measurements, "front");
+  const chest = (TEE_M.measurements as ApparelMeasurements).chestWidth;
+  // Below the underarm the body edge of the tee is straight at half the chest width, so art w wide
+  // and centered there clears the side seam by chest / 2 − w / 2.
+  const belowUnderarm = sil.chestLineY + 1;
+  it.each([
+    {
+      name: "full front exactly 11.25 in wide",
+      patch: { widthIn: ADULT_FULL_FRONT_MAX.widthIn },
+      code: "too-wide",
+      flagged: false,
+    },
+    {
+      name: "full front 11.26 in wide",
+      patch: { widthIn: ADULT_FULL_FRONT_MAX.widthIn + 0.01 },
+      code: "too-wide",
+      flagged: true,
+      details: { maxWidthIn: ADULT_FULL_FRONT_MAX.widthIn },
+    },
+    {
+      name: "full front exactly 14 in tall",
+      patch: { heightIn: ADULT_FULL_FRONT_MAX.heightIn },
+      code: "too-tall",
+      flagged: false,
+    },
+    {
+      name: "full front 14.01 in tall",
+      patch: { heightIn: ADULT_FULL_FRONT_MAX.heightIn + 0.01 },
+      code: "too-tall",
+      flagged: true,
+      details: { maxHeightIn: ADULT_FULL_FRONT_MAX.heightIn },
+    },
+    {
+      name: "art exactly 2 in inside the side seams",
+      patch: { widthIn: chest - 2 * SIDE_SEAM_CLEARANCE_IN, heightIn: 4, belowCollarIn: belowUnderarm },
+      code: "seam-clearance",
+      flagged: false,
+    },
+    {
+      name: "art 1.99 in inside the side seams",
+      patch: {
+        widthIn: chest - 2 * (SIDE_SEAM_CLEARANCE_IN - 0.01),
+        heightIn: 4,
+        belowCollarIn: belowUnderarm,
+      },
+      code: "seam-clearance",
+      flagged: true,
+      details: { minClearanceIn: SIDE_SEAM_CLEARANCE_IN, clearanceIn: SIDE_SEAM_CLEARANCE_IN - 0.01 },
+    },
+    {
+      name: "art top exactly 1/2 in below the collar seam",
+      patch: { widthIn: 4, heightIn: 4, belowCollarIn: COLLAR_CLEARANCE_IN },
+      code: "collar-clearance",
+      flagged: false,
+    },
+    {
+      name: "art top 0.45 in below the collar seam",
+      patch: { widthIn: 4, heightIn: 4, belowCollarIn: COLLAR_CLEARANCE_IN - 0.05 },
+      code: "collar-clearance",
+      flagged: true,
+      details: { minClearanceIn: COLLAR_CLEARANCE_IN, clearanceIn: COLLAR_CLEARANCE_IN - 0.05 },
+    },
+    {
+      name: "art ending exactly 1 in above the hem",
+      patch: { widthIn: 8, heightIn: 6, belowCollarIn: sil.hemY - 6 - HEM_CLEARANCE_IN },
+      code: "hem-clearance",
+      flagged: false,
+    },
+    {
+      name: "art ending 0.95 in above the hem",
+      patch: { widthIn: 8, heightIn: 6, belowCollarIn: sil.hemY - 6 - (HEM_CLEARANCE_IN - 0.05) },
+      code: "hem-clearance",
+      flagged: true,
+      details: { minClearanceIn: HEM_CLEARANCE_IN, clearanceIn: HEM_CLEARANCE_IN - 0.05 },
+    },
+    {
+      name: "top exactly 1.5 in above the usual 3 in",
+      patch: { heightIn: 8, belowCollarIn: FULL_FRONT_TOP_IN - TOP_TOLERANCE_IN },
+      code: "top-too-high",
+      flagged: false,
+    },
+    {
+      name: "top exactly 1.5 in below the usual 3 in",
+      patch: { heightIn: 8, belowCollarIn: FULL_FRONT_TOP_IN + TOP_TOLERANCE_IN },
+      code: "top-too-low",
+      flagged: false,
+    },
+    {
+      name: "centered art 0.12 in off center",
+      patch: { offsetFromCenterIn: SLIGHT_OFFSET_IN - 0.005 },
+      code: "slightly-off-center",
+      flagged: true,
+      details: { thresholdIn: SLIGHT_OFFSET_IN },
+    },
+    {
+      name: "art turned 1.99°",
+      patch: { widthIn: 6, heightIn: 6, rotationDeg: SLIGHT_TILT_DEG - 0.01 },
+      code: "slight-tilt",
+      flagged: true,
+      details: { thresholdDeg: SLIGHT_TILT_DEG },
+    },
+  ])("$name: $code flagged $flagged", ({ patch, code, flagged, details }) => {
+    const warnings = check(art(patch));
+    expect(codes(warnings).includes(code), codes(warnings).join(", ") || "no warnings").toBe(flagged);
+    if (!details) return;
+    const found = find(warnings, code).details!;
+    for (const [key, value] of Object.entries(details))
+      expect(found[key] as number, key).toBeCloseTo(value, 9);
+  });
+
+  it("hoodie M: art ending exactly 1 in above the pouch pocket passes; 0.95 in is too close", () => {
+    const hoodie = garment("campfire-pullover-hoodie", "M");
+    const pocketTop = buildSilhouette(hoodie.category, hoodie.measurements, "front").pocketTopY!;
+    const ends = (gap: number) => art({ heightIn: pocketTop - FULL_FRONT_TOP_IN - gap });
+    expect(codes(check(ends(POCKET_CLEARANCE_IN), hoodie))).not.toContain("pocket-clearance");
+    const close = find(check(ends(POCKET_CLEARANCE_IN - 0.05), hoodie), "pocket-clearance");
+    expect(close.details?.minClearanceIn).toBe(POCKET_CLEARANCE_IN);
+    expect(close.details?.clearanceIn as number).toBeCloseTo(POCKET_CLEARANCE_IN - 0.05, 9);
   });
 });
 
@@ -198,8 +327,8 @@ describe("size limits", () => {
 
 describe("usual top (tolerance 1.5 in, Chalkline default)", () => {
   it.each([
-    [3 - TOP_TOLERANCE_IN - 0.25, "top-too-high", "warning"],
-    [3 + TOP_TOLERANCE_IN + 0.25, "top-too-low", "info"],
+    [FULL_FRONT_TOP_IN - TOP_TOLERANCE_IN - 0.25, "top-too-high", "warning"],
+    [FULL_FRONT_TOP_IN + TOP_TOLERANCE_IN + 0.25, "top-too-low", "info"],
   ])("top %d in below the collar gives %s", (belowCollarIn, code, severity) => {
     const warnings = check(art({ belowCollarIn, heightIn: 8 }));
     expect(codes(warnings)).toEqual([code]);
@@ -207,7 +336,7 @@ describe("usual top (tolerance 1.5 in, Chalkline default)", () => {
     expect(warnings[0]!.message).toContain("usually starts about 3 in below");
   });
 
-  it.each([3 - TOP_TOLERANCE_IN + 0.1, 3.5, 3 + TOP_TOLERANCE_IN - 0.1])(
+  it.each([FULL_FRONT_TOP_IN - TOP_TOLERANCE_IN + 0.1, 3.5, FULL_FRONT_TOP_IN + TOP_TOLERANCE_IN - 0.1])(
     "top %d in is within tolerance",
     (belowCollarIn) => {
       expect(check(art({ belowCollarIn, heightIn: 8 }))).toEqual([]);
@@ -420,11 +549,16 @@ describe("messages and robustness", () => {
     (_id, _size, location, category, row) => {
       const spec = locationSpec({ location, category, group: row.group, measurements: row.measurements });
       const base = defaultPlacement(spec, 1);
-      for (const patch of [
-        { widthIn: 30, heightIn: 30 },
-        { offsetFromCenterIn: base.offsetFromCenterIn + 7, rotationDeg: 37 },
-        { belowCollarIn: -4, rotationDeg: -1 },
-        { offsetFromCenterIn: base.offsetFromCenterIn + 0.05 },
+      // `warns`: whether the placement must draw at least one warning, so the loop below has
+      // something to read (undefined where it depends on the garment).
+      for (const { patch, warns } of [
+        // 30 in square is past every location's maximum.
+        { patch: { widthIn: 30, heightIn: 30 }, warns: true },
+        { patch: { offsetFromCenterIn: base.offsetFromCenterIn + 7, rotationDeg: 37 }, warns: undefined },
+        // 4 in above the collar (or the tote's top edge): every location has a check that says so.
+        { patch: { belowCollarIn: -4, rotationDeg: -1 }, warns: true },
+        // A nudge under 1/8 in is a slip only where the art is centered.
+        { patch: { offsetFromCenterIn: base.offsetFromCenterIn + 0.05 }, warns: spec.anchor === "center" },
       ]) {
         const warnings = checkPlacement({
           placement: { ...base, ...patch },
@@ -434,6 +568,7 @@ describe("messages and robustness", () => {
           size: row.size,
           previousSize: { size: "other", measurements: row.measurements as ApparelMeasurements },
         });
+        if (warns) expect(codes(warnings).length, JSON.stringify(patch)).toBeGreaterThan(0);
         for (const w of warnings) {
           expect(w.message).not.toMatch(/NaN|undefined|Infinity/);
           expect(w.message).toMatch(/^[A-Z].*\.$/);

@@ -23,6 +23,7 @@ import {
   type TestPrintInput,
 } from "@/app/_server/production/test-print";
 import { planTiles, tileCoverage, type PaperId, type TilePlan } from "@/lib/production/tiling";
+import { expectTiledArt } from "./oracles/tiling";
 
 type PdfJs = typeof import("pdfjs-dist/legacy/build/pdf.mjs");
 type PdfDoc = Awaited<ReturnType<PdfJs["getDocument"]>["promise"]>;
@@ -374,6 +375,7 @@ describe("renderTestPrintPdf", () => {
           const { horizontalOverlaps, verticalOverlaps } = tileCoverage(fromPdf);
           expect(coverage.coversArt).toBe(true);
           expect(tileCoverage(plan).insidePrintable).toBe(true);
+          expectTiledArt(plan);
           for (const o of [...horizontalOverlaps, ...verticalOverlaps])
             expect(o).toBeCloseTo(options.overlapIn, 3);
         },

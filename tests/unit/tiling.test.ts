@@ -15,6 +15,7 @@ import {
   type TilePlan,
 } from "@/lib/production/tiling";
 import { MM_PER_INCH } from "@/lib/units";
+import { expectTiledArt } from "./oracles/tiling";
 
 /**
  * Where an art point lands on the taped sheet, measured from the sheet's top-left corner
@@ -209,6 +210,7 @@ describe("planTiles on other papers", () => {
     expect(plan.columns).toBe(2); // 16 / 8 = 2 exactly, by hand
     expect(tileCoverage(plan).horizontalOverlaps).toEqual([0]);
     expect(tileCoverage(plan).coversArt).toBe(true);
+    expectTiledArt(plan);
   });
 
   it("does not add a sliver page when the art is an exact number of steps", () => {
@@ -229,6 +231,217 @@ describe("planTiles on other papers", () => {
     expect(last.artWidth).toBeCloseTo(8, 9);
     expect(last.artWidth).toBeLessThanOrEqual(plan.printableWidthIn);
     expect(tileCoverage(plan).coversArt).toBe(true);
+    expectTiledArt(plan);
+  });
+});
+
+/**
+ * Hand-worked plans. Paper sizes: Letter 8.5 × 11 in and Tabloid 11 × 17 in (ANSI/ASME Y14.1 sizes
+ * A and B); A4 210 × 297 mm (ISO 216) = 8.2677 × 11.6929 in at 25.4 mm per inch (NIST SP 811).
+ * Margin 0.25 in and overlap 0.5 in unless a row says otherwise (our defaults, common practice).
+ * Arithmetic: printable = page − 2 × margin; step = printable − overlap; pages along an axis =
+ * 1 if the art fits the printable length, else ceil((art − overlap) / step); slice i starts at
+ * i × step and is a full printable length, except the last, which takes what is left.
+ * pageX = margin, or in a mirrored plan margin + printable − slice width.
+ */
+describe("hand-worked plans on Letter, A4 and Tabloid", () => {
+  interface Row {
+    name: string;
+    options: Parameters<typeof planTiles>[0];
+    orientation: "portrait" | "landscape";
+    page: [number, number];
+    printable: [number, number];
+    /** [art start, art size, page x] per column, in sheet order. */
+    columns: Array<[number, number, number]>;
+    /** [art start, art size] per row. */
+    rows: Array<[number, number]>;
+    pageY: number;
+  }
+  const rows: Row[] = [
+    {
+      // Letter portrait: printable 8.5 − 0.5 = 8 by 11 − 0.5 = 10.5; step 7.5 by 10.
+      // Across ceil((11 − 0.5) / 7.5) = ceil(1.4) = 2; down ceil((14 − 0.5) / 10) = ceil(1.35) = 2.
+      // Landscape (printable 10.5 × 8, step 10 × 7.5): ceil(10.5 / 10) = 2 by ceil(13.5 / 7.5) = 2,
+      // also 4, so auto keeps portrait.
+      name: "Letter, 11 × 14 in, auto",
+      options: { artWidthIn: 11, artHeightIn: 14, paper: "letter" },
+      orientation: "portrait",
+      page: [8.5, 11],
+      printable: [8, 10.5],
+      columns: [
+        [0, 8, 0.25], // full width
+        [7.5, 3.5, 0.25], // starts 1 × 7.5; 11 − 7.5 = 3.5 left
+      ],
+      rows: [
+        [0, 10.5],
+        [10, 4], // starts 1 × 10; 14 − 10 = 4 left
+      ],
+      pageY: 0.25,
+    },
+    {
+      // Letter: portrait needs ceil(19.5 / 7.5) = ceil(2.6) = 3 by ceil(29.5 / 10) = ceil(2.95) = 3 = 9;
+      // landscape (printable 10.5 × 8, step 10 × 7.5) needs ceil(19.5 / 10) = ceil(1.95) = 2 by
+      // ceil(29.5 / 7.5) = ceil(3.93) = 4 = 8, so auto turns the page.
+      name: "Letter, 20 × 30 in, auto",
+      options: { artWidthIn: 20, artHeightIn: 30, paper: "letter" },
+      orientation: "landscape",
+      page: [11, 8.5],
+      printable: [10.5, 8],
+      columns: [
+        [0, 10.5, 0.25],
+        [10, 10, 0.25], // 20 − 10 = 10 left
+      ],
+      rows: [
+        [0, 8],
+        [7.5, 8],
+        [15, 8],
+        [22.5, 7.5], // starts 3 × 7.5 = 22.5; 30 − 22.5 = 7.5 left
+      ],
+      pageY: 0.25,
+    },
+    {
+      // Letter with a 0.5 in margin and 1 in overlap: printable 7.5 × 10, step 6.5 × 9.
+      // Across (14 − 1) / 6.5 = 2 exactly: 2 pages, no sliver; down ceil((20 − 1) / 9) = ceil(2.11) = 3.
+      // Landscape (printable 10 × 7.5, step 9 × 6.5): ceil(13 / 9) = 2 by ceil(19 / 6.5) = ceil(2.92) = 3,
+      // also 6, so portrait.
+      name: "Letter, 14 × 20 in, 0.5 in margin, 1 in overlap",
+      options: { artWidthIn: 14, artHeightIn: 20, paper: "letter", marginIn: 0.5, overlapIn: 1 },
+      orientation: "portrait",
+      page: [8.5, 11],
+      printable: [7.5, 10],
+      columns: [
+        [0, 7.5, 0.5],
+        [6.5, 7.5, 0.5], // 14 − 6.5 = 7.5 left: exactly a full page
+      ],
+      rows: [
+        [0, 10],
+        [9, 10],
+        [18, 2], // starts 2 × 9 = 18; 20 − 18 = 2 left
+      ],
+      pageY: 0.5,
+    },
+    {
+      // A4 portrait: printable 8.2677 − 0.5 = 7.7677 by 11.6929 − 0.5 = 11.1929; step 7.2677 × 10.6929.
+      // Across ceil(19.5 / 7.2677) = ceil(2.68) = 3; down ceil(19.5 / 10.6929) = ceil(1.82) = 2: 6 pages.
+      // Landscape is the same grid turned (2 × 3 = 6), so auto keeps portrait.
+      name: "A4, 20 × 20 in, auto",
+      options: { artWidthIn: 20, artHeightIn: 20, paper: "a4" },
+      orientation: "portrait",
+      page: [8.267717, 11.692913], // 210 / 25.4, 297 / 25.4
+      printable: [7.767717, 11.192913],
+      columns: [
+        [0, 7.767717, 0.25],
+        [7.267717, 7.767717, 0.25], // starts 1 × 7.267717
+        [14.535433, 5.464567, 0.25], // starts 2 × 7.267717 = 14.535433; 20 − 14.535433 = 5.464567 left
+      ],
+      rows: [
+        [0, 11.192913],
+        [10.692913, 9.307087], // 20 − 10.692913 = 9.307087 left
+      ],
+      pageY: 0.25,
+    },
+    {
+      // Letter-size art does not fit one A4 page: 8 in > 7.7677 in printable across, so portrait needs
+      // ceil((8 − 0.5) / 7.2677) = ceil(1.03) = 2 by 1 (11 ≤ 11.1929); landscape needs 1 by
+      // ceil((11 − 0.5) / 7.2677) = ceil(1.44) = 2. A tie: portrait.
+      name: "A4, 8 × 11 in, auto",
+      options: { artWidthIn: 8, artHeightIn: 11, paper: "a4" },
+      orientation: "portrait",
+      page: [8.267717, 11.692913],
+      printable: [7.767717, 11.192913],
+      columns: [
+        [0, 7.767717, 0.25],
+        [7.267717, 0.732283, 0.25], // 8 − 7.267717 = 0.732283 left
+      ],
+      rows: [[0, 11]],
+      pageY: 0.25,
+    },
+    {
+      // The same plan mirrored: column 1 shows the last slice, drawn against the right margin at
+      // 0.25 + (7.767717 − 0.732283) = 7.285433; column 2 shows the first slice at 0.25.
+      name: "A4, 8 × 11 in, mirrored",
+      options: { artWidthIn: 8, artHeightIn: 11, paper: "a4", mirror: true },
+      orientation: "portrait",
+      page: [8.267717, 11.692913],
+      printable: [7.767717, 11.192913],
+      columns: [
+        [7.267717, 0.732283, 7.285433],
+        [0, 7.767717, 0.25], // 0.25 + (7.767717 − 7.767717) = 0.25
+      ],
+      rows: [[0, 11]],
+      pageY: 0.25,
+    },
+    {
+      // Tabloid portrait: printable 10.5 × 16.5, step 10 × 16: ceil(15.5 / 10) = 2 by ceil(23.5 / 16) = 2 = 4;
+      // landscape: printable 16.5 × 10.5, step 16 × 10: 1 (16 ≤ 16.5) by ceil(23.5 / 10) = ceil(2.35) = 3 = 3.
+      name: "Tabloid, 16 × 24 in, auto",
+      options: { artWidthIn: 16, artHeightIn: 24, paper: "tabloid" },
+      orientation: "landscape",
+      page: [17, 11],
+      printable: [16.5, 10.5],
+      columns: [[0, 16, 0.25]], // fits: the whole width
+      rows: [
+        [0, 10.5],
+        [10, 10.5],
+        [20, 4], // 24 − 20 = 4 left
+      ],
+      pageY: 0.25,
+    },
+    {
+      // Tabloid, portrait asked for: ceil((30 − 0.5) / 10) = ceil(2.95) = 3 by ceil((40 − 0.5) / 16) =
+      // ceil(2.47) = 3 = 9 pages (landscape would take ceil(29.5 / 16) = 2 by ceil(39.5 / 10) = 4 = 8).
+      name: "Tabloid, 30 × 40 in, portrait",
+      options: { artWidthIn: 30, artHeightIn: 40, paper: "tabloid", orientation: "portrait" },
+      orientation: "portrait",
+      page: [11, 17],
+      printable: [10.5, 16.5],
+      columns: [
+        [0, 10.5, 0.25],
+        [10, 10.5, 0.25],
+        [20, 10, 0.25], // 30 − 20 = 10 left
+      ],
+      rows: [
+        [0, 16.5],
+        [16, 16.5],
+        [32, 8], // 40 − 32 = 8 left
+      ],
+      pageY: 0.25,
+    },
+  ];
+
+  it.each(rows)("$name", ({ options, orientation, page, printable, columns, rows: down, pageY }) => {
+    const plan = planTiles(options);
+    expect(plan.orientation).toBe(orientation);
+    expect(plan.pageWidthIn).toBeCloseTo(page[0], 5);
+    expect(plan.pageHeightIn).toBeCloseTo(page[1], 5);
+    expect(plan.printableWidthIn).toBeCloseTo(printable[0], 5);
+    expect(plan.printableHeightIn).toBeCloseTo(printable[1], 5);
+    expect([plan.columns, plan.rows, plan.pages]).toEqual([
+      columns.length,
+      down.length,
+      columns.length * down.length,
+    ]);
+    for (const t of plan.tiles) {
+      const [artX, artWidth, pageX] = columns[t.column]!;
+      const [artY, artHeight] = down[t.row]!;
+      expect(t.artX, `${t.label} art x`).toBeCloseTo(artX, 5);
+      expect(t.artWidth, `${t.label} art width`).toBeCloseTo(artWidth, 5);
+      expect(t.pageX, `${t.label} page x`).toBeCloseTo(pageX, 5);
+      expect(t.artY, `${t.label} art y`).toBeCloseTo(artY, 5);
+      expect(t.artHeight, `${t.label} art height`).toBeCloseTo(artHeight, 5);
+      expect(t.pageY, `${t.label} page y`).toBeCloseTo(pageY, 5);
+    }
+    expectTiledArt(plan);
+  });
+
+  it("counts the same pages when auto is told the other orientation (hand values above)", () => {
+    // Letter 20 × 30 in portrait: 3 × 3 = 9; Tabloid 30 × 40 in landscape: 2 × 4 = 8 (worked above).
+    expect(
+      planTiles({ artWidthIn: 20, artHeightIn: 30, paper: "letter", orientation: "portrait" }).pages,
+    ).toBe(9);
+    expect(
+      planTiles({ artWidthIn: 30, artHeightIn: 40, paper: "tabloid", orientation: "landscape" }).pages,
+    ).toBe(8);
   });
 });
 
@@ -259,6 +472,7 @@ describe("mirrored plans (HTV, sublimation)", () => {
     expect(mirrored.tiles.map((t) => [t.label, t.row, t.column, t.joins])).toEqual(
       plain.tiles.map((t) => [t.label, t.row, t.column, t.joins]),
     );
+    expectTiledArt(mirrored);
     const coverage = tileCoverage(mirrored);
     expect(coverage.coversArt).toBe(true);
     expect(coverage.insidePrintable).toBe(true);
@@ -341,6 +555,7 @@ describe("planTiles properties", () => {
           expect(t.label).toBe(tileLabel(t.row, t.column));
         }
         expect(new Set(plan.tiles.map((t) => t.label)).size).toBe(plan.pages);
+        expectTiledArt(plan);
         const coverage = tileCoverage(plan);
         expect(coverage.coversArt).toBe(true);
         expect(coverage.insideArt).toBe(true);

@@ -145,6 +145,29 @@ export function placementOn(
   });
 }
 
+/**
+ * A placement the schema accepts (each side above 0 and at most 60 in, turned -180° to 180°) at
+ * any finite position, so it goes past validation to the fit checks.
+ */
+export function sizedPlacementOn(
+  location: fc.Arbitrary<PrintLocation> = fc.constantFrom(...PRINT_LOCATIONS),
+): fc.Arbitrary<Placement> {
+  const side = fc.oneof(
+    fc.double({ min: 0.01, max: 60, noNaN: true }),
+    fc.integer({ min: 1, max: 160 }).map((n) => n / 8),
+  );
+  return fc.record({
+    id: fc.constant("p"),
+    location,
+    artworkId: fc.constant(null),
+    widthIn: side,
+    heightIn: side,
+    offsetFromCenterIn: finite,
+    belowCollarIn: finite,
+    rotationDeg: fc.oneof(fc.constant(0), fc.double({ min: -180, max: 180, noNaN: true })),
+  });
+}
+
 /** A garment and a placement on one of its own locations. */
 export const garmentWithOfferedLocation = garment.chain((g) =>
   fc.constantFrom(...locationsFor(g.category)).map((location) => ({ g, location })),

@@ -30,9 +30,28 @@ import {
 } from "@/lib/editor/view";
 import { EIGHTH_IN } from "@/lib/units";
 import { nonFinitePaths, placementOn } from "./arbitraries";
+import { reachCounter } from "./reach";
 
 // Property runs share two cores with other work; give them room beyond the 5 s default.
 vi.setConfig({ testTimeout: 30_000 });
+
+/**
+ * Least share of generated cases that must reach each guarded check (reach.ts). Each is set well
+ * below the share measured over several seeds, noted beside it, so chance alone does not fail it.
+ */
+const SHARE = {
+  zoomInRange: 0.3, // measured 0.46 to 0.54 (about 0.001 before in-range zooms were mixed in)
+  zoomAboveMin: 0.5, // measured 0.72 to 0.79
+  snapped: 0.25, // measured 0.4 to 0.46
+  notSnapped: 0.35, // measured 0.54 to 0.6
+  ticks: 0.35, // measured 0.5 to 0.57 (0.07 to 0.1 before half the spans were at least 2 in)
+  wholeInch: 0.4, // measured 0.61 to 0.67
+  cmTicks: 0.3, // measured 0.48 to 0.55 (0.09 to 0.11 before)
+  cmLabel: 0.45, // measured 0.69 to 0.76
+  resized: 0.15, // measured 0.27 to 0.4 of 100 runs
+  placementWarnings: 0.5, // measured 0.74 to 0.82
+  unknownSize: 0.03, // measured 0.09 to 0.17
+};
 
 const view = fc.record({
   originX: fc.double({ min: -5000, max: 5000, noNaN: true }),
@@ -60,14 +79,25 @@ describe("view transform", () => {
   });
 
   it("clampZoom stays within the zoom range for any number that is not NaN", () => {
+    const reach = reachCounter("clampZoom");
     fc.assert(
-      fc.property(fc.double({ noNaN: true }), (z) => {
-        const c = clampZoom(z);
-        expect(c).toBeGreaterThanOrEqual(MIN_ZOOM);
-        expect(c).toBeLessThanOrEqual(MAX_ZOOM);
-        if (z >= MIN_ZOOM && z <= MAX_ZOOM) expect(c).toBe(z);
-      }),
+      // Any double, and as often one inside the range, where clamping must change nothing.
+      fc.property(
+        fc.oneof(fc.double({ noNaN: true }), fc.double({ min: MIN_ZOOM, max: MAX_ZOOM, noNaN: true })),
+        (z) => {
+          reach.generated();
+          const c = clampZoom(z);
+          expect(c).toBeGreaterThanOrEqual(MIN_ZOOM);
+          expect(c).toBeLessThanOrEqual(MAX_ZOOM);
+          if (z >= MIN_ZOOM && z <= MAX_ZOOM) {
+            reach.reached("a zoom inside the range");
+            expect(c).toBe(z);
+          }
+        },
+      ),
+      { seed: reach.seed },
     );
+    reach.expectShare("a zoom inside the range", SHARE.zoomInRange);
   });
 
   it("nextZoom moves to a neighbouring stop in the asked direction, or stays at the end", () => {
@@ -89,6 +119,7 @@ describe("view transform", () => {
   });
 
   it("fitZoom gives a finite zoom within range that fits the box when the range allows; centredOrigin centres it", () => {
+    const reach = reachCounter("fitZoom");
     fc.assert(
       fc.property(
         fc.double({ min: 1, max: 80, noNaN: true }),
@@ -97,6 +128,7 @@ describe("view transform", () => {
         fc.integer({ min: 200, max: 4000 }),
         fc.double({ min: MIN_PX_PER_INCH, max: MAX_PX_PER_INCH, noNaN: true }),
         (w, h, vw, vh, pxPerInch) => {
+          reach.generated();
           const zoom = fitZoom({
             boxWidthIn: w,
             boxHeightIn: h,
@@ -109,6 +141,7 @@ describe("view transform", () => {
           expect(zoom).toBeLessThanOrEqual(MAX_ZOOM);
           const scale = pxPerInch * zoom;
           if (zoom > MIN_ZOOM) {
+            reach.reached("a zoom above the minimum");
             expect(w * scale).toBeLessThanOrEqual(vw - 96 + 1e-6);
             expect(h * scale).toBeLessThanOrEqual(vh - 96 + 1e-6);
           }
@@ -120,11 +153,13 @@ describe("view transform", () => {
           expect(centre.y).toBeCloseTo(vh / 2, 6);
         },
       ),
-      { numRuns: 300 },
+      { numRuns: 300, seed: reach.seed },
     );
+    reach.expectShare("a zoom above the minimum", SHARE.zoomAboveMin);
   });
 
   it("snapArtPosition lands on eighths, or on the centre line only when within the snap distance", () => {
+    const reach = reachCounter("snapArtPosition");
     fc.assert(
       fc.property(
         fc.double({ min: -40, max: 40, noNaN: true }),
@@ -133,11 +168,13 @@ describe("view transform", () => {
         fc.double({ min: 4, max: 2400, noNaN: true }),
         fc.boolean(),
         (x, top, snapPx, scale, snapToCentre) => {
+          reach.generated();
           const s = snapArtPosition({ centreXIn: x, topIn: top, snapPx, scale, snapToCentre });
           const isEighth = (v: number) => Math.abs(v / EIGHTH_IN - Math.round(v / EIGHTH_IN)) < 1e-6;
           expect(isEighth(s.offsetFromCenterIn)).toBe(true);
           expect(isEighth(s.belowCollarIn)).toBe(true);
           expect(Math.abs(s.belowCollarIn - top)).toBeLessThanOrEqual(EIGHTH_IN / 2 + 1e-9);
+          reach.reached(s.snappedToCentre ? "snapped to the centre line" : "not snapped");
           if (s.snappedToCentre) {
             expect(snapToCentre).toBe(true);
             expect(Math.abs(x) * scale).toBeLessThanOrEqual(snapPx + 1e-9);
@@ -147,21 +184,33 @@ describe("view transform", () => {
           }
         },
       ),
-      { numRuns: 300 },
+      { numRuns: 300, seed: reach.seed },
     );
+    reach.expectShare("snapped to the centre line", SHARE.snapped);
+    reach.expectShare("not snapped", SHARE.notSnapped);
   });
 });
 
 describe("rulers", () => {
+  // Half the spans come from the whole 0 to 40 in (fast-check draws 0 and near-0 spans often), half
+  // are at least 2 in, so most ranges hold ticks to compare.
+  const span = fc.oneof(
+    fc.double({ min: 0, max: 40, noNaN: true }),
+    fc.double({ min: 2, max: 40, noNaN: true }),
+  );
   const range = fc
-    .tuple(fc.double({ min: -40, max: 40, noNaN: true }), fc.double({ min: 0, max: 40, noNaN: true }))
-    .map(([from, span]) => [from, from + span] as const);
+    .tuple(fc.double({ min: -40, max: 40, noNaN: true }), span)
+    .map(([from, length]) => [from, from + length] as const);
   const scale = fc.double({ min: 4, max: 2400, noNaN: true });
 
   it("inch ticks are ascending, inside the range, on eighths, never closer than 4 px, and named by their place", () => {
+    const reach = reachCounter("inch ticks");
     fc.assert(
       fc.property(range, scale, ([from, to], s) => {
+        reach.generated();
         const ticks = rulerTicks(from, to, s);
+        if (ticks.length > 1) reach.reached("two or more ticks");
+        if (Math.ceil(from) <= to) reach.reached("a whole inch in the range");
         for (const [i, t] of ticks.entries()) {
           expect(t.at).toBeGreaterThanOrEqual(from - 1e-6);
           expect(t.at).toBeLessThanOrEqual(to + 1e-6);
@@ -182,14 +231,20 @@ describe("rulers", () => {
         const wholes = new Set(ticks.filter((t) => t.kind === "inch").map((t) => t.at));
         for (let n = Math.ceil(from); n <= to; n++) expect(wholes.has(n)).toBe(true);
       }),
-      { numRuns: 300 },
+      { numRuns: 300, seed: reach.seed },
     );
+    reach.expectShare("two or more ticks", SHARE.ticks);
+    reach.expectShare("a whole inch in the range", SHARE.wholeInch);
   });
 
   it("centimetre ticks are ascending, inside the range, on whole millimetres, with labels at whole centimetres", () => {
+    const reach = reachCounter("centimetre ticks");
     fc.assert(
       fc.property(range, scale, ([from, to], s) => {
+        reach.generated();
         const ticks = rulerTicksCm(from, to, s);
+        if (ticks.length > 1) reach.reached("two or more ticks");
+        if (ticks.some((t) => t.kind === "cm")) reach.reached("a whole-centimetre tick");
         for (const [i, t] of ticks.entries()) {
           expect(t.atIn).toBeGreaterThanOrEqual(from - 1e-3);
           expect(t.atIn).toBeLessThanOrEqual(to + 1e-3);
@@ -199,8 +254,10 @@ describe("rulers", () => {
           if (i > 0) expect(t.atIn).toBeGreaterThan(ticks[i - 1]!.atIn);
         }
       }),
-      { numRuns: 300 },
+      { numRuns: 300, seed: reach.seed },
     );
+    reach.expectShare("two or more ticks", SHARE.cmTicks);
+    reach.expectShare("a whole-centimetre tick", SHARE.cmLabel);
   });
 });
 
@@ -246,6 +303,7 @@ describe("document edits", () => {
   });
 
   it("resizing with the aspect locked keeps the aspect and the top; sizes of zero or less change nothing", () => {
+    const reach = reachCounter("resize");
     fc.assert(
       fc.property(
         doc,
@@ -257,6 +315,7 @@ describe("document edits", () => {
         ),
         fc.boolean(),
         (d, pick, w, byHeight) => {
+          reach.generated();
           const p = d.placements[pick % d.placements.length]!;
           const next = resize(
             d,
@@ -267,6 +326,7 @@ describe("document edits", () => {
             expect(next).toBe(d);
             return;
           }
+          reach.reached("a size above zero");
           const r = next.placements.find((q) => q.id === p.id)!;
           // Sides are rounded to a millionth of an inch, so the aspect holds to that rounding.
           const aspect = p.widthIn / p.heightIn;
@@ -276,7 +336,9 @@ describe("document edits", () => {
           expect(nonFinitePaths(r)).toEqual([]);
         },
       ),
+      { seed: reach.seed },
     );
+    reach.expectShare("a size above zero", SHARE.resized);
   });
 
   it("an edit that changes nothing returns the same document; removing an unknown id too", () => {
@@ -299,12 +361,14 @@ describe("document edits", () => {
 describe("proofToJson", () => {
   it("never throws on any stored placements and gives each one its warnings, with only finite numbers", () => {
     const blanks = CATALOG.filter((b) => b.category !== "tote");
+    const reach = reachCounter("proofToJson");
     fc.assert(
       fc.property(
         fc.constantFrom(...blanks),
         fc.nat(),
         fc.array(placementOn(fc.constantFrom(...locationsFor("unisex-tee"), "tote-front")), { maxLength: 4 }),
         (blank, pick, placements) => {
+          reach.generated();
           const sizeChart = blank.sizes.map((r) => ({
             size: r.size,
             group: r.group,
@@ -328,6 +392,8 @@ describe("proofToJson", () => {
             placements: placements.map((p, i) => ({ ...p, id: `p${i}` })),
           });
           expect(json.placements.length).toBe(placements.length);
+          if (json.placements.some((p) => p.warnings.length > 0)) reach.reached("a placement with warnings");
+          if (size === "not-a-size" && placements.length > 0) reach.reached("placements on an unknown size");
           for (const p of json.placements) {
             for (const w of p.warnings) expect(w.message).not.toMatch(/NaN|undefined/);
             if (size === "not-a-size") expect(p.warnings.map((w) => w.code)).toEqual(["invalid-placement"]);
@@ -335,7 +401,9 @@ describe("proofToJson", () => {
           expect(() => JSON.stringify(json)).not.toThrow();
         },
       ),
-      { numRuns: 200 },
+      { numRuns: 200, seed: reach.seed },
     );
+    reach.expectShare("a placement with warnings", SHARE.placementWarnings);
+    reach.expectShare("placements on an unknown size", SHARE.unknownSize);
   });
 });

@@ -12,17 +12,41 @@ import {
   placementSchema,
 } from "@/lib/placement/model";
 import { EPSILON_IN } from "@/lib/units";
-import { finite, garment, garmentWithOfferedLocation, nonFinitePaths, placementOn } from "./arbitraries";
+import {
+  finite,
+  garment,
+  garmentWithOfferedLocation,
+  nonFinitePaths,
+  placementOn,
+  sizedPlacementOn,
+} from "./arbitraries";
+import { reachCounter } from "./reach";
 
 // Property runs share two cores with other work; give them room beyond the 5 s default.
 vi.setConfig({ testTimeout: 30_000 });
 
 const RUNS = { numRuns: 150 };
 
+/**
+ * Least share of generated cases that must reach each guarded check (reach.ts). Each is set well
+ * below the share measured over several seeds, noted beside it, so chance alone does not fail it.
+ */
+const SHARE = {
+  bodyEdge: 0.9, // measured 1.0
+  roomForDefault: 0.4, // measured 0.58 to 0.65
+  someWarning: 0.9, // measured 0.998 to 1.0
+  warningsToOrder: 0.15, // measured 0.25 to 0.31 (0.04 to 0.05 before half the placements were sized)
+  numericDetails: 0.2, // measured 0.32 to 0.35 (0.04 to 0.06 before half the placements were sized)
+  eachSideOfALimit: 0.3, // measured 0.44 to 0.56 each
+  areaWithRoom: 0.4, // measured 0.6 to 0.64
+};
+
 describe("silhouettes of any chart row the schema accepts", () => {
   it("have only finite points, a hem below the HPS, and a body edge that spans the hem", () => {
+    const reach = reachCounter("silhouettes");
     fc.assert(
       fc.property(garment, fc.constantFrom(...GARMENT_SIDES), (g, side) => {
+        reach.generated();
         const s = buildSilhouette(g.category, g.measurements, side);
         expect(nonFinitePaths(s)).toEqual([]);
         expect(s.hemY).toBeGreaterThan(s.hps.right.y);
@@ -30,12 +54,14 @@ describe("silhouettes of any chart row the schema accepts", () => {
         const mid = (s.hps.right.y + s.hemY) / 2;
         const edge = s.bodyEdgeAt(mid);
         if (edge) {
+          reach.reached("a body edge halfway down");
           expect(edge.right).toBeGreaterThanOrEqual(edge.left);
           expect(Number.isFinite(edge.left) && Number.isFinite(edge.right)).toBe(true);
         }
       }),
-      RUNS,
+      { ...RUNS, seed: reach.seed },
     );
+    reach.expectShare("a body edge halfway down", SHARE.bodyEdge);
   });
 });
 
@@ -70,11 +96,13 @@ describe("locationSpec on any chart row the schema accepts", () => {
 
 describe("default placements", () => {
   it("fit their own size: valid, no fit problem and no print-area overhang wherever the location has room", () => {
+    const reach = reachCounter("default placements");
     fc.assert(
       fc.property(
         garmentWithOfferedLocation,
         fc.double({ min: 0.1, max: 10, noNaN: true }),
         ({ g, location }, aspect) => {
+          reach.generated();
           const spec = locationSpec({
             location,
             category: g.category,
@@ -85,6 +113,7 @@ describe("default placements", () => {
             expect(() => defaultPlacement(spec, aspect)).toThrow(RangeError);
             return;
           }
+          reach.reached("a location with room");
           const p = defaultPlacement(spec, aspect);
           expect(placementSchema.safeParse(p).success).toBe(true);
           expect(p.widthIn).toBeLessThanOrEqual(spec.typicalWidth + EPSILON_IN);
@@ -101,19 +130,23 @@ describe("default placements", () => {
           expect(fit.map((w) => w.message)).toEqual([]);
         },
       ),
-      { numRuns: 300 },
+      { numRuns: 300, seed: reach.seed },
     );
+    reach.expectShare("a location with room", SHARE.roomForDefault);
   });
 });
 
 describe("checkPlacement on finite input", () => {
   it("never throws on any finite numbers (up to ±Number.MAX_VALUE), and its messages never read NaN", () => {
+    const reach = reachCounter("checkPlacement on finite input");
     fc.assert(
       fc.property(
         garment,
-        placementOn(),
+        // Half with any finite numbers, half past validation, so the fit checks' messages are read too.
+        fc.oneof(placementOn(), sizedPlacementOn()),
         fc.constantFrom("in" as const, "cm" as const),
         (g, placement, unit) => {
+          reach.generated();
           const warnings = checkPlacement({
             placement,
             category: g.category,
@@ -122,6 +155,8 @@ describe("checkPlacement on finite input", () => {
             size: g.size,
             unit,
           });
+          if (warnings.length > 0) reach.reached("some warning");
+          if (warnings.length > 1) reach.reached("two or more warnings to order");
           for (const w of warnings) {
             expect(w.message.length).toBeGreaterThan(0);
             expect(w.message).not.toMatch(/NaN|Infinity|undefined/);
@@ -131,14 +166,18 @@ describe("checkPlacement on finite input", () => {
           expect(order).toEqual([...order].sort((a, b) => a - b));
         },
       ),
-      { numRuns: 400 },
+      { numRuns: 400, seed: reach.seed },
     );
+    reach.expectShare("some warning", SHARE.someWarning);
+    reach.expectShare("two or more warnings to order", SHARE.warningsToOrder);
   });
 
   it("reports only finite numbers in its details for positions within a mile of the collar", () => {
     const mile = fc.double({ min: -63_360, max: 63_360, noNaN: true });
+    const reach = reachCounter("details within a mile");
     fc.assert(
-      fc.property(garment, placementOn(), mile, mile, (g, placement, x, y) => {
+      fc.property(garment, fc.oneof(placementOn(), sizedPlacementOn()), mile, mile, (g, placement, x, y) => {
+        reach.generated();
         const warnings = checkPlacement({
           placement: { ...placement, offsetFromCenterIn: x, belowCollarIn: y },
           category: g.category,
@@ -146,10 +185,13 @@ describe("checkPlacement on finite input", () => {
           measurements: g.measurements,
           size: g.size,
         });
+        if (warnings.some((w) => w.details && Object.values(w.details).some((v) => typeof v === "number")))
+          reach.reached("a warning with numbers in its details");
         for (const w of warnings) expect(nonFinitePaths(w.details ?? {})).toEqual([]);
       }),
-      { numRuns: 300 },
+      { numRuns: 300, seed: reach.seed },
     );
+    reach.expectShare("a warning with numbers in its details", SHARE.numericDetails);
   });
 
   it("reports art moved wholly away from the garment: off-garment on the body, outside-print-area elsewhere", () => {
@@ -192,12 +234,14 @@ describe("checkPlacement on finite input", () => {
   });
 
   it("reports too-wide and too-tall exactly when the art passes the location's maximum", () => {
+    const reach = reachCounter("size limits");
     fc.assert(
       fc.property(
         garmentWithOfferedLocation,
         fc.double({ min: 0.05, max: 3, noNaN: true }),
         fc.double({ min: 0.05, max: 3, noNaN: true }),
         ({ g, location }, fw, fh) => {
+          reach.generated();
           const spec = locationSpec({
             location,
             category: g.category,
@@ -225,13 +269,18 @@ describe("checkPlacement on finite input", () => {
           }).map((w) => w.code);
           expect(codes.includes("too-wide")).toBe(widthIn > spec.maxWidth + EPSILON_IN);
           expect(codes.includes("too-tall")).toBe(heightIn > spec.maxHeight + EPSILON_IN);
+          reach.reached(widthIn > spec.maxWidth + EPSILON_IN ? "too wide" : "not too wide");
+          reach.reached(heightIn > spec.maxHeight + EPSILON_IN ? "too tall" : "not too tall");
         },
       ),
-      RUNS,
+      { ...RUNS, seed: reach.seed },
     );
+    for (const label of ["too wide", "not too wide", "too tall", "not too tall"])
+      reach.expectShare(label, SHARE.eachSideOfALimit);
   });
 
   it("reports area art that pokes out of its print area, and stays quiet about art inside it", () => {
+    const reach = reachCounter("area art");
     fc.assert(
       fc.property(
         garmentWithOfferedLocation.filter(
@@ -243,6 +292,7 @@ describe("checkPlacement on finite input", () => {
         fc.double({ min: 0.1, max: 0.95, noNaN: true }),
         fc.double({ min: 0.05, max: 2, noNaN: true }),
         ({ g, location }, fw, fh, poke) => {
+          reach.generated();
           const spec = locationSpec({
             location,
             category: g.category,
@@ -250,6 +300,7 @@ describe("checkPlacement on finite input", () => {
             measurements: g.measurements,
           });
           fc.pre(spec.maxWidth > 0.1 && spec.maxHeight > 0.1);
+          reach.reached("an area with room");
           const widthIn = spec.maxWidth * fw;
           const heightIn = spec.maxHeight * fh;
           const cx = spec.printArea.x + spec.printArea.width / 2;
@@ -283,8 +334,11 @@ describe("checkPlacement on finite input", () => {
           expect(warning!.details!.overhangIn as number).toBeCloseTo(poke, 6);
         },
       ),
-      RUNS,
+      { ...RUNS, seed: reach.seed },
     );
+    // fast-check draws again after fc.pre rejects a case, so RUNS cases always reach the check;
+    // the share says how many draws that took.
+    reach.expectShare("an area with room", SHARE.areaWithRoom);
   });
 
   it("across a size run gives one result per size, in chart order, and fits only without fit problems", () => {

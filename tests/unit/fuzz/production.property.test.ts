@@ -7,10 +7,29 @@ import { DEFAULT_PACKER, PACKER_ALGORITHMS, expandTransfers, packGangSheet } fro
 import { gradingSizes, printsPerSize, type ChartRow } from "@/lib/production/plan";
 import { MAX_TILE_PAGES, PAPER_SIZES, planTiles, tileCoverage, type PaperId } from "@/lib/production/tiling";
 import { GARMENT_CATEGORIES } from "@/lib/garments/types";
+import { expectSoundLayout } from "../oracles/gang-sheet";
+import { expectTiledArt } from "../oracles/tiling";
 import { garmentOf, nonFinitePaths } from "./arbitraries";
+import { reachCounter } from "./reach";
 
 // Property runs share two cores with other work; give them room beyond the 5 s default.
 vi.setConfig({ testTimeout: 30_000 });
+
+/**
+ * Least share of generated cases that must reach each guarded check (reach.ts). Each is set well
+ * below the share measured over several seeds, noted beside it, so chance alone does not fail it.
+ */
+const SHARE = {
+  sizeRunEntry: 0.6, // measured 0.78 to 0.88
+  gradedSize: 0.3, // measured 0.49 to 0.65
+  noRoomSize: 0.1, // measured 0.25 to 0.27
+  printRow: 0.7, // measured 0.87 to 0.91
+  assignedRow: 0.35, // measured 0.55 to 0.61
+  plannedTiles: 0.45, // measured 0.59 to 0.6
+  refusedTiles: 0.25, // measured 0.4 to 0.41
+  packedSheet: 0.3, // measured 0.45 to 0.51 (0.11 to 0.14 before half the jobs were valid throughout)
+  refusedSheet: 0.2, // measured 0.37 to 0.39
+};
 
 /** A size chart of one category: catalog blanks, or up to six generated rows of the same category. */
 const chart = fc.oneof(
@@ -69,8 +88,10 @@ function placementOf(j: {
 
 describe("grading inputs from a proof (gradingSizes)", () => {
   it("puts every size-run entry in exactly one of sizes, missing or noRoom, with 0 < ideal ≤ allowed, all finite", () => {
+    const reach = reachCounter("gradingSizes");
     fc.assert(
       fc.property(job, (j) => {
+        reach.generated();
         const { sizes, missing, noRoom } = gradingSizes({
           category: j.category,
           chart: j.rows,
@@ -79,6 +100,9 @@ describe("grading inputs from a proof (gradingSizes)", () => {
           designedOn: j.designedOn,
         });
         expect(nonFinitePaths(sizes)).toEqual([]);
+        if (j.sizeRun.length > 0) reach.reached("a size-run entry");
+        if (sizes.length > 0) reach.reached("a graded size");
+        if (noRoom.length > 0) reach.reached("a size with no room");
         const chartSizes = new Set(j.rows.map((r) => r.size));
         for (const entry of j.sizeRun) {
           const inSizes = sizes.filter((s) => s.size === entry.size).length;
@@ -105,13 +129,18 @@ describe("grading inputs from a proof (gradingSizes)", () => {
           expect(s.quantity).toBe(j.sizeRun.find((e) => e.size === s.size)!.quantity);
         }
       }),
-      { numRuns: 120 },
+      { numRuns: 120, seed: reach.seed },
     );
+    reach.expectShare("a size-run entry", SHARE.sizeRunEntry);
+    reach.expectShare("a graded size", SHARE.gradedSize);
+    reach.expectShare("a size with no room", SHARE.noRoomSize);
   });
 
   it("gives gradeSizeRun input it accepts, and grading assigns every ordered size exactly one width within its allowance", () => {
+    const reach = reachCounter("grading from a proof");
     fc.assert(
       fc.property(job, (j) => {
+        reach.generated();
         const { sizes } = gradingSizes({
           category: j.category,
           chart: j.rows,
@@ -120,6 +149,7 @@ describe("grading inputs from a proof (gradingSizes)", () => {
           designedOn: j.designedOn,
         });
         if (sizes.length === 0) return;
+        reach.reached("a graded size");
         const result = gradeSizeRun(sizes, j.k);
         expect(nonFinitePaths(result)).toEqual([]);
         expect(result.groups.length).toBeLessThanOrEqual(j.k);
@@ -135,13 +165,15 @@ describe("grading inputs from a proof (gradingSizes)", () => {
         }
         expect(result.totalShortfall).toBeGreaterThanOrEqual(0);
       }),
-      { numRuns: 120 },
+      { numRuns: 120, seed: reach.seed },
     );
+    reach.expectShare("a graded size", SHARE.gradedSize);
   });
 });
 
 describe("prints per size (printsPerSize)", () => {
   it("gives one row per size in order, positive finite sizes with the designed aspect, and T1… narrowest first", () => {
+    const reach = reachCounter("printsPerSize");
     fc.assert(
       fc.property(
         fc.record({
@@ -158,10 +190,13 @@ describe("prints per size (printsPerSize)", () => {
           { nil: null },
         ),
         (p, sizeRun, assignment) => {
+          reach.generated();
           const placement = placementOf(p);
           const prints = printsPerSize({ placement, sizeRun, assignment });
           expect(prints.map((r) => r.size)).toEqual(sizeRun.map((r) => r.size));
           const widths = [...new Set(Object.values(assignment ?? {}))].sort((a, b) => a - b);
+          if (prints.length > 0) reach.reached("a print row");
+          if (prints.some((row) => assignment?.[row.size] !== undefined)) reach.reached("a graded row");
           for (const row of prints) {
             expect(nonFinitePaths(row)).toEqual([]);
             expect(row.widthIn).toBeGreaterThan(0);
@@ -174,8 +209,10 @@ describe("prints per size (printsPerSize)", () => {
           }
         },
       ),
-      { numRuns: 200 },
+      { numRuns: 200, seed: reach.seed },
     );
+    reach.expectShare("a print row", SHARE.printRow);
+    reach.expectShare("a graded row", SHARE.assignedRow);
   });
 });
 
@@ -199,6 +236,7 @@ describe("tiling on wild input", () => {
   );
 
   it("either plans at most MAX_TILE_PAGES pages with finite numbers that cover the art inside the printable area, or throws RangeError", () => {
+    const reach = reachCounter("tiling on wild input");
     fc.assert(
       fc.property(
         side,
@@ -207,66 +245,84 @@ describe("tiling on wild input", () => {
         small,
         small,
         (w, h, paper, marginIn, overlapIn) => {
+          reach.generated();
           let plan: ReturnType<typeof planTiles>;
           try {
             plan = planTiles({ artWidthIn: w, artHeightIn: h, paper, marginIn, overlapIn });
           } catch (error) {
             expect(error).toBeInstanceOf(RangeError);
             expect((error as Error).message).not.toMatch(/undefined/);
+            reach.reached("a refusal");
             return;
           }
+          reach.reached("a plan");
           expect(nonFinitePaths(plan)).toEqual([]);
           expect(plan.pages).toBe(plan.tiles.length);
           expect(plan.pages).toBeGreaterThan(0);
           expect(plan.pages).toBeLessThanOrEqual(MAX_TILE_PAGES);
+          expectTiledArt(plan);
           const coverage = tileCoverage(plan);
           expect(coverage.coversArt && coverage.insideArt && coverage.insidePrintable).toBe(true);
           for (const o of [...coverage.horizontalOverlaps, ...coverage.verticalOverlaps])
             expect(o).toBeCloseTo(plan.overlapIn, 6);
         },
       ),
-      { numRuns: 400 },
+      { numRuns: 400, seed: reach.seed },
     );
+    reach.expectShare("a plan", SHARE.plannedTiles);
+    reach.expectShare("a refusal", SHARE.refusedTiles);
   });
 });
 
 describe("gang sheets on wild input", () => {
-  /** Mostly a valid value, sometimes a wild one: every layout rule and every refusal gets exercised. */
-  const mostly = <T, U>(valid: fc.Arbitrary<T>, wild: fc.Arbitrary<U>) =>
+  type Pick = <T, U>(valid: fc.Arbitrary<T>, wild: fc.Arbitrary<U>) => fc.Arbitrary<T | U>;
+  /** Mostly a valid value, sometimes a wild one: every refusal gets exercised. */
+  const mostly: Pick = (valid, wild) =>
     fc.oneof({ weight: 5, arbitrary: valid }, { weight: 1, arbitrary: wild });
+  /** Only the valid value, for jobs that mostly reach a layout. */
+  const validOnly: Pick = (valid, wild) => {
+    void wild;
+    return valid;
+  };
   // Wild, but a roll a million inches wide is as far as it goes: beyond that the areas overflow to Infinity.
   const wildNumber = fc.oneof(
     fc.double({ min: -1e6, max: 1e6 }),
     fc.double({ min: -2, max: 3 }),
     fc.constantFrom(Number.NaN, Infinity, 0, 1e-7, 1e6),
   );
-  const job = fc.tuple(
-    fc.array(
+  const jobWith = (pick: Pick) =>
+    fc.tuple(
+      fc.array(
+        fc.record({
+          widthIn: pick(fc.double({ min: 0.25, max: 12, noNaN: true }), wildNumber),
+          heightIn: pick(fc.double({ min: 0.25, max: 20, noNaN: true }), wildNumber),
+          quantity: pick(fc.integer({ min: 1, max: 6 }), fc.constantFrom(-1, 0, 2.5, Number.NaN)),
+        }),
+        { maxLength: 5 },
+      ),
+      // Spares are bounded here: a spare percentage in the millions multiplies the pieces by ten thousand.
+      pick(
+        fc.integer({ min: 0, max: 20 }),
+        fc.oneof(fc.double({ min: -5, max: 100 }), fc.constantFrom(Number.NaN, Infinity)),
+      ),
       fc.record({
-        widthIn: mostly(fc.double({ min: 0.25, max: 12, noNaN: true }), wildNumber),
-        heightIn: mostly(fc.double({ min: 0.25, max: 20, noNaN: true }), wildNumber),
-        quantity: mostly(fc.integer({ min: 1, max: 6 }), fc.constantFrom(-1, 0, 2.5, Number.NaN)),
+        rollWidthIn: pick(fc.constantFrom(11, 13, 22, 24), wildNumber),
+        gapIn: pick(fc.constantFrom(0, 0.125, 0.25), wildNumber),
+        edgeMarginIn: pick(fc.constantFrom(0, 0.25, 0.5), wildNumber),
+        allowRotation: fc.boolean(),
+        maxSheetLengthIn: pick(fc.integer({ min: 24, max: 200 }), wildNumber),
+        algorithm: fc.constantFrom(DEFAULT_PACKER, ...PACKER_ALGORITHMS),
       }),
-      { maxLength: 5 },
-    ),
-    // Spares are bounded here: a spare percentage in the millions multiplies the pieces by ten thousand.
-    mostly(
-      fc.integer({ min: 0, max: 20 }),
-      fc.oneof(fc.double({ min: -5, max: 100 }), fc.constantFrom(Number.NaN, Infinity)),
-    ),
-    fc.record({
-      rollWidthIn: mostly(fc.constantFrom(11, 13, 22, 24), wildNumber),
-      gapIn: mostly(fc.constantFrom(0, 0.125, 0.25), wildNumber),
-      edgeMarginIn: mostly(fc.constantFrom(0, 0.25, 0.5), wildNumber),
-      allowRotation: fc.boolean(),
-      maxSheetLengthIn: mostly(fc.integer({ min: 24, max: 200 }), wildNumber),
-      algorithm: fc.constantFrom(DEFAULT_PACKER, ...PACKER_ALGORITHMS),
-    }),
-  );
+    );
+  // Half the jobs may hold wild values anywhere (most are refused); the other half hold only valid
+  // ones, so that layouts, not only refusals, are checked in numbers.
+  const job = fc.oneof(jobWith(mostly), jobWith(validOnly));
 
   it("either lays every piece inside the roll width without overlaps and with finite numbers, or throws RangeError", () => {
+    const reach = reachCounter("gang sheets on wild input");
     fc.assert(
       fc.property(job, ([items, spare, options]) => {
+        reach.generated();
         let result: ReturnType<typeof packGangSheet>;
         let pieces: ReturnType<typeof expandTransfers>;
         try {
@@ -278,8 +334,10 @@ describe("gang sheets on wild input", () => {
         } catch (error) {
           expect(error).toBeInstanceOf(RangeError);
           expect((error as Error).message).not.toMatch(/undefined/);
+          reach.reached("a refusal");
           return;
         }
+        if (result.sheets.length > 0) reach.reached("a packed sheet");
         expect(nonFinitePaths(result)).toEqual([]);
         const placed = result.sheets.flatMap((sheet) => sheet.placements.map((p) => p.pieceId)).sort();
         expect(placed).toEqual(pieces.map((p) => p.pieceId).sort());
@@ -305,9 +363,18 @@ describe("gang sheets on wild input", () => {
         }
         expect(result.efficiency).toBeGreaterThanOrEqual(0);
         expect(result.efficiency).toBeLessThanOrEqual(1 + 1e-9);
+        expectSoundLayout(result, pieces, {
+          rollWidthIn: result.rollWidthIn,
+          gapIn: options.gapIn,
+          edgeMarginIn: options.edgeMarginIn,
+          maxSheetLengthIn: options.maxSheetLengthIn,
+          allowRotation: options.allowRotation,
+        });
       }),
-      { numRuns: 300 },
+      { numRuns: 600, seed: reach.seed },
     );
+    reach.expectShare("a packed sheet", SHARE.packedSheet);
+    reach.expectShare("a refusal", SHARE.refusedSheet);
   });
 });
 

@@ -16,9 +16,20 @@ import {
   screenPxToInches,
   snapToStep,
 } from "@/lib/units";
+import { reachCounter } from "./reach";
 
 // Property runs share two cores with other work; give them room beyond the 5 s default.
 vi.setConfig({ testTimeout: 30_000 });
+
+/**
+ * Least share of generated cases that must reach each guarded check (reach.ts). Each is set well
+ * below the share measured over several seeds, noted beside it, so chance alone does not fail it.
+ */
+const SHARE = {
+  ordered: 0.3, // measured 0.46 to 0.52 of the draws
+  accepted: 0.1, // measured 0.18 to 0.2
+  refused: 0.5, // measured 0.8 to 0.82
+};
 
 const length = fc.double({ min: -1e6, max: 1e6, noNaN: true });
 const anyDouble = fc.double();
@@ -43,14 +54,21 @@ describe("unit conversions", () => {
 
   it("keep the sign and the order of lengths", () => {
     const thousandths = fc.integer({ min: -1e9, max: 1e9 }).map((n) => n / 1000);
+    const reach = reachCounter("sign and order");
     fc.assert(
       fc.property(thousandths, thousandths, (a, b) => {
+        reach.generated();
         fc.pre(a < b);
+        reach.reached("an ordered pair");
         expect(inToCm(a)).toBeLessThan(inToCm(b));
         expect(cmToIn(a)).toBeLessThan(cmToIn(b));
         expect(Math.sign(inToMm(a))).toBe(Math.sign(a));
       }),
+      { seed: reach.seed },
     );
+    // fast-check draws again after fc.pre rejects a pair, so every run reaches the check; the
+    // share says how many draws that took.
+    reach.expectShare("an ordered pair", SHARE.ordered);
   });
 });
 
@@ -166,13 +184,16 @@ describe("parseLength", () => {
   );
 
   it("never throws on any text; an accepted length is a finite number, zero or more unless negatives are allowed", () => {
+    const reach = reachCounter("parseLength");
     fc.assert(
       fc.property(
         typed,
         fc.constantFrom("in" as const, "cm" as const),
         fc.boolean(),
         (text, unit, allowNegative) => {
+          reach.generated();
           const r = parseLength(text, unit, { allowNegative });
+          reach.reached(r.ok ? "an accepted length" : "a refusal");
           if (r.ok) {
             expect(Number.isFinite(r.inches)).toBe(true);
             expect(Object.is(r.inches, -0)).toBe(false);
@@ -182,8 +203,10 @@ describe("parseLength", () => {
           }
         },
       ),
-      { numRuns: 1000 },
+      { numRuns: 1000, seed: reach.seed },
     );
+    reach.expectShare("an accepted length", SHARE.accepted);
+    reach.expectShare("a refusal", SHARE.refused);
   });
 
   it("reads the same length in cm as 2.54 times the inches (NIST SP 811)", () => {
