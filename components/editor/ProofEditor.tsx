@@ -185,7 +185,7 @@ function EditorBody(props: Props & { store: EditorStore }) {
             {props.proof.name} <span className="measure text-sm font-medium text-ink-500" data-testid="revision-letter">rev. {revision}</span>
           </h1>
         </div>
-        <SaveIndicator status={autosave.status} editable={props.canEdit} onTakeTheirs={autosave.takeTheirs} onKeepMine={autosave.keepMine} />
+        <SaveIndicator status={autosave.status} saves={autosave.saves} retries={autosave.retries} editable={props.canEdit} onTakeTheirs={autosave.takeTheirs} onKeepMine={autosave.keepMine} />
         <div className="ml-auto flex flex-wrap items-center gap-2">
           <div className="flex rounded-lg border border-paper-300 p-0.5 text-sm" role="group" aria-label="Garment side">
             {(["front", "back"] as const).map((s) => (

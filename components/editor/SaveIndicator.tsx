@@ -2,10 +2,10 @@
 
 import type { SaveStatus } from "./useAutosave";
 
-type Props = { status: SaveStatus; editable: boolean; onTakeTheirs: () => void; onKeepMine: () => void };
+type Props = { status: SaveStatus; editable: boolean; onTakeTheirs: () => void; onKeepMine: () => void; saves?: number; retries?: number };
 
 /** Saved / saving / offline, in a few words, and the choice when someone else saved first. */
-export function SaveIndicator({ status, editable, onTakeTheirs, onKeepMine }: Props) {
+export function SaveIndicator({ status, editable, onTakeTheirs, onKeepMine, saves = 0, retries = 0 }: Props) {
   if (!editable) return <span className="rounded-full bg-paper-200 px-2.5 py-0.5 text-xs text-ink-600">View only</span>;
   if (status.kind === "conflict") {
     return (
@@ -31,7 +31,7 @@ export function SaveIndicator({ status, editable, onTakeTheirs, onKeepMine }: Pr
   const { text, tone } = look[status.kind];
   const detail = status.kind === "offline" || status.kind === "retrying" || status.kind === "refused" ? status.message : undefined;
   return (
-    <span role="status" aria-live="polite" data-testid="save-status" data-state={status.kind} title={detail} className={`rounded-full px-2.5 py-0.5 text-xs font-medium ${tone}`}>
+    <span role="status" aria-live="polite" data-testid="save-status" data-state={status.kind} data-saves={saves} data-retries={retries} title={detail} className={`rounded-full px-2.5 py-0.5 text-xs font-medium ${tone}`}>
       {text}
       {status.kind === "refused" ? `: ${status.message.replace(/^Not saved: /, "")}` : ""}
     </span>

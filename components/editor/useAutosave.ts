@@ -31,6 +31,10 @@ function pendingKey(proofId: string) {
 export function useAutosave(opts: { proofId: string; store: EditorStore; initialVersion: number; enabled: boolean; save: Saver; onSaved?: (revision: string) => void }) {
   const { proofId, store, enabled, save } = opts;
   const [status, setStatus] = useState<SaveStatus>({ kind: "saved", at: null });
+  /** Saves stored since the editor opened: a count anyone waiting for "the next save" can watch. */
+  const [saves, setSaves] = useState(0);
+  /** Failed tries that were scheduled again, likewise a count to watch. */
+  const [retries, setRetries] = useState(0);
   const version = useRef(opts.initialVersion);
   const savedDoc = useRef<ProofDoc>(store.getState().doc);
   const timer = useRef<ReturnType<typeof setTimeout> | null>(null);
@@ -68,12 +72,14 @@ export function useAutosave(opts: { proofId: string; store: EditorStore; initial
     if (!result) {
       const wait = RETRY_STEPS_MS[Math.min(attempt.current, RETRY_STEPS_MS.length - 1)]!;
       attempt.current += 1;
+      setRetries((n) => n + 1);
       setStatus({ kind: "offline", message: "Can't reach Chalkline. Your edits are kept on this device and will be saved.", retryInMs: wait });
       timer.current = setTimeout(() => void flushRef.current(), wait);
       return;
     }
     attempt.current = 0;
     if (result.ok) {
+      setSaves((n) => n + 1);
       version.current = result.version;
       onSavedRef.current?.(result.revision);
       savedDoc.current = doc;
@@ -94,6 +100,7 @@ export function useAutosave(opts: { proofId: string; store: EditorStore; initial
       // Chalkline answered but could not store the edit (its database is down): same retries.
       const wait = RETRY_STEPS_MS[Math.min(attempt.current, RETRY_STEPS_MS.length - 1)]!;
       attempt.current += 1;
+      setRetries((n) => n + 1);
       setStatus({ kind: "retrying", message: result.message, retryInMs: wait });
       timer.current = setTimeout(() => void flushRef.current(), wait);
       return;
@@ -183,5 +190,5 @@ export function useAutosave(opts: { proofId: string; store: EditorStore; initial
     void flush();
   }, [flush, status]);
 
-  return { status, takeTheirs, keepMine, flush };
+  return { status, saves, retries, takeTheirs, keepMine, flush };
 }

@@ -35,11 +35,18 @@ export async function fetchProof(page: Page, id: string): Promise<ProofJson> {
   return (await response.json()) as ProofJson;
 }
 
-/** Waits for the edit just made to be saved: the indicator leaves "saved", then comes back to it. */
+/**
+ * Waits for the edit just made to be stored: the indicator's count of stored saves goes past the
+ * count it showed when this was called (the autosave waits 700 ms before it sends, so the count
+ * read here is always from before the edit's save), and it says "saved" again.
+ */
 export async function waitSaved(page: Page, timeout = 15_000): Promise<void> {
-  await page
-    .locator("[data-testid=save-status]:not([data-state=saved])")
-    .waitFor({ timeout: 3_000 })
-    .catch(() => undefined);
-  await page.locator("[data-testid=save-status][data-state=saved]").waitFor({ timeout });
+  const status = page.locator("[data-testid=save-status]");
+  const before = Number(await status.getAttribute("data-saves"));
+  await expect
+    .poll(async () => {
+      const [saves, state] = await Promise.all([status.getAttribute("data-saves"), status.getAttribute("data-state")]);
+      return Number(saves) > before && state === "saved";
+    }, { timeout, message: `no save was stored after the edit (saves were ${before})` })
+    .toBe(true);
 }

@@ -1,6 +1,7 @@
 import type { Browser, Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { launch, newContext, signIn } from "./support";
+import { waitSaved } from "./editor-support";
 import { demoCopy, type DemoCopy } from "./demo-copy";
 import { getPool } from "@/db/client";
 
@@ -51,15 +52,6 @@ async function fetchProof(page: Page, id: string): Promise<ProofJson> {
   const response = await page.request.get(`/api/proofs/${id}`);
   expect(response.status()).toBe(200);
   return (await response.json()) as ProofJson;
-}
-
-/** Waits for the edit just made to be saved: the indicator leaves "saved", then comes back to it. */
-async function waitSaved(page: Page) {
-  await page
-    .locator("[data-testid=save-status]:not([data-state=saved])")
-    .waitFor({ timeout: 3_000 })
-    .catch(() => undefined);
-  await page.locator("[data-testid=save-status][data-state=saved]").waitFor({ timeout: 15_000 });
 }
 
 async function calibrate(page: Page, cardPx: number) {

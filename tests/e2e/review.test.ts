@@ -85,7 +85,7 @@ describe("client review", () => {
     mkdirSync(shots, { recursive: true });
     await clientPage.screenshot({ path: path.join(shots, "review-phone.png"), fullPage: true });
     await clientPage.getByRole("button", { name: "On a person" }).click();
-    await clientPage.waitForTimeout(500);
+    await clientPage.getByRole("button", { name: "On a person", pressed: true }).waitFor();
     await clientPage.locator("[data-testid=review-canvas]").screenshot({ path: path.join(shots, "review-worn.png") });
     await clientPage.getByRole("button", { name: "On a person" }).click();
 
