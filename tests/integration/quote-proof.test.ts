@@ -129,7 +129,7 @@ describe("what the proofs show, from the database", () => {
 
   it("another shop's id reads nothing", async () => {
     const r = await fresh();
-    const [demo] = await db.select({ id: shops.id }).from(shops).where(eq(shops.slug, "quarry-street"));
+    const [demo] = await db.select({ id: shops.id }).from(shops).where(eq(shops.slug, "quarry-street-print-co"));
     expect(await listProofPrints({ shopId: demo!.id, jobId: r.jobId })).toEqual({ proofs: [], artColours: {} });
   });
 });
