@@ -126,8 +126,10 @@ export function getAuthOptions(): NextAuthOptions {
       },
     },
     events: {
+      // By now an e-mail sign-in has set emailVerified (the adapter does, before this event); the
+      // contacts filed under a proven address are linked, and nobody else's.
       async signIn({ user }) {
-        if (user.id && user.email) await linkContactsToUser({ userId: user.id, email: user.email });
+        if (user.id) await linkContactsToUser({ userId: user.id });
       },
     },
   };
