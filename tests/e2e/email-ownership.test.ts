@@ -5,6 +5,7 @@
  * of a shop's invitation cannot be handed the invitation by its real recipient. The genuine
  * sign-up still ends in the shop, through the e-mailed link.
  */
+import AxeBuilder from "@axe-core/playwright";
 import { randomBytes } from "node:crypto";
 import { readFileSync } from "node:fs";
 import path from "node:path";
@@ -53,6 +54,12 @@ async function signUp(page: Page, shopName: string, email: string) {
   await page.getByLabel("Password").fill(PASSWORD);
   await page.getByRole("button", { name: "Create shop" }).click();
   await page.waitForURL((url) => !url.pathname.startsWith("/sign-up"));
+}
+
+/** Serious or critical accessibility findings on the page as it is. */
+async function axeFindings(page: Page): Promise<string[]> {
+  const axe = await new AxeBuilder({ page }).withTags(["wcag2a", "wcag2aa", "wcag21a", "wcag21aa"]).analyze();
+  return axe.violations.filter((v) => v.impact === "serious" || v.impact === "critical").map((v) => `${v.id}: ${v.help}`);
 }
 
 async function cookieHeader(c: BrowserContext): Promise<string> {
@@ -177,6 +184,7 @@ describe("e-mail ownership before access", () => {
     await recipient.goto(`/invite/${token}`);
     await recipient.getByRole("link", { name: `Sign in as ${squatted}` }).waitFor();
     expect(await recipient.getByRole("button", { name: "Accept and join" }).count()).toBe(0);
+    expect(await axeFindings(recipient)).toEqual([]);
     // And the pre-registered password still signs nobody in.
     expect((await tryPasswordSignIn(squatted, PASSWORD)).sessionEmail).toBeNull();
     expect(await membershipsOf(squatted)).toEqual([]);
@@ -190,7 +198,11 @@ describe("e-mail ownership before access", () => {
     const page = await owner.newPage();
     await signUp(page, shopName, email);
     await page.getByText(`We sent a link to ${email}.`).waitFor();
-    await openSignUpLink(page, email, since);
+    await page.locator('[data-hydrated="true"]').getByRole("button", { name: "Send the link again" }).waitFor();
+    expect(await axeFindings(page)).toEqual([]);
+    const mail = await openSignUpLink(page, email, since);
+    // The mail says what opening it confirms: the shop started with the address.
+    expect(mail.text).toContain(`The shop “${shopName}” was started on Chalkline`);
     await page.waitForURL(/\/shops\/tide-table-screens/);
     await page.getByRole("navigation", { name: "Main" }).getByRole("link", { name: "Jobs" }).waitFor();
     expect((await findUserByEmail({ email }))!.emailVerified).toBeInstanceOf(Date);

@@ -84,11 +84,12 @@ export async function signInOverHttp(email: string, password: string): Promise<s
  * After the sign-up form: the "check your e-mail" page, then the link e-mailed to the new address,
  * opened in the same browser. Resolves once the link has signed in and opened the new shop.
  */
-export async function openSignUpLink(page: Page, email: string, since: number): Promise<void> {
+export async function openSignUpLink(page: Page, email: string, since: number): Promise<CaughtMail> {
   await page.waitForURL(/\/sign-in\/check-email/);
   const mail = await waitForMail(email, /confirm your e-mail/i, since);
   await page.goto(firstLink(mail.text, "/api/auth/callback/email"));
   await page.waitForURL(/\/shops\/[^/]+/);
+  return mail;
 }
 
 export type CaughtMail = { id: string; to: string[]; subject: string; text: string; html: string | null; date: string };
