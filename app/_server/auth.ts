@@ -8,7 +8,7 @@ import CredentialsProvider from "next-auth/providers/credentials";
 import EmailProvider from "next-auth/providers/email";
 import { z } from "zod";
 import { getDb } from "@/db/client";
-import { linkContactsToUser } from "@/db/queries/access";
+import { linkContactsToUser, listMemberships } from "@/db/queries/access";
 import { findUserByEmail, normalizeEmail } from "@/db/queries/users";
 import { accounts, sessions, users, verificationTokens } from "@/db/schema";
 import { takeToken } from "./rate-limit";
@@ -29,6 +29,55 @@ export const SIGN_IN_LIMIT_MESSAGE = "Too many sign-in attempts. Wait a minute a
 /** Takes one password attempt for this address; false once it has used them up. */
 export function takeSignInAttempt(rawEmail: string): boolean {
   return takeToken(`sign-in:${normalizeEmail(rawEmail)}`, SIGN_IN_LIMIT);
+}
+
+/**
+ * What the credentials provider answers (as next-auth's `error`) when the password is right but the
+ * account's address was never proven: the sign-in form explains it and offers to send the link again.
+ */
+export const EMAIL_UNPROVEN = "EmailUnproven";
+
+/** Links e-mailed per address: 5 at once, then one a minute (a resend button must not become a mail cannon). */
+const LINK_LIMIT = { capacity: 5, refillPerMinute: 1 };
+export const LINK_LIMIT_MESSAGE = "We have sent several links to this address just now. Wait a minute, then ask again.";
+
+/** Takes one e-mailed link for this address; false once it has used them up. */
+export function takeSignInLink(rawEmail: string): boolean {
+  return takeToken(`sign-in-link:${normalizeEmail(rawEmail)}`, LINK_LIMIT);
+}
+
+/**
+ * The e-mail with a sign-in link. For an account whose address is not proven yet, the mail says
+ * which shop was started with the address and that opening the link confirms it: whoever opens it
+ * takes on that account, so it must never read as an ordinary sign-in.
+ */
+async function signInLinkMail(identifier: string, url: string) {
+  const user = await findUserByEmail({ email: identifier });
+  if (user && !user.emailVerified) {
+    const shops = (await listMemberships({ userId: user.id })).filter((m) => m.role === "owner").map((m) => `“${m.shopName}”`);
+    const started = user.createdAt.toISOString().slice(0, 10);
+    return composeMail({
+      to: identifier,
+      subject: "Confirm your e-mail address for Chalkline",
+      heading: "Is this your address?",
+      paragraphs: [
+        shops.length
+          ? `The shop ${shops.join(", ")} was started on Chalkline on ${started} with this e-mail address.`
+          : `A Chalkline account was made with this e-mail address on ${started}.`,
+        "Open the link below to confirm the address is yours and sign in. The link works once and expires in 30 minutes.",
+      ],
+      action: { label: "Confirm and sign in", url },
+      footnote: "If you did not start this, do not open the link: the account cannot be used until the address is confirmed.",
+    });
+  }
+  return composeMail({
+    to: identifier,
+    subject: "Your Chalkline sign-in link",
+    heading: "Sign in to Chalkline",
+    paragraphs: ["Use the button below to sign in. The link works once and expires in 30 minutes."],
+    action: { label: "Sign in", url },
+    footnote: "If you did not ask for this, you can ignore this e-mail.",
+  });
 }
 
 let options: NextAuthOptions | undefined;
@@ -83,6 +132,9 @@ export function getAuthOptions(): NextAuthOptions {
           if (!user?.passwordHash) return null;
           const ok = await bcrypt.compare(parsed.data.password, user.passwordHash);
           if (!ok) return null;
+          // A password chosen at sign-up counts only once the address is proven by the e-mailed link;
+          // said only to someone who knows the password, so it tells a stranger nothing.
+          if (!user.emailVerified) throw new Error(EMAIL_UNPROVEN);
           return { id: user.id, email: user.email, name: user.name };
         },
       }),
@@ -92,16 +144,7 @@ export function getAuthOptions(): NextAuthOptions {
         server: process.env.SMTP_URL ?? { host: "127.0.0.1", port: Number(process.env.MAIL_FAKE_SMTP_PORT ?? 25) },
         maxAge: 30 * 60,
         async sendVerificationRequest({ identifier, url }) {
-          await sendMail(
-            composeMail({
-              to: identifier,
-              subject: "Your Chalkline sign-in link",
-              heading: "Sign in to Chalkline",
-              paragraphs: ["Use the button below to sign in. The link works once and expires in 30 minutes."],
-              action: { label: "Sign in", url },
-              footnote: "If you did not ask for this, you can ignore this e-mail.",
-            }),
-          );
+          await sendMail(await signInLinkMail(identifier, url));
         },
       }),
     ],
@@ -126,8 +169,10 @@ export function getAuthOptions(): NextAuthOptions {
       },
     },
     events: {
+      // By now an e-mail sign-in has set emailVerified (the adapter does, before this event); the
+      // contacts filed under a proven address are linked, and nobody else's.
       async signIn({ user }) {
-        if (user.id && user.email) await linkContactsToUser({ userId: user.id, email: user.email });
+        if (user.id) await linkContactsToUser({ userId: user.id });
       },
     },
   };

@@ -1,7 +1,7 @@
 import "server-only";
 import { and, eq } from "drizzle-orm";
 import { db } from "../client";
-import { clientContacts, clients, memberships, shops } from "../schema";
+import { clientContacts, clients, memberships, shops, users } from "../schema";
 
 export type ActorMembership = { shopId: string; shopSlug: string; shopName: string; role: "owner" | "designer" | "production" };
 export type ActorContact = { contactId: string; clientId: string; clientName: string; shopId: string; shopSlug: string; shopName: string };
@@ -31,9 +31,16 @@ export async function listClientContacts({ userId }: { userId: string }): Promis
     .where(and(eq(clientContacts.userId, userId), eq(clients.archived, false)));
 }
 
-/** Links client contacts with this e-mail to the user, so a contact who signs in sees their jobs. */
-export async function linkContactsToUser({ userId, email }: { userId: string; email: string }): Promise<void> {
-  await db.update(clientContacts).set({ userId }).where(eq(clientContacts.email, email.trim().toLowerCase()));
+/**
+ * Links the client contacts filed under the user's e-mail to the user, so a contact who signs in
+ * sees their jobs. Only once the address is proven (e-mailVerified set): an account someone made
+ * with an address they never opened a link at gets nobody's jobs. Reads the address from the
+ * account itself, never from the caller.
+ */
+export async function linkContactsToUser({ userId }: { userId: string }): Promise<void> {
+  const [user] = await db.select({ email: users.email, emailVerified: users.emailVerified }).from(users).where(eq(users.id, userId)).limit(1);
+  if (!user?.emailVerified) return;
+  await db.update(clientContacts).set({ userId }).where(eq(clientContacts.email, user.email));
 }
 
 export async function findShopBySlug({ slug }: { slug: string }) {

@@ -1,5 +1,5 @@
 import "server-only";
-import { and, asc, count, eq, inArray, notInArray } from "drizzle-orm";
+import { and, asc, count, eq, inArray, isNotNull, notInArray } from "drizzle-orm";
 import { db } from "../client";
 import { clientContacts, clients, jobs, users } from "../schema";
 import { recordAudit } from "./audit";
@@ -48,16 +48,26 @@ export type ClientInput = {
   contacts: Array<{ id?: string; name: string; email: string; phone: string | null }>;
 };
 
-async function userIdsByEmail(emails: string[]): Promise<Map<string, string>> {
+type Tx = Parameters<Parameters<typeof db.transaction>[0]>[0];
+
+/**
+ * The accounts these addresses prove to be theirs: only accounts whose owner opened a link sent to
+ * the address (emailVerified set). Anyone may make an account with any address; until it is
+ * proven, a contact filed under it is linked to nobody.
+ */
+async function provenAccountsByEmail(tx: Tx, emails: string[]): Promise<Map<string, string>> {
   if (emails.length === 0) return new Map();
-  const rows = await db.select({ id: users.id, email: users.email }).from(users).where(inArray(users.email, emails));
+  const rows = await tx
+    .select({ id: users.id, email: users.email })
+    .from(users)
+    .where(and(inArray(users.email, emails), isNotNull(users.emailVerified)));
   return new Map(rows.map((r) => [r.email, r.id]));
 }
 
-/** Creates a client with its contacts in one go. Contacts whose e-mail already has an account are linked to it. */
+/** Creates a client with its contacts in one go. Contacts whose e-mail has a proven account are linked to it. */
 export async function createClient({ shopId, actorUserId, input }: { shopId: string; actorUserId: string; input: ClientInput }) {
-  const accounts = await userIdsByEmail(input.contacts.map((c) => c.email));
   return db.transaction(async (tx) => {
+    const accounts = await provenAccountsByEmail(tx, input.contacts.map((c) => c.email));
     const [client] = await tx.insert(clients).values({ shopId, name: input.name, notes: input.notes, taxExempt: input.taxExempt }).returning();
     if (input.contacts.length) {
       await tx.insert(clientContacts).values(input.contacts.map((c) => ({ clientId: client!.id, name: c.name, email: c.email, phone: c.phone, userId: accounts.get(c.email) ?? null })));
@@ -69,11 +79,12 @@ export async function createClient({ shopId, actorUserId, input }: { shopId: str
 
 /**
  * Saves a client and its contact list: listed contacts are updated or added, contacts left out are
- * removed. All or nothing.
+ * removed. All or nothing. Each contact is linked to the proven account of its (new) address, or to
+ * nobody: a contact whose address changes stops showing the old address's account its jobs.
  */
 export async function updateClient({ shopId, clientId, actorUserId, input }: { shopId: string; clientId: string; actorUserId: string; input: ClientInput }) {
-  const accounts = await userIdsByEmail(input.contacts.map((c) => c.email));
   return db.transaction(async (tx) => {
+    const accounts = await provenAccountsByEmail(tx, input.contacts.map((c) => c.email));
     const [client] = await tx
       .update(clients)
       .set({ name: input.name, notes: input.notes, taxExempt: input.taxExempt })
@@ -88,11 +99,10 @@ export async function updateClient({ shopId, clientId, actorUserId, input }: { s
       if (c.id) {
         const [updated] = await tx
           .update(clientContacts)
-          .set({ name: c.name, email: c.email, phone: c.phone })
+          .set({ name: c.name, email: c.email, phone: c.phone, userId: accounts.get(c.email) ?? null })
           .where(and(eq(clientContacts.id, c.id), eq(clientContacts.clientId, clientId)))
-          .returning({ id: clientContacts.id, userId: clientContacts.userId });
+          .returning({ id: clientContacts.id });
         if (!updated) throw new ContactMissingError();
-        if (!updated.userId && accounts.has(c.email)) await tx.update(clientContacts).set({ userId: accounts.get(c.email)! }).where(eq(clientContacts.id, c.id));
       } else {
         await tx.insert(clientContacts).values({ clientId, name: c.name, email: c.email, phone: c.phone, userId: accounts.get(c.email) ?? null });
       }

@@ -3,7 +3,7 @@ import { createHash, randomBytes } from "node:crypto";
 import { and, count, eq, gt, inArray, isNull } from "drizzle-orm";
 import { can, keepsAnOwner, type ShopRole } from "@/lib/access";
 import { db } from "../client";
-import { clients, invitations, jobs, memberships, shops, users } from "../schema";
+import { clientContacts, clients, invitations, jobs, memberships, shops, users } from "../schema";
 import { recordAudit } from "./audit";
 import { normalizeEmail } from "./users";
 
@@ -37,7 +37,11 @@ export class EmailTakenError extends Error {
   }
 }
 
-/** Sign-up: a new user and a new shop, with the user as its owner, in one transaction. */
+/**
+ * Sign-up: a new user and a new shop, with the user as its owner, in one transaction. The address
+ * is not proven yet (emailVerified stays empty): the account cannot sign in with its password, nor
+ * gets any contact's jobs, until its owner opens the link e-mailed to it.
+ */
 export async function createShopWithOwner(input: {
   shopName: string;
   name: string;
@@ -138,12 +142,23 @@ export async function findInvitation({ token }: { token: string }) {
   return row;
 }
 
-/** Accepts an invitation: creates the user when needed and adds the membership. */
+export type AcceptInvitationResult =
+  | { ok: true; shopSlug: string; email: string }
+  | { ok: false; message: string; reason?: "sign-in-as-invitee" };
+
+/**
+ * Accepts an invitation. When no account has the invited address yet, makes one with the name and
+ * password given: the token came by e-mail to that address, so the address is proven, and the
+ * client contacts filed under it are linked to the new account. When an account has it, only that
+ * account, signed in (`signedInUserId`), may accept: the token alone does not show that whoever
+ * holds it controls the account, which may have been made by someone else before the invitation.
+ */
 export async function acceptInvitation(input: {
   token: string;
   name?: string;
   passwordHash?: string;
-}): Promise<{ ok: true; shopSlug: string; email: string } | { ok: false; message: string }> {
+  signedInUserId?: string | null;
+}): Promise<AcceptInvitationResult> {
   const invite = await findInvitation({ token: input.token });
   if (!invite) return { ok: false, message: "This invitation link is not valid." };
   if (invite.acceptedAt) return { ok: false, message: "This invitation has already been used." };
@@ -159,12 +174,16 @@ export async function acceptInvitation(input: {
       .for("update");
     if (!open) return { ok: false as const, message: "This invitation can no longer be used. Ask the shop owner for a new one." };
     let [user] = await tx.select({ id: users.id }).from(users).where(eq(users.email, invite.email)).limit(1);
+    if (user && user.id !== input.signedInUserId) {
+      return { ok: false as const, reason: "sign-in-as-invitee" as const, message: signInAsInviteeMessage(invite.email) };
+    }
     if (!user) {
       if (!input.passwordHash || !input.name) return { ok: false as const, message: "Choose a name and a password to join." };
       [user] = await tx
         .insert(users)
         .values({ email: invite.email, name: input.name, passwordHash: input.passwordHash, emailVerified: new Date() })
         .returning({ id: users.id });
+      await tx.update(clientContacts).set({ userId: user!.id }).where(eq(clientContacts.email, invite.email));
     }
     // Someone already on the team takes the invitation's role, unless that would leave no owner.
     const [current] = await tx
@@ -186,6 +205,10 @@ export async function acceptInvitation(input: {
     );
     return { ok: true as const, shopSlug: invite.shopSlug, email: invite.email };
   });
+}
+
+export function signInAsInviteeMessage(email: string): string {
+  return `An account for ${email} already exists. Sign in as ${email} first, then accept the invitation.`;
 }
 
 type Tx = Parameters<Parameters<typeof db.transaction>[0]>[0];

@@ -15,6 +15,7 @@ import { createExport, markExport } from "@/db/queries/production";
 import { getProofDocument } from "@/db/queries/proofs";
 import { addComment, createShareLink, revokeShareLink, sendRevision } from "@/db/queries/review";
 import { acceptInvitation, createInvitation, createShopWithOwner } from "@/db/queries/shops";
+import { markEmailVerified } from "@/db/queries/users";
 import { artworks, clients, memberships, placements, proofs, shops, users } from "@/db/schema";
 import type { ShopRole } from "@/lib/access";
 import { DEFAULT_PRICE_MATRIX, formatCents } from "@/lib/pricing";
@@ -250,6 +251,8 @@ export async function buildAuthzFixture(): Promise<AuthzFixture> {
   const otherPassword = `matrix-${tag}-password`;
   const otherEmail = `matrix-owner-${tag}@other-shop.test`;
   const { userId: otherOwnerId, shopSlug: otherSlug } = await createShopWithOwner({ shopName: `Matrix Mill Prints ${tag}`, name: "Odile Marsh", email: otherEmail, passwordHash: await bcrypt.hash(otherPassword, 10) });
+  // Signed up and opened the e-mailed link, so the password works.
+  await markEmailVerified({ userId: otherOwnerId });
   const [otherShop] = await db.select({ id: shops.id, slug: shops.slug }).from(shops).where(eq(shops.slug, otherSlug));
   const their = await buildShopRecords({ shopId: otherShop!.id, ownerId: otherOwnerId, tag });
   const ids = {

@@ -266,6 +266,7 @@ export const ACTION_ROWS: ActionRow[] = [
   //     id                             file          export                       owner designer production client link other anon
   action("sign-up",                     A.signUp,     "signUpAction",              "ok ok ok ok ok ok ok", { open: true, note: "anyone may start a shop" }),
   action("accept-invitation",           A.invite,     "acceptInvitationAction",    "ok ok ok ok ok ok ok", { open: true, note: "the token is the credential; each actor gets a fresh one" }),
+  action("accept-invitation/taken",     A.invite,     "acceptInvitationAction",    "403 403 403 403 401 403 401", { note: "an account already has the invited address: only that account, signed in, may accept" }),
   action("replace-art/ours",            A.art,        "replaceArtworkAction",      "ok ok 403 403 401 404 401"),
   action("replace-art/their-slug",      A.art,        "replaceArtworkAction",      "404 404 404 404 401 404 401"),
   action("replace-art/their-ids",       A.art,        "replaceArtworkAction",      "404 404 403 403 401 404 401"),

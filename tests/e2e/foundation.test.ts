@@ -1,6 +1,6 @@
 import type { Browser } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { BASE_URL, DEMO_PASSWORD, DEMO_SHOP, firstLink, launch, newContext, signIn, waitForMail } from "./support";
+import { BASE_URL, DEMO_PASSWORD, DEMO_SHOP, firstLink, launch, newContext, openSignUpLink, signIn, waitForMail } from "./support";
 
 let browser: Browser;
 beforeAll(async () => {
@@ -59,12 +59,14 @@ describe("sign-in and navigation by role", () => {
     const other = await newContext(browser);
     const otherPage = await other.newPage();
     const email = `owner-${Date.now()}@other-shop.test`;
+    const since = Date.now() - 1000;
     await otherPage.goto("/sign-up");
     await otherPage.getByLabel("Shop name").fill("Gravel Road Tees");
     await otherPage.getByLabel("Your name").fill("Ada Fenwick");
     await otherPage.getByLabel("E-mail").fill(email);
     await otherPage.getByLabel("Password").fill("a-long-enough-password");
     await otherPage.getByRole("button", { name: "Create shop" }).click();
+    await openSignUpLink(otherPage, email, since);
     await otherPage.waitForURL(/\/shops\/gravel-road-tees/);
     expect((await otherPage.goto(`/shops/${DEMO_SHOP}`))?.status()).toBe(404);
     expect((await otherPage.goto(`/shops/${DEMO_SHOP}/settings`))?.status()).toBe(404);

@@ -9,7 +9,7 @@ import path from "node:path";
 import type { Browser, BrowserContext, Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { formatCents } from "@/lib/pricing";
-import { BASE_URL, firstLink, launch, newContext, waitForMail } from "./support";
+import { BASE_URL, firstLink, launch, newContext, openSignUpLink, waitForMail } from "./support";
 
 let browser: Browser;
 const contexts: BrowserContext[] = [];
@@ -90,12 +90,14 @@ describe("the whole job from an empty shop", () => {
     const owner = await shop.newPage();
 
     // --- Sign-up: a new shop with nobody and nothing in it.
+    // The address is proven by the link e-mailed to it; opening it signs in and opens the shop.
     await owner.goto("/sign-up");
     await owner.getByLabel("Shop name").fill(`Tidewater Transfers ${tag}`);
     await owner.getByLabel("Your name").fill("Noor Halvorsen");
     await owner.getByLabel("E-mail").fill(`owner-${tag}@journey.test`);
     await owner.getByLabel("Password").fill(PASSWORD);
     await owner.getByRole("button", { name: "Create shop" }).click();
+    await openSignUpLink(owner, `owner-${tag}@journey.test`, since);
     await owner.waitForURL(/\/shops\/tidewater-transfers/);
     const slug = new URL(owner.url()).pathname.split("/")[2]!;
 

@@ -14,6 +14,7 @@ import { findQuote, sendQuote } from "@/db/queries/orders";
 import { getProofDocument } from "@/db/queries/proofs";
 import { recordDecision, sendRevision } from "@/db/queries/review";
 import { createShopWithOwner } from "@/db/queries/shops";
+import { markEmailVerified } from "@/db/queries/users";
 import { auditLog, payments, placements, proofs, shops } from "@/db/schema";
 import { DEFAULT_PRICE_MATRIX } from "@/lib/pricing";
 import { quoteJob } from "@/lib/quotes";
@@ -35,6 +36,8 @@ async function post(path: string, body: unknown, ip: string) {
 
 beforeAll(async () => {
   const created = await createShopWithOwner({ shopName: `Ridge Quote Prints ${tag}`, name: "Odile Marsh", email, passwordHash: await bcrypt.hash(password, 10) });
+  // Signed up and opened the e-mailed link, so the password works.
+  await markEmailVerified({ userId: created.userId });
   const [row] = await db.select({ id: shops.id, slug: shops.slug }).from(shops).where(eq(shops.slug, created.shopSlug));
   shop = row!;
   ownerId = created.userId;

@@ -49,8 +49,14 @@ function absorb(jar: Map<string, string>, response: Response) {
 }
 const header = (jar: Map<string, string>) => [...jar].map(([k, v]) => `${k}=${v}`).join("; ");
 
-/** The credentials sign-in a browser form makes: CSRF token, then the callback; returns the session cookies. */
-export async function signInOverHttp(email: string, password: string): Promise<string> {
+export type PasswordAttempt = { cookie: string; status: number; error: string | null; sessionEmail: string | null };
+
+/**
+ * The credentials sign-in a browser form makes: CSRF token, then the callback. Says what came of it:
+ * the cookies, next-auth's `error` (as its client reads it from the url it answers), and whose
+ * session the cookies now carry, if anyone's.
+ */
+export async function tryPasswordSignIn(email: string, password: string): Promise<PasswordAttempt> {
   const jar = new Map<string, string>();
   const csrf = await fetch(`${BASE_URL}/api/auth/csrf`);
   absorb(jar, csrf);
@@ -62,10 +68,30 @@ export async function signInOverHttp(email: string, password: string): Promise<s
     body: new URLSearchParams({ csrfToken, email, password, callbackUrl: `${BASE_URL}/home`, json: "true" }),
   });
   absorb(jar, callback);
+  const answer = (await callback.json().catch(() => null)) as { url?: string } | null;
+  const error = answer?.url ? new URL(answer.url, BASE_URL).searchParams.get("error") : null;
   const cookie = header(jar);
   const session = (await (await fetch(`${BASE_URL}/api/auth/session`, { headers: { cookie } })).json()) as { user?: { email?: string } };
-  if (session.user?.email !== email) throw new Error(`signing in ${email} did not make a session (callback answered ${callback.status})`);
-  return cookie;
+  return { cookie, status: callback.status, error, sessionEmail: session.user?.email ?? null };
+}
+
+/** The credentials sign-in a browser form makes; returns the session cookies, or throws when no session came of it. */
+export async function signInOverHttp(email: string, password: string): Promise<string> {
+  const attempt = await tryPasswordSignIn(email, password);
+  if (attempt.sessionEmail !== email) throw new Error(`signing in ${email} did not make a session (callback answered ${attempt.status}, error ${attempt.error})`);
+  return attempt.cookie;
+}
+
+/**
+ * After the sign-up form: the "check your e-mail" page, then the link e-mailed to the new address,
+ * opened in the same browser. Resolves once the link has signed in and opened the new shop.
+ */
+export async function openSignUpLink(page: Page, email: string, since: number): Promise<CaughtMail> {
+  await page.waitForURL(/\/sign-in\/check-email/);
+  const mail = await waitForMail(email, /confirm your e-mail/i, since);
+  await page.goto(firstLink(mail.text, "/api/auth/callback/email"));
+  await page.waitForURL(/\/shops\/[^/]+/);
+  return mail;
 }
 
 export type CaughtMail = { id: string; to: string[]; subject: string; text: string; html: string | null; date: string };

@@ -14,7 +14,7 @@ import { createClient, findClient } from "@/db/queries/clients";
 import { createExport, markExport } from "@/db/queries/production";
 import { getProofDocument } from "@/db/queries/proofs";
 import { createShareLink } from "@/db/queries/review";
-import { createInvitation } from "@/db/queries/shops";
+import { createInvitation, createShopWithOwner } from "@/db/queries/shops";
 import { invitations, memberships, proofs, shops } from "@/db/schema";
 import { DEFAULT_PRICE_MATRIX } from "@/lib/pricing";
 import { ACTION_ROWS, ACTORS, outcomeLabel, type Actor, type ActionOutcome, type ActionRow } from "@/tests/authz/matrix";
@@ -49,6 +49,8 @@ type PerActor = {
   failedExport: string;
   linkId: string;
   inviteToken: string;
+  /** An invitation to an address someone signed up with (never proven) before the shop invited it. */
+  takenInviteToken: string;
   /** Members and an open invitation the fixtures add to our shop for the team rows; demo members are never changed. */
   roleMemberId: string;
   removeMemberId: string;
@@ -90,6 +92,7 @@ async function clientForm(clientId: string, notes: string) {
 const INPUTS: Record<string, Input> = {
   "sign-up": ({ unique }) => ({ shopName: `Matrix Signup ${unique}`, name: "Sol Reyes", email: `signup-${unique}@example.test`, password: "a-long-enough-password" }),
   "accept-invitation": ({ mine }) => ({ token: mine.inviteToken, name: "Nia Ferro", password: "a-long-enough-password" }),
+  "accept-invitation/taken": ({ mine }) => ({ token: mine.takenInviteToken, name: "Nia Ferro", password: "a-long-enough-password" }),
 
   "replace-art/ours": ({ f, mine }) => ({ shopSlug: f.shop.slug, oldId: mine.oldArt, newId: mine.newArt }),
   "replace-art/their-slug": ({ f, mine }) => ({ shopSlug: f.other.slug, oldId: mine.oldArt, newId: mine.newArt }),
@@ -223,13 +226,16 @@ beforeAll(async () => {
     const { link } = await createShareLink({ shopId: f.shop.id, proofId: f.ids.proofId, permission: "comment", expiresAt: null, recipientEmail: null, recipientName: null, createdBy: f.users.designer.id });
     // Invitations to the second shop: whoever accepts them, the demo shop's team stays as it is.
     const { token } = await createInvitation({ shopId: f.other.id, email: `joiner-${f.tag}-${actor}@example.test`, role: "production", invitedBy: f.users.other.id });
+    const takenEmail = `taken-${f.tag}-${actor}@example.test`;
+    await createShopWithOwner({ shopName: `Matrix Squat ${f.tag} ${actor}`, name: "Matrix squatter", email: takenEmail, passwordHash: "not-used" });
+    const { token: takenInviteToken } = await createInvitation({ shopId: f.other.id, email: takenEmail, role: "production", invitedBy: f.users.other.id });
     const draftProofId = await insertProof(f.shop.id, f.ids.siblingJobId, `Matrix spare draft ${f.tag} ${actor}`, oldArt, f.users.designer.id);
     // Team rows: people of our own in our shop (the owner's allowed calls change them, nobody else's).
     const crew = (role: string) => ({ shopId: f.shop.id, ownerId: f.users.owner.id, email: `matrix-${role}-${f.tag}-${actor}@example.test`, name: `Matrix ${role} ${actor}`, role: "production" as const });
     const roleMember = await addTeamMember(crew("recast"));
     const removeMember = await addTeamMember(crew("leaver"));
     const { invitationId } = await createInvitation({ shopId: f.shop.id, email: `matrix-pending-${f.tag}-${actor}@example.test`, role: "designer", invitedBy: f.users.owner.id });
-    perActor[actor] = { oldArt, newArt, failedExport, linkId: link.id, inviteToken: token, roleMemberId: roleMember.memberId, removeMemberId: removeMember.memberId, invitationId, draftProofId };
+    perActor[actor] = { oldArt, newArt, failedExport, linkId: link.id, inviteToken: token, takenInviteToken, roleMemberId: roleMember.memberId, removeMemberId: removeMember.memberId, invitationId, draftProofId };
   }
   otherMemberId = (await addTeamMember({ shopId: f.other.id, ownerId: f.users.other.id, email: `matrix-their-crew-${f.tag}@example.test`, name: "Matrix their crew", role: "designer" })).memberId;
   otherInvitationId = (await createInvitation({ shopId: f.other.id, email: `matrix-their-pending-${f.tag}@example.test`, role: "designer", invitedBy: f.users.other.id })).invitationId;

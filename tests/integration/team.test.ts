@@ -224,8 +224,9 @@ describe("who may change the team", () => {
     const press = await addTeamMember({ shopId: shop.id, ownerId: shop.owner.id, email: `team-press-${unique()}@example.test`, name: "Bo Strand", role: "production" });
     const clientEmail = `team-client-${unique()}@example.test`;
     await createClient({ shopId: shop.id, actorUserId: shop.owner.id, input: { name: `Harbour Rowing ${tag}`, notes: null, taxExempt: false, contacts: [{ name: "Cato Rell", email: clientEmail, phone: null }] } });
-    const [clientUser] = await db.insert(users).values({ email: clientEmail, name: "Cato Rell" }).returning({ id: users.id });
-    await linkContactsToUser({ userId: clientUser!.id, email: clientEmail });
+    // The client proved the address (opened a link sent to it), so the contact is theirs.
+    const [clientUser] = await db.insert(users).values({ email: clientEmail, name: "Cato Rell", emailVerified: new Date() }).returning({ id: users.id });
+    await linkContactsToUser({ userId: clientUser!.id });
     const client: SessionUser = { id: clientUser!.id, email: clientEmail, name: "Cato Rell" };
     const { invitationId } = await createInvitation({ shopId: shop.id, email: `team-pending-${unique()}@example.test`, role: "designer", invitedBy: shop.owner.id });
     const ownerId = await membershipIdOf(shop, shop.owner.id);

@@ -4,27 +4,60 @@ import Link from "next/link";
 import { signIn } from "next-auth/react";
 import { useRouter } from "next/navigation";
 import { useState, type FormEvent } from "react";
+import { checkEmailPath } from "@/lib/sign-in-paths";
 
-type Props = { callbackUrl?: string; initialError?: string; signedOut?: boolean };
+type Props = { callbackUrl?: string; initialError?: string; initialEmail?: string; signedOut?: boolean };
 
-export function SignInForm({ callbackUrl, initialError, signedOut }: Props) {
+/** What sending a link can answer, in words: a sentence from the server (the rate limit) is shown as it is. */
+function linkError(code: string | null | undefined): string {
+  if (code === "NoAccount") return "There is no Chalkline account for that e-mail. Ask your shop for an invitation, or start a shop.";
+  if (code && code.includes(" ")) return code;
+  return "We could not send a link to that address. Check it, or use your password.";
+}
+
+export function SignInForm({ callbackUrl, initialError, initialEmail, signedOut }: Props) {
   const router = useRouter();
   const [mode, setMode] = useState<"password" | "link">("password");
   const [error, setError] = useState<string | undefined>(initialError);
+  /** The address whose password was right but which was never proven: offered a new link. */
+  const [unproven, setUnproven] = useState<string>();
   const [busy, setBusy] = useState(false);
+  const returnTo = callbackUrl ?? "/home";
+
+  async function sendLink(email: string) {
+    setBusy(true);
+    setError(undefined);
+    const result = await signIn("email", { email, callbackUrl: returnTo, redirect: false });
+    setBusy(false);
+    if (!result || result.error) {
+      setError(linkError(result?.error));
+      return;
+    }
+    if (result.url && result.url.includes("error=")) {
+      setError(linkError(new URL(result.url, window.location.origin).searchParams.get("error")));
+      return;
+    }
+    router.push(checkEmailPath(email, returnTo));
+  }
 
   async function submitPassword(event: FormEvent<HTMLFormElement>) {
     event.preventDefault();
     const form = new FormData(event.currentTarget);
+    const email = String(form.get("email") ?? "").trim();
     setBusy(true);
     setError(undefined);
+    setUnproven(undefined);
     const result = await signIn("credentials", {
-      email: String(form.get("email") ?? ""),
+      email,
       password: String(form.get("password") ?? ""),
       redirect: false,
     });
     setBusy(false);
     if (!result || result.error) {
+      if (result?.error === "EmailUnproven") {
+        setUnproven(email);
+        return;
+      }
       setError(
         result?.error && result.error !== "CredentialsSignin"
           ? result.error
@@ -32,35 +65,14 @@ export function SignInForm({ callbackUrl, initialError, signedOut }: Props) {
       );
       return;
     }
-    router.replace(callbackUrl ?? "/home");
+    router.replace(returnTo);
     router.refresh();
   }
 
   async function submitLink(event: FormEvent<HTMLFormElement>) {
     event.preventDefault();
     const form = new FormData(event.currentTarget);
-    setBusy(true);
-    setError(undefined);
-    const result = await signIn("email", {
-      email: String(form.get("email") ?? ""),
-      callbackUrl: callbackUrl ?? "/home",
-      redirect: false,
-    });
-    setBusy(false);
-    if (!result || result.error) {
-      setError("We could not send a link to that address. Check it, or use your password.");
-      return;
-    }
-    if (result.url && result.url.includes("error=")) {
-      const code = new URL(result.url, window.location.origin).searchParams.get("error");
-      setError(
-        code === "NoAccount"
-          ? "There is no Chalkline account for that e-mail. Ask your shop for an invitation, or start a shop."
-          : "We could not send a link to that address.",
-      );
-      return;
-    }
-    router.push("/sign-in/check-email");
+    await sendLink(String(form.get("email") ?? "").trim());
   }
 
   return (
@@ -88,6 +100,7 @@ export function SignInForm({ callbackUrl, initialError, signedOut }: Props) {
             onClick={() => {
               setMode(key);
               setError(undefined);
+              setUnproven(undefined);
             }}
             className={`rounded-md px-3 py-1.5 font-medium ${mode === key ? "bg-chalk text-ink-900 shadow-card" : "text-ink-600"}`}
           >
@@ -102,13 +115,25 @@ export function SignInForm({ callbackUrl, initialError, signedOut }: Props) {
         </p>
       ) : null}
 
+      {unproven ? (
+        <div role="alert" className="mt-4 rounded-lg border border-brick-300 bg-brick-100 px-3 py-2 text-sm text-brick-800">
+          <p>
+            Open the link we e-mailed to <strong>{unproven}</strong> first: it proves the address is yours. After that, your password
+            works here.
+          </p>
+          <button type="button" className="btn-quiet mt-2" disabled={busy} onClick={() => void sendLink(unproven)}>
+            {busy ? "Sending…" : "Send the link again"}
+          </button>
+        </div>
+      ) : null}
+
       {mode === "password" ? (
         <form onSubmit={submitPassword} className="mt-5 space-y-4" noValidate>
           <div>
             <label htmlFor="email" className="field-label">
               E-mail
             </label>
-            <input id="email" name="email" type="email" autoComplete="email" required className="field-input" />
+            <input id="email" name="email" type="email" autoComplete="email" required defaultValue={initialEmail} className="field-input" />
           </div>
           <div>
             <label htmlFor="password" className="field-label">
@@ -126,7 +151,7 @@ export function SignInForm({ callbackUrl, initialError, signedOut }: Props) {
             <label htmlFor="link-email" className="field-label">
               E-mail
             </label>
-            <input id="link-email" name="email" type="email" autoComplete="email" required className="field-input" />
+            <input id="link-email" name="email" type="email" autoComplete="email" required defaultValue={initialEmail} className="field-input" />
             <p className="mt-1 text-xs text-ink-500">We send a one-time link that signs you in. No password needed.</p>
           </div>
           <button type="submit" className="btn-primary w-full" disabled={busy}>

@@ -7,6 +7,7 @@ import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { useForm } from "react-hook-form";
 import { z } from "zod";
+import { checkEmailPath } from "@/lib/sign-in-paths";
 import { signUpAction } from "./actions";
 
 const schema = z.object({
@@ -37,9 +38,12 @@ export function SignUpForm() {
       }
       return;
     }
-    const signedIn = await signIn("credentials", { email: values.email, password: values.password, redirect: false });
-    router.replace(signedIn?.ok ? `/shops/${result.data.shopSlug}` : "/sign-in");
-    router.refresh();
+    // The password works once the address is proven: the e-mailed link does that, signs in and opens the shop.
+    const shopPath = `/shops/${result.data.shopSlug}`;
+    const email = values.email.trim().toLowerCase();
+    const sent = await signIn("email", { email, callbackUrl: shopPath, redirect: false }).catch(() => undefined);
+    const failed = !sent || Boolean(sent.error) || Boolean(sent.url?.includes("error="));
+    router.replace(checkEmailPath(email, shopPath, failed));
   });
 
   const field = (name: keyof Values, label: string, type = "text", autoComplete?: string) => (
@@ -67,7 +71,9 @@ export function SignUpForm() {
   return (
     <div className="card p-6 sm:p-8">
       <h1 className="text-2xl">Start a shop</h1>
-      <p className="mt-1 text-sm text-ink-600">You will be its owner, and can invite your team after.</p>
+      <p className="mt-1 text-sm text-ink-600">
+        You will be its owner, and can invite your team after. We e-mail you a link to confirm the address before the shop opens.
+      </p>
       {error ? (
         <p role="alert" className="mt-4 rounded-lg border border-brick-300 bg-brick-100 px-3 py-2 text-sm text-brick-800">
           {error}

@@ -1,6 +1,6 @@
 "use client";
 
-import { signIn } from "next-auth/react";
+import { signIn, signOut } from "next-auth/react";
 import { useRouter } from "next/navigation";
 import { useState, type FormEvent } from "react";
 import { useHydrated } from "@/components/orders/useHydrated";
@@ -25,12 +25,9 @@ export function AcceptInvite({ token, email, needsAccount }: { token: string; em
       setFieldErrors(result.fieldErrors ?? {});
       return;
     }
-    if (password) {
-      await signIn("credentials", { email, password, redirect: false });
-      router.replace(`/shops/${result.data.shopSlug}`);
-    } else {
-      router.replace(`/sign-in?callbackUrl=${encodeURIComponent(`/shops/${result.data.shopSlug}`)}`);
-    }
+    // A new account signs in with the password just chosen; an existing one is signed in already.
+    if (password) await signIn("credentials", { email, password, redirect: false });
+    router.replace(`/shops/${result.data.shopSlug}`);
     router.refresh();
   }
 
@@ -59,11 +56,35 @@ export function AcceptInvite({ token, email, needsAccount }: { token: string; em
           </div>
         </>
       ) : (
-        <p className="text-sm text-ink-600">You already have an account. Accept, then sign in as usual.</p>
+        <p className="text-sm text-ink-600">You are signed in as {email}.</p>
       )}
       <button type="submit" className="btn-primary w-full" disabled={busy}>
         {busy ? "Joining…" : "Accept and join"}
       </button>
     </form>
+  );
+}
+
+/** Someone else is signed in: sign out first, then sign in as the invited address and come back. */
+export function SwitchAccount({ signedInAs, email, signInHref }: { signedInAs: string; email: string; signInHref: string }) {
+  const hydrated = useHydrated();
+  const [busy, setBusy] = useState(false);
+  return (
+    <div className="mt-6 space-y-4" data-hydrated={hydrated} data-testid="invite-switch-account">
+      <p className="text-sm text-ink-700">
+        You are signed in as {signedInAs}. This invitation joins the account for {email}: sign out, then sign in as {email} to accept.
+      </p>
+      <button
+        type="button"
+        className="btn-primary w-full"
+        disabled={busy}
+        onClick={() => {
+          setBusy(true);
+          void signOut({ callbackUrl: signInHref });
+        }}
+      >
+        {busy ? "Signing out…" : `Sign out and sign in as ${email}`}
+      </button>
+    </div>
   );
 }

@@ -1,9 +1,10 @@
 import Link from "next/link";
+import { getActor } from "@/app/_server/access";
 import { findInvitation } from "@/db/queries/shops";
 import { findUserByEmail } from "@/db/queries/users";
 import { Logo } from "@/components/ui/Logo";
 import { ROLE_LABELS } from "@/lib/access";
-import { AcceptInvite } from "./AcceptInvite";
+import { AcceptInvite, SwitchAccount } from "./AcceptInvite";
 
 export const dynamic = "force-dynamic";
 export const metadata = { title: "Invitation" };
@@ -13,6 +14,9 @@ export default async function InvitePage({ params }: { params: Promise<{ token: 
   const invite = await findInvitation({ token });
   const usable = invite && !invite.acceptedAt && invite.expiresAt > new Date();
   const existing = usable ? await findUserByEmail({ email: invite.email }) : undefined;
+  const actor = existing ? await getActor().catch(() => null) : null;
+  const back = `/invite/${encodeURIComponent(token)}`;
+  const signInHref = invite ? `/sign-in?${new URLSearchParams({ callbackUrl: back, email: invite.email })}` : "/sign-in";
   return (
     <main className="mx-auto max-w-md px-gutter py-12">
       <Logo />
@@ -31,7 +35,23 @@ export default async function InvitePage({ params }: { params: Promise<{ token: 
             <p className="mt-2 text-ink-700">
               You are invited as <strong>{ROLE_LABELS[invite.role].toLowerCase()}</strong> with {invite.email}.
             </p>
-            <AcceptInvite token={token} email={invite.email} needsAccount={!existing} />
+            {!existing ? (
+              <AcceptInvite token={token} email={invite.email} needsAccount />
+            ) : actor?.id === existing.id ? (
+              <AcceptInvite token={token} email={invite.email} needsAccount={false} />
+            ) : actor ? (
+              // Signed in as someone else: the invitation joins the account of its own address only.
+              <SwitchAccount signedInAs={actor.email} email={invite.email} signInHref={signInHref} />
+            ) : (
+              <div className="mt-6 space-y-4" data-testid="invite-sign-in-first">
+                <p className="text-sm text-ink-700">
+                  There is already a Chalkline account for {invite.email}. Sign in to it first; you come back here to accept.
+                </p>
+                <Link href={signInHref} className="btn-primary w-full">
+                  Sign in as {invite.email}
+                </Link>
+              </div>
+            )}
           </>
         )}
       </div>

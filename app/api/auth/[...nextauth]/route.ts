@@ -1,7 +1,7 @@
 import NextAuth from "next-auth";
 import { NextResponse, type NextRequest } from "next/server";
 import { inputProblem } from "@/lib/input";
-import { getAuthOptions, SIGN_IN_LIMIT_MESSAGE, takeSignInAttempt } from "@/app/_server/auth";
+import { getAuthOptions, LINK_LIMIT_MESSAGE, SIGN_IN_LIMIT_MESSAGE, takeSignInAttempt, takeSignInLink } from "@/app/_server/auth";
 
 export const dynamic = "force-dynamic";
 
@@ -86,15 +86,21 @@ async function handler(request: NextRequest, context: Context) {
   if (!knownEndpoint(nextauth)) return NextResponse.json({ error: "Not found." }, { status: 404 });
   const read = await readAuthRequest(request);
   if (!read.ok) return NextResponse.json({ error: read.reason }, { status: 400, headers: { "Cache-Control": "no-store" } });
+  const limited = (message: string) => {
+    const url = new URL("/sign-in", request.nextUrl.origin);
+    url.searchParams.set("error", message);
+    return NextResponse.json({ error: message, url: url.toString() }, { status: 429, headers: { "Retry-After": "60", "Cache-Control": "no-store" } });
+  };
   if (request.method === "POST" && nextauth.join("/") === "callback/credentials") {
     const email = read.fields.get("email");
     // Too many password attempts for one address: a real 429 that the sign-in form shows in words
     // (next-auth's client reads `error` from the url it is given back).
-    if (typeof email === "string" && email && !takeSignInAttempt(email)) {
-      const url = new URL("/sign-in", request.nextUrl.origin);
-      url.searchParams.set("error", SIGN_IN_LIMIT_MESSAGE);
-      return NextResponse.json({ error: SIGN_IN_LIMIT_MESSAGE, url: url.toString() }, { status: 429, headers: { "Retry-After": "60", "Cache-Control": "no-store" } });
-    }
+    if (typeof email === "string" && email && !takeSignInAttempt(email)) return limited(SIGN_IN_LIMIT_MESSAGE);
+  }
+  if (request.method === "POST" && nextauth.join("/") === "signin/email") {
+    // Each request sends an e-mail to the address: a few, then one a minute.
+    const email = read.fields.get("email");
+    if (typeof email === "string" && email && !takeSignInLink(email)) return limited(LINK_LIMIT_MESSAGE);
   }
   return NextAuth(getAuthOptions())(request, context);
 }
