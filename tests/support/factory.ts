@@ -75,8 +75,8 @@ export type ShopFactory = {
   /** The shops built so far, in order. */
   built: BuiltShop[];
   build: (options?: ShopOptions) => Promise<BuiltShop>;
-  /** Adds a shop (and people) made some other way to this factory's cleanup. */
-  adopt: (rows: { shopIds?: string[]; userIds?: string[] }) => void;
+  /** Adds shops (by id or slug) and people made some other way (a sign-up in the test, say) to this factory's cleanup. */
+  adopt: (rows: { shopIds?: string[]; shopSlugs?: string[]; userIds?: string[] }) => void;
   /** Deletes everything this factory made so far (afterAll does it anyway). */
   cleanup: () => Promise<void>;
 };
@@ -89,8 +89,8 @@ export function shopFactory(label: string): ShopFactory {
   const tag = randomBytes(3).toString("hex");
   const password = `fixture-${tag}-password`;
   const shopIds = new Set<string>();
+  const shopSlugs = new Set<string>();
   const userIds = new Set<string>();
-  let since: Date | undefined;
   let count = 0;
   const built: BuiltShop[] = [];
 
@@ -116,7 +116,6 @@ export function shopFactory(label: string): ShopFactory {
     userIds.add(made.userId);
     const shopRow = (await findShopBySlug({ slug: made.shopSlug }))!;
     shopIds.add(shopRow.id);
-    since ??= shopRow.createdAt;
     await markEmailVerified({ userId: made.userId });
     const owner = await person(ownerEmail);
 
@@ -196,10 +195,16 @@ export function shopFactory(label: string): ShopFactory {
   }
 
   async function cleanup(): Promise<void> {
-    const ids = [...shopIds];
-    if (ids.length && since) {
+    if (shopSlugs.size) {
+      for (const row of await db.select({ id: shops.id }).from(shops).where(inArray(shops.slug, [...shopSlugs]))) shopIds.add(row.id);
+      shopSlugs.clear();
+    }
+    const dropped = shopIds.size ? await db.select({ id: shops.id, createdAt: shops.createdAt }).from(shops).where(inArray(shops.id, [...shopIds])) : [];
+    if (dropped.length) {
+      const ids = dropped.map((d) => d.id);
       // People who joined these shops during the tests (by invitation, say) go too, unless they
-      // are on another team or are older than the first shop built here (the demo's people are).
+      // are on another team or are older than the oldest of these shops (the demo's people are).
+      const since = new Date(Math.min(...dropped.map((d) => d.createdAt.getTime())));
       const joined = await db
         .select({ id: users.id })
         .from(memberships)
@@ -209,7 +214,8 @@ export function shopFactory(label: string): ShopFactory {
       const alone = joined.map((j) => j.id).filter((id) => !userIds.has(id));
       if (alone.length) {
         await db
-          .delete(users).where(and(inArray(users.id, alone), notExists(db.select({ id: memberships.id }).from(memberships).where(eq(memberships.userId, users.id)))));
+          .delete(users)
+          .where(and(inArray(users.id, alone), notExists(db.select({ id: memberships.id }).from(memberships).where(eq(memberships.userId, users.id)))));
       }
     }
     if (userIds.size) await db.delete(users).where(inArray(users.id, [...userIds]));
@@ -225,6 +231,7 @@ export function shopFactory(label: string): ShopFactory {
     build,
     adopt: (rows) => {
       for (const id of rows.shopIds ?? []) shopIds.add(id);
+      for (const slug of rows.shopSlugs ?? []) shopSlugs.add(slug);
       for (const id of rows.userIds ?? []) userIds.add(id);
     },
     cleanup,
