@@ -5,7 +5,6 @@
  * in a request.
  */
 import { AsyncLocalStorage } from "node:async_hooks";
-import { randomBytes } from "node:crypto";
 import { and, eq, inArray } from "drizzle-orm";
 import { beforeAll, describe, expect, it, vi } from "vitest";
 import type { SessionUser } from "@/app/_server/auth";
@@ -30,10 +29,13 @@ const { auditLog, memberships, shops, users } = await import("@/db/schema");
 const { LAST_OWNER_MESSAGE } = await import("@/lib/access");
 const { describeAudit } = await import("@/lib/audit-text");
 const { addTeamMember, MEMBER_PASSWORD } = await import("@/tests/authz/fixtures");
+const { shopFactory } = await import("@/tests/support/factory");
 
 type Shop = { id: string; slug: string; owner: SessionUser };
 
-const tag = randomBytes(3).toString("hex");
+// The shops signed up here, and the people who joined them, go again after the file.
+const made = shopFactory("team");
+const tag = made.tag;
 let seq = 0;
 const unique = () => `${tag}-${(seq += 1)}`;
 
@@ -45,6 +47,7 @@ function as<T>(user: SessionUser | null, fn: () => Promise<T>): Promise<T> {
 async function newShop(name: string): Promise<Shop> {
   const email = `team-owner-${unique()}@example.test`;
   const { userId, shopSlug } = await createShopWithOwner({ shopName: `${name} ${tag}`, name: "Wren Calder", email, passwordHash: "not-used" });
+  made.adopt({ shopSlugs: [shopSlug], userIds: [userId] });
   const [shop] = await db.select({ id: shops.id, slug: shops.slug }).from(shops).where(eq(shops.slug, shopSlug));
   return { ...shop!, owner: { id: userId, email, name: "Wren Calder" } };
 }
@@ -225,6 +228,7 @@ describe("who may change the team", () => {
     const clientEmail = `team-client-${unique()}@example.test`;
     await createClient({ shopId: shop.id, actorUserId: shop.owner.id, input: { name: `Harbour Rowing ${tag}`, notes: null, taxExempt: false, contacts: [{ name: "Cato Rell", email: clientEmail, phone: null }] } });
     const [clientUser] = await db.insert(users).values({ email: clientEmail, name: "Cato Rell" }).returning({ id: users.id });
+    made.adopt({ userIds: [clientUser!.id] });
     await linkContactsToUser({ userId: clientUser!.id, email: clientEmail });
     const client: SessionUser = { id: clientUser!.id, email: clientEmail, name: "Cato Rell" };
     const { invitationId } = await createInvitation({ shopId: shop.id, email: `team-pending-${unique()}@example.test`, role: "designer", invitedBy: shop.owner.id });
