@@ -95,7 +95,8 @@ describe("a shop's team, from invitation to removal", () => {
     const changed = await as(shop.owner, () => changeMemberRoleAction({ shopSlug: shop.slug, memberId: member.id, role: "production" }));
     expect(changed).toMatchObject({ ok: true, data: { memberId: member.id, role: "production", self: false, changed: true, message: "Juno Park is now production." } });
     expect(await roleOf(member.id)).toBe("production");
-    const [roleEntry] = await auditOf(shop.id, ["member.role-changed"]);
+    // This member's entries only: other tests share the shop, in whatever order they run.
+    const [roleEntry] = (await auditOf(shop.id, ["member.role-changed"])).filter((e) => e.subjectId === member.id);
     expect(roleEntry).toMatchObject({ actorUserId: shop.owner.id, subjectType: "membership", subjectId: member.id, detail: { email, from: "designer", role: "production" } });
     expect(describeAudit(roleEntry!.action, roleEntry!.detail ?? {})).toBe(`The role of ${email} changed from designer to production.`);
 
@@ -104,7 +105,7 @@ describe("a shop's team, from invitation to removal", () => {
     expect(await roleOf(member.id)).toBeUndefined();
     // The account stays; only the place on this team goes.
     expect(await db.select({ id: users.id }).from(users).where(eq(users.id, member.userId))).toHaveLength(1);
-    const [removedEntry] = await auditOf(shop.id, ["member.removed"]);
+    const [removedEntry] = (await auditOf(shop.id, ["member.removed"])).filter((e) => e.subjectId === member.id);
     expect(removedEntry).toMatchObject({ actorUserId: shop.owner.id, subjectId: member.id, detail: { email, role: "production" } });
 
     // Removed, they are no one to this shop.
