@@ -36,6 +36,8 @@ export default defineConfig({
           name: "integration",
           include: ["tests/integration/**/*.test.ts"],
           environment: "node",
+          // Every failure names the random tags, names and seeds its file made (tests/support/failure-notes.ts).
+          setupFiles: ["tests/support/failure-notes.ts"],
           fileParallelism: false,
           testTimeout: 30_000,
           hookTimeout: 60_000,

@@ -1,11 +1,15 @@
 /**
- * `npm test`: its own PostgreSQL database and fakes, vitest unit + component + integration tests,
- * a production build, then end-to-end tests in Debian's Chromium against that build. Stops what it started.
+ * `npm test`: its own PostgreSQL database and fakes, vitest unit + component + integration tests
+ * in a shuffled order, a production build, then end-to-end tests in Debian's Chromium against that
+ * build. The demo rows the seed made are recorded first; a test that changes or deletes one fails
+ * the run. Stops what it started.
  */
+import { randomInt } from "node:crypto";
 import { existsSync, mkdirSync, readFileSync, rmSync } from "node:fs";
 import path from "node:path";
 import { buildApp, startNext, startWorker, stopChild, waitForHealth } from "./lib/next";
 import { isRoot, repoRoot, run } from "./lib/proc";
+import { changedSeededRows, recordSeededRows, type SeededRows } from "./lib/seeded-rows";
 import { bringUpStack, testPortOffset } from "./lib/stack";
 import { componentTestFiles } from "./lib/test-files";
 
@@ -32,7 +36,15 @@ async function ensureChromium(): Promise<void> {
   });
 }
 
-async function vitest(projects: string[], env: Record<string, string>, label: string): Promise<boolean> {
+/** The shuffle seed: TEST_SHUFFLE_SEED repeats an order, else a new one per run. */
+function shuffleSeed(): string {
+  const raw = process.env.TEST_SHUFFLE_SEED;
+  if (raw === undefined || raw === "") return String(randomInt(1, 2 ** 31));
+  if (!/^\d+$/.test(raw)) throw new Error(`TEST_SHUFFLE_SEED must be a whole number (got "${raw}")`);
+  return raw;
+}
+
+async function vitest(projects: string[], env: Record<string, string>, label: string, extra: string[] = []): Promise<boolean> {
   const out = path.join(reportDir, `${label}.json`);
   rmSync(out, { force: true });
   const args = [
@@ -45,6 +57,7 @@ async function vitest(projects: string[], env: Record<string, string>, label: st
     "--reporter=default",
     "--reporter=json",
     `--outputFile.json=${out}`,
+    ...extra,
     ...only,
   ];
   const result = await run(process.execPath, args, {
@@ -73,16 +86,47 @@ if (only.length === 0 && componentTestFiles(repoRoot).length === 0) {
 
 mkdirSync(reportDir, { recursive: true });
 let ok = true;
+/**
+ * Compares the seeded demo rows with the record taken after seeding. Strict after vitest (a changed
+ * or deleted seeded row fails the run); after the end-to-end tests, which do not all own their data
+ * yet, the rows they changed are listed as a warning.
+ */
+async function checkSeededRows(seeded: SeededRows, after: string, strict: boolean, already: Set<string>): Promise<boolean> {
+  const changed = await changedSeededRows(stack.databaseUrl, seeded);
+  const fresh = changed.filter((line) => !already.has(line));
+  for (const line of changed) already.add(line);
+  if (!fresh.length) {
+    log(`seeded demo rows after ${after}: ${changed.length ? "no further changes" : `all ${seeded.count} as seeded`}`);
+    return true;
+  }
+  if (strict) {
+    console.error(`[test] FAILED: the ${after} changed ${fresh.length} seeded demo row(s); a test must make its own rows (tests/support/factory.ts):`);
+    for (const line of fresh) console.error(`[test]   ${line}`);
+    totals.failed += 1;
+    return false;
+  }
+  console.warn(`[test] warning: the ${after} changed ${fresh.length} seeded demo row(s) (not failing the run until the end-to-end tests own their data):`);
+  for (const line of fresh) console.warn(`[test]   ${line}`);
+  return true;
+}
+
 const stack = await bringUpStack({ mode: "test", port: PORT });
 let app: ReturnType<typeof startNext> | undefined;
 let worker: ReturnType<typeof startWorker> | undefined;
 try {
+  const seeded = await recordSeededRows(stack.databaseUrl);
+  const reported = new Set<string>();
+  log(`recorded ${seeded.count} seeded demo rows in ${seeded.tables.size} tables; a test that changes or deletes one fails the run`);
   // One fuzz seed for the whole run, printed so a red run can be repeated with FUZZ_SEED=<seed>.
   const fuzzSeed = process.env.FUZZ_SEED ?? String(Date.now() % 2 ** 31);
   log(`fuzz seed ${fuzzSeed} (repeat with FUZZ_SEED=${fuzzSeed})`);
+  // Unit, component and integration tests run in an order shuffled by this seed, files and tests alike.
+  const shuffle = shuffleSeed();
+  log(`shuffle seed ${shuffle} (repeat the order with TEST_SHUFFLE_SEED=${shuffle})`);
   const testEnv = { ...stack.env, CHALKLINE_TEST: "1", FUZZ_SEED: fuzzSeed };
   log("unit, component and integration tests");
-  ok = (await vitest(["unit", "component", "integration"], testEnv, "vitest")) && ok;
+  ok = (await vitest(["unit", "component", "integration"], testEnv, "vitest", ["--sequence.shuffle", `--sequence.seed=${shuffle}`])) && ok;
+  ok = (await checkSeededRows(seeded, "unit, component and integration tests", true, reported)) && ok;
 
   if (!skipE2e) {
     await ensureChromium();
@@ -90,8 +134,10 @@ try {
     app = startNext({ dev: false, port: PORT, env: testEnv, quiet: true });
     worker = startWorker(testEnv, true);
     await waitForHealth(`http://localhost:${PORT}`, 90_000, app);
-    log(`end-to-end tests in ${CHROMIUM} against http://localhost:${PORT}`);
+    // End-to-end tests still run in file order.
+    log(`end-to-end tests in ${CHROMIUM} against http://localhost:${PORT}, in file order`);
     ok = (await vitest(["e2e"], { ...testEnv, E2E_BASE_URL: `http://localhost:${PORT}`, CHROMIUM_PATH: CHROMIUM }, "e2e")) && ok;
+    await checkSeededRows(seeded, "end-to-end tests", false, reported);
   }
 } catch (error) {
   ok = false;

@@ -1,7 +1,8 @@
 /**
  * Records the authorization matrix runs against, made fresh (with a random tag) by each test file
- * that needs them: jobs, proofs, art, quotes, exports and share links of our own in the demo shop,
- * and a second shop with its own owner and records. Demo records are read, never changed.
+ * that needs them: jobs, proofs, art, quotes, exports and share links of our own in "our" shop,
+ * and a second shop with its own owner and records. Our shop is a shop the test factory built
+ * (tests/support/factory.ts), or else the demo shop, whose own records are read, never changed.
  */
 import { randomBytes } from "node:crypto";
 import bcrypt from "bcryptjs";
@@ -20,6 +21,7 @@ import { artworks, clients, memberships, placements, proofs, shops, users } from
 import type { ShopRole } from "@/lib/access";
 import { DEFAULT_PRICE_MATRIX, formatCents } from "@/lib/pricing";
 import { quoteJob } from "@/lib/quotes";
+import type { BuiltShop } from "@/tests/support/factory";
 import type { Actor, Placeholder } from "./matrix";
 
 export const DEMO_SHOP_SLUG = "quarry-street-print-co";
@@ -197,20 +199,53 @@ export async function buildShopRecords({ shopId, ownerId, tag }: { shopId: strin
   return { clientId: client.id, jobId: job.id, artworkId, spareArtworkId, proofId, linkId: link.link.id, linkToken: link.token, quoteId: quote.id, exportId, blankId: blank!.id };
 }
 
-export async function buildAuthzFixture(): Promise<AuthzFixture> {
-  const tag = randomBytes(3).toString("hex");
+type OurActor = keyof typeof DEMO_EMAILS;
+
+/** Our shop, its owner, designer, production member and the client's contact who can sign in, and that client. */
+export type AuthzBase = {
+  shop: { id: string; slug: string };
+  users: Record<OurActor, FixtureUser>;
+  passwords: Record<OurActor, string>;
+  clubId: string;
+};
+
+/** A shop the factory built with a designer, production and a client account (team and clientAccount). */
+export function authzBaseOf(built: BuiltShop): AuthzBase {
+  const { designer, production } = built;
+  const client = built.client.user;
+  if (!designer || !production || !client) throw new Error("the matrix needs a shop built with a designer, production and a client account");
+  const user = (p: { id: string; email: string; name: string }): FixtureUser => ({ id: p.id, email: p.email, name: p.name });
+  return {
+    shop: { id: built.shop.id, slug: built.shop.slug },
+    users: { owner: user(built.owner), designer: user(designer), production: user(production), client: user(client) },
+    passwords: { owner: built.owner.password, designer: designer.password, production: production.password, client: client.password },
+    clubId: built.client.id,
+  };
+}
+
+/** The demo shop and its people, read only. */
+async function demoBase(): Promise<AuthzBase> {
   const [shop] = await db.select({ id: shops.id, slug: shops.slug }).from(shops).where(eq(shops.slug, DEMO_SHOP_SLUG));
   if (!shop) throw new Error("the demo shop is missing; the test stack seeds it");
-  const demoUsers = {} as Record<keyof typeof DEMO_EMAILS, FixtureUser>;
-  for (const [actor, email] of Object.entries(DEMO_EMAILS) as Array<[keyof typeof DEMO_EMAILS, string]>) {
+  const demoUsers = {} as Record<OurActor, FixtureUser>;
+  for (const [actor, email] of Object.entries(DEMO_EMAILS) as Array<[OurActor, string]>) {
     const [user] = await db.select({ id: users.id, email: users.email, name: users.name }).from(users).where(eq(users.email, email));
     if (!user) throw new Error(`demo user ${email} is missing`);
     demoUsers[actor] = user;
   }
-  const ownerId = demoUsers.owner.id;
-  const designerId = demoUsers.designer.id;
   const [club] = await db.select({ id: clients.id }).from(clients).where(and(eq(clients.shopId, shop.id), eq(clients.name, CLUB)));
   if (!club) throw new Error(`the demo client ${CLUB} is missing`);
+  return { shop, users: demoUsers, passwords: { owner: DEMO_PASSWORD, designer: DEMO_PASSWORD, production: DEMO_PASSWORD, client: DEMO_PASSWORD }, clubId: club.id };
+}
+
+/** The matrix's records, added to our shop (the demo shop when no base is given) and a second shop made here. */
+export async function buildAuthzFixture(base?: AuthzBase): Promise<AuthzFixture> {
+  const tag = randomBytes(3).toString("hex");
+  const ours = base ?? (await demoBase());
+  const { shop, users: ourUsers, passwords } = ours;
+  const club = { id: ours.clubId };
+  const ownerId = ourUsers.owner.id;
+  const designerId = ourUsers.designer.id;
 
   // Ours: two jobs for the club (one sent and quoted, one with an unsent proof and its own quote),
   // and a job for another client of ours that the club's contact must never see.
@@ -297,8 +332,8 @@ export async function buildAuthzFixture(): Promise<AuthzFixture> {
     tag,
     shop,
     other: otherShop!,
-    users: { ...demoUsers, other: { id: otherOwnerId, email: otherEmail, name: "Odile Marsh" } },
-    passwords: { owner: DEMO_PASSWORD, designer: DEMO_PASSWORD, production: DEMO_PASSWORD, client: DEMO_PASSWORD, other: otherPassword },
+    users: { ...ourUsers, other: { id: otherOwnerId, email: otherEmail, name: "Odile Marsh" } },
+    passwords: { ...passwords, other: otherPassword },
     ids,
     secrets: [jobTitle, siblingTitle, secondTitle, proofName, unsentName, artName, secondArtName, noteBody, `Matrix Rowing Club ${tag}`],
     clientSecrets: [secondTitle, secondArtName, `Matrix Rowing Club ${tag}`],

@@ -2,20 +2,20 @@ import { eq } from "drizzle-orm";
 import { describe, expect, it } from "vitest";
 import { db } from "@/db/client";
 import { findArtwork, insertUploadedArtwork, listArtworks, replaceArtwork } from "@/db/queries/artworks";
-import { artworks, placements, proofs, shops, users } from "@/db/schema";
+import { placements, proofs } from "@/db/schema";
+import { shopFactory } from "@/tests/support/factory";
 
-async function demo() {
-  const [shop] = await db.select().from(shops).where(eq(shops.slug, "quarry-street-print-co"));
-  const [user] = await db.select().from(users).where(eq(users.email, "designer@chalkline.test"));
-  return { shopId: shop!.id, userId: user!.id };
-}
+const shops = shopFactory("artworks");
 
 describe("art versions", () => {
   it("replaces art everywhere it is placed: width stays, height follows the new aspect, the change is noted", async () => {
-    const { shopId, userId } = await demo();
-    const [tee] = await db.select().from(proofs).where(eq(proofs.name, "Team tee"));
+    const s = await shops.build({ team: ["designer"] });
+    const shopId = s.shop.id;
+    const userId = s.designer!.id;
+    const [tee] = await db.select().from(proofs).where(eq(proofs.id, s.proof.id));
     const [placement] = await db.select().from(placements).where(eq(placements.proofId, tee!.id));
     const oldArt = placement!.artworkId!;
+    expect(oldArt).toBe(s.art.id);
     const newId = await insertUploadedArtwork({ shopId, name: "Crest wide", inkWidthPx: 4000, inkHeightPx: 2000, isVector: false, uploadedBy: userId });
 
     const result = await replaceArtwork({ shopId, oldId: oldArt, newId, userId });
@@ -30,16 +30,11 @@ describe("art versions", () => {
     expect(fresh!.version).toBe(2);
     expect(fresh!.notes?.join(" ")).toMatch(/kept their width/);
     expect((await listArtworks({ shopId })).some((a) => a.id === oldArt)).toBe(false);
-
-    // Put the demo back as it was for later tests.
-    await db.update(placements).set({ artworkId: oldArt, heightIn: placement!.heightIn }).where(eq(placements.id, placement!.id));
-    await db.update(artworks).set({ replacedById: null }).where(eq(artworks.id, oldArt));
-    await db.delete(artworks).where(eq(artworks.id, newId));
   });
 
   it("refuses art from another shop and leaves everything as it was", async () => {
-    const { userId } = await demo();
-    const result = await replaceArtwork({ shopId: "not-this-shop", oldId: "a", newId: "b", userId });
+    const s = await shops.build();
+    const result = await replaceArtwork({ shopId: "not-this-shop", oldId: "a", newId: "b", userId: s.owner.id });
     expect(result).toEqual({ error: "That artwork is not in this shop's library." });
   });
 });

@@ -5,7 +5,7 @@
  */
 import path from "node:path";
 import { fileURLToPath } from "node:url";
-import { eq, inArray, sql } from "drizzle-orm";
+import { eq, sql } from "drizzle-orm";
 import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
 import { saveProofAction } from "@/app/shops/[shop]/proofs/[proofId]/actions";
 import { db } from "@/db/client";
@@ -18,7 +18,9 @@ import { createInvitation, createShopWithOwner } from "@/db/queries/shops";
 import { invitations, memberships, proofs, shops } from "@/db/schema";
 import { DEFAULT_PRICE_MATRIX } from "@/lib/pricing";
 import { ACTION_ROWS, ACTORS, outcomeLabel, type Actor, type ActionOutcome, type ActionRow } from "@/tests/authz/matrix";
-import { addTeamMember, blankFormValues, buildAuthzFixture, insertArt, insertProof, jobFormInput, LIBRARY_TEE, type AuthzFixture, type FixtureUser } from "@/tests/authz/fixtures";
+import { addTeamMember, authzBaseOf, blankFormValues, buildAuthzFixture, insertArt, insertProof, jobFormInput, LIBRARY_TEE, type AuthzFixture, type FixtureUser } from "@/tests/authz/fixtures";
+import { shopFactory } from "@/tests/support/factory";
+import { noteOnFailure } from "@/tests/support/failure-notes";
 
 const session = vi.hoisted(() => ({ user: null as null | { id: string; email: string; name: string | null } }));
 vi.mock("@/app/_server/auth", () => ({
@@ -42,6 +44,9 @@ vi.mock("@/app/_server/queue", () => ({
 }));
 
 const repoRoot = fileURLToPath(new URL("../..", import.meta.url));
+// Our shop is one of this file's own (owner, designer, production, a client who signs in); the
+// matrix's second shop joins its cleanup.
+const shopsMade = shopFactory("authz");
 
 type PerActor = {
   oldArt: string;
@@ -51,7 +56,7 @@ type PerActor = {
   inviteToken: string;
   /** An invitation to an address someone signed up with (never proven) before the shop invited it. */
   takenInviteToken: string;
-  /** Members and an open invitation the fixtures add to our shop for the team rows; demo members are never changed. */
+  /** Members and an open invitation the fixtures add to our shop for the team rows; the shop's first members are never changed. */
   roleMemberId: string;
   removeMemberId: string;
   invitationId: string;
@@ -66,7 +71,6 @@ let archiveClientId = "";
 /** A member and an open invitation of the second shop, for the "their-ids" team rows. */
 let otherMemberId = "";
 let otherInvitationId = "";
-let savedPrices: { priceMatrix: unknown; priceMatrixUpdatedAt: Date | null } | undefined;
 
 async function blankValues(blankId: string, description: string) {
   return blankFormValues((await findBlank({ shopId: f.shop.id, blankId }))!, description);
@@ -213,18 +217,25 @@ function userFor(actor: Actor): FixtureUser | null {
   return f.users[actor];
 }
 
+/** A failed export of the second client's job, for a retry to pick up. */
+async function failedExportOf(): Promise<string> {
+  const id = await createExport({ shopId: f.shop.id, jobId: f.ids.secondClientJobId, kind: "spec-sheet", params: {}, requestedBy: f.users.owner.id });
+  await markExport(id, { state: "failed", message: "Failed for the matrix." });
+  return id;
+}
+
 beforeAll(async () => {
-  f = await buildAuthzFixture();
-  const [shop] = await db.select({ priceMatrix: shops.priceMatrix, priceMatrixUpdatedAt: shops.priceMatrixUpdatedAt }).from(shops).where(eq(shops.id, f.shop.id));
-  savedPrices = shop;
+  const ours = await shopsMade.build({ team: ["designer", "production"], clientAccount: true });
+  f = await buildAuthzFixture(authzBaseOf(ours));
+  shopsMade.adopt({ shopIds: [f.other.id], userIds: [f.users.other.id] });
+  noteOnFailure("matrix tag", f.tag);
   archiveClientId = (await createClient({ shopId: f.shop.id, actorUserId: f.users.owner.id, input: { name: `Matrix Archive Club ${f.tag}`, notes: null, taxExempt: false, contacts: [] } })).id;
   for (const actor of ACTORS) {
     const oldArt = await insertArt(f.shop.id, f.ids.secondClientId, `Matrix flag ${f.tag} ${actor}`);
     const newArt = await insertArt(f.shop.id, f.ids.secondClientId, `Matrix flag ${f.tag} ${actor} v2`);
-    const failedExport = await createExport({ shopId: f.shop.id, jobId: f.ids.secondClientJobId, kind: "spec-sheet", params: {}, requestedBy: f.users.owner.id });
-    await markExport(failedExport, { state: "failed", message: "Failed for the matrix." });
+    const failedExport = await failedExportOf();
     const { link } = await createShareLink({ shopId: f.shop.id, proofId: f.ids.proofId, permission: "comment", expiresAt: null, recipientEmail: null, recipientName: null, createdBy: f.users.designer.id });
-    // Invitations to the second shop: whoever accepts them, the demo shop's team stays as it is.
+    // Invitations to the second shop: whoever accepts them, our shop's team stays as it is.
     const { token } = await createInvitation({ shopId: f.other.id, email: `joiner-${f.tag}-${actor}@example.test`, role: "production", invitedBy: f.users.other.id });
     const takenEmail = `taken-${f.tag}-${actor}@example.test`;
     await createShopWithOwner({ shopName: `Matrix Squat ${f.tag} ${actor}`, name: "Matrix squatter", email: takenEmail, passwordHash: "not-used" });
@@ -241,15 +252,7 @@ beforeAll(async () => {
   otherInvitationId = (await createInvitation({ shopId: f.other.id, email: `matrix-their-pending-${f.tag}@example.test`, role: "designer", invitedBy: f.users.other.id })).invitationId;
 });
 
-afterAll(async () => {
-  // The owner's allowed save wrote the demo matrix; put the shop's prices back as they were.
-  if (savedPrices) await db.update(shops).set(savedPrices).where(eq(shops.id, f.shop.id));
-  // The people and invitations the team rows added to our shop go again, so the demo team stays as it was.
-  const added = Object.values(perActor);
-  if (added.length) {
-    await db.delete(memberships).where(inArray(memberships.id, added.flatMap((p) => [p.roleMemberId, p.removeMemberId])));
-    await db.delete(invitations).where(inArray(invitations.id, added.map((p) => p.invitationId)));
-  }
+afterAll(() => {
   session.user = null;
 });
 
@@ -298,8 +301,24 @@ describe("authorization matrix: server actions", () => {
     session.user = null;
   });
 
-  it("queued exports only for the actors the matrix allows", () => {
-    // request-export/ours: owner, designer and production; retry-export/ours the same.
-    expect(enqueued).toHaveLength(6);
+  it("queues exports only for the actors the matrix allows", async () => {
+    // request-export/ours: owner, designer and production; retry-export/ours the same. Each call
+    // here has its own failed export to retry, so the rows above may run before or after this.
+    const rows = ACTION_ROWS.filter((r) => r.id === "request-export/ours" || r.id === "retry-export/ours");
+    expect(rows.map((r) => r.id).sort()).toEqual(["request-export/ours", "retry-export/ours"]);
+    const queued: string[] = [];
+    for (const row of rows) {
+      for (const actor of ACTORS) {
+        const mine = { ...perActor[actor], failedExport: await failedExportOf() };
+        const input = await INPUTS[row.id]!({ f, actor, unique: `${f.tag}-${actor}-queue`, mine });
+        session.user = userFor(actor);
+        const before = enqueued.length;
+        await call(row, input);
+        session.user = null;
+        expect(enqueued.length - before, `${row.id} as ${actor}`).toBeLessThanOrEqual(1);
+        if (enqueued.length > before) queued.push(`${row.id} ${actor}`);
+      }
+    }
+    expect(queued.sort()).toEqual(["owner", "designer", "production"].flatMap((a) => [`request-export/ours ${a}`, `retry-export/ours ${a}`]).sort());
   });
 });

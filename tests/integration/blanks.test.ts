@@ -4,27 +4,20 @@ import { blankFormSchemaFor, fieldErrorsOf } from "@/components/blanks/blank-for
 import { db } from "@/db/client";
 import { libraryBlankId } from "@/db/library";
 import { duplicateBlank, findBlank, listBlankCopies, listBlanks, updateBlank } from "@/db/queries/blanks";
-import { createShopWithOwner } from "@/db/queries/shops";
-import { blanks, shops, type Blank, type BlankSizeRow } from "@/db/schema";
+import { blanks, type Blank, type BlankSizeRow } from "@/db/schema";
 import type { ApparelMeasurements } from "@/lib/garments/types";
+import { shopFactory } from "@/tests/support/factory";
 
-const unique = () => `${Date.now()}-${Math.random().toString(36).slice(2, 8)}`;
 const CREW_TEE = libraryBlankId("everyday-crew-tee");
+const shops = shopFactory("blanks");
 
-let demoShopId: string;
+/** Our shop and another one, both made for this file. */
+let ourShopId: string;
 let otherShopId: string;
 
 beforeAll(async () => {
-  const [demo] = await db.select({ id: shops.id }).from(shops).where(eq(shops.slug, "quarry-street-print-co"));
-  demoShopId = demo!.id;
-  const other = await createShopWithOwner({
-    shopName: "Far Side Screens",
-    name: "Ola",
-    email: `far-${unique()}@example.test`,
-    passwordHash: "x",
-  });
-  const [row] = await db.select({ id: shops.id }).from(shops).where(eq(shops.slug, other.shopSlug));
-  otherShopId = row!.id;
+  ourShopId = (await shops.build()).shop.id;
+  otherShopId = (await shops.build()).shop.id;
 });
 
 async function rawBlank(id: string): Promise<Blank> {
@@ -56,11 +49,11 @@ describe("library blanks", () => {
     const library = await rawBlank(CREW_TEE);
     expect(library.shopId).toBeNull();
     expect(library.name).toBe("Everyday Crew Tee");
-    const [demoList, otherList] = await Promise.all([
-      listBlanks({ shopId: demoShopId }),
+    const [ourList, otherList] = await Promise.all([
+      listBlanks({ shopId: ourShopId }),
       listBlanks({ shopId: otherShopId }),
     ]);
-    expect(demoList.map((b) => b.id)).toContain(CREW_TEE);
+    expect(ourList.map((b) => b.id)).toContain(CREW_TEE);
     expect(otherList.map((b) => b.id)).toContain(CREW_TEE);
   });
 });
@@ -68,17 +61,17 @@ describe("library blanks", () => {
 describe("duplicateBlank", () => {
   it("creates a shop-owned copy with the same chart and colours, pointing back at its source", async () => {
     const library = await rawBlank(CREW_TEE);
-    const copy = await duplicateBlank({ shopId: demoShopId, blankId: CREW_TEE });
+    const copy = await duplicateBlank({ shopId: ourShopId, blankId: CREW_TEE });
     expect(copy).toBeDefined();
     expect(copy!.id).not.toBe(CREW_TEE);
-    expect(copy!.shopId).toBe(demoShopId);
+    expect(copy!.shopId).toBe(ourShopId);
     expect(copy!.sourceBlankId).toBe(CREW_TEE);
     expect(copy!.category).toBe(library.category);
     expect(copy!.name).toContain(library.name);
     expect(copy!.sizeChart).toEqual(library.sizeChart);
     expect(copy!.colours).toEqual(library.colours);
     expect(
-      (await listBlankCopies({ shopId: demoShopId, sourceBlankId: CREW_TEE })).map((b) => b.id),
+      (await listBlankCopies({ shopId: ourShopId, sourceBlankId: CREW_TEE })).map((b) => b.id),
     ).toContain(copy!.id);
     expect(
       (await listBlankCopies({ shopId: otherShopId, sourceBlankId: CREW_TEE })).map((b) => b.id),
@@ -87,17 +80,17 @@ describe("duplicateBlank", () => {
 
   it("refuses to copy another shop's blank", async () => {
     const theirs = await duplicateBlank({ shopId: otherShopId, blankId: CREW_TEE });
-    expect(await duplicateBlank({ shopId: demoShopId, blankId: theirs!.id })).toBeUndefined();
+    expect(await duplicateBlank({ shopId: ourShopId, blankId: theirs!.id })).toBeUndefined();
   });
 });
 
 describe("updateBlank", () => {
   it("changes the shop's own copy and leaves the library blank as it was", async () => {
-    const copy = (await duplicateBlank({ shopId: demoShopId, blankId: CREW_TEE }))!;
+    const copy = (await duplicateBlank({ shopId: ourShopId, blankId: CREW_TEE }))!;
     const sizeChart = withMeasurement(copy.sizeChart, "M", "chestWidth", 20.5);
     const colours = [...copy.colours, { name: "Signal Orange", hex: "#D9622B" }];
     const updated = await updateBlank({
-      shopId: demoShopId,
+      shopId: ourShopId,
       blankId: copy.id,
       name: "Crew tee, supplier chart",
       description: null,
@@ -110,7 +103,7 @@ describe("updateBlank", () => {
     expect(chestOf(updated!, "M")).toBe(20.5);
     expect(updated!.updatedAt.getTime()).toBeGreaterThanOrEqual(copy.updatedAt.getTime());
 
-    const reread = (await findBlank({ shopId: demoShopId, blankId: copy.id }))!;
+    const reread = (await findBlank({ shopId: ourShopId, blankId: copy.id }))!;
     expect(chestOf(reread, "M")).toBe(20.5);
     expect(reread.colours.at(-1)).toEqual({ name: "Signal Orange", hex: "#D9622B" });
     // Only the one number moved.
@@ -123,7 +116,7 @@ describe("updateBlank", () => {
   it("changes nothing and returns undefined for a library blank", async () => {
     const before = await rawBlank(CREW_TEE);
     const result = await updateBlank({
-      shopId: demoShopId,
+      shopId: ourShopId,
       blankId: CREW_TEE,
       name: "Hijacked",
       description: "no",
@@ -141,7 +134,7 @@ describe("updateBlank", () => {
   it("changes nothing and returns undefined for another shop's blank", async () => {
     const theirs = (await duplicateBlank({ shopId: otherShopId, blankId: CREW_TEE }))!;
     const result = await updateBlank({
-      shopId: demoShopId,
+      shopId: ourShopId,
       blankId: theirs.id,
       name: "Taken over",
       description: null,
@@ -159,11 +152,11 @@ describe("updateBlank", () => {
 describe("findBlank and listBlanks", () => {
   it("hide another shop's blank and show a shop its own", async () => {
     const theirs = (await duplicateBlank({ shopId: otherShopId, blankId: CREW_TEE }))!;
-    expect(await findBlank({ shopId: demoShopId, blankId: theirs.id })).toBeUndefined();
+    expect(await findBlank({ shopId: ourShopId, blankId: theirs.id })).toBeUndefined();
     expect((await findBlank({ shopId: otherShopId, blankId: theirs.id }))?.id).toBe(theirs.id);
-    expect((await listBlanks({ shopId: demoShopId })).map((b) => b.id)).not.toContain(theirs.id);
+    expect((await listBlanks({ shopId: ourShopId })).map((b) => b.id)).not.toContain(theirs.id);
     expect((await listBlanks({ shopId: otherShopId })).map((b) => b.id)).toContain(theirs.id);
-    expect(await findBlank({ shopId: demoShopId, blankId: "no-such-blank" })).toBeUndefined();
+    expect(await findBlank({ shopId: ourShopId, blankId: "no-such-blank" })).toBeUndefined();
   });
 });
 

@@ -1,7 +1,8 @@
 import { AsyncLocalStorage } from "node:async_hooks";
-import { and, eq } from "drizzle-orm";
+import { randomInt } from "node:crypto";
+import { and, eq, sql } from "drizzle-orm";
 import { Client } from "pg";
-import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
+import { beforeAll, describe, expect, it, vi } from "vitest";
 import type { SessionUser } from "@/app/_server/auth";
 
 // The save below runs through the real server action: access from the database, checks, the
@@ -16,57 +17,71 @@ vi.mock("@/app/_server/auth", () => ({
 
 const { saveProofAction } = await import("@/app/shops/[shop]/proofs/[proofId]/actions");
 const { CONFLICT_MESSAGE } = await import("@/app/_server/proof-save");
+const { makeProof } = await import("@/app/_server/proof-make");
 const { db } = await import("@/db/client");
 const { getProofDocument, saveProof } = await import("@/db/queries/proofs");
 const { sendRevision } = await import("@/db/queries/review");
-const { placements, proofs, shops, users } = await import("@/db/schema");
+const { proofs } = await import("@/db/schema");
 const { toEditorDoc } = await import("@/lib/editor/from-server");
+const { shopFactory } = await import("@/tests/support/factory");
+const { noteOnFailure } = await import("@/tests/support/failure-notes");
+const { Arrivals, waitUntil } = await import("@/tests/support/wait");
 type ProofDoc = import("@/lib/editor/document").ProofDoc;
+type BuiltShop = import("@/tests/support/factory").BuiltShop;
 
-const SHOP = "quarry-street-print-co";
-let shopId = "";
-let proofId = "";
+const shops = shopFactory("concurrency");
+let s: BuiltShop;
 
-async function person(email: string): Promise<SessionUser> {
-  const [row] = await db.select().from(users).where(eq(users.email, email));
-  return { id: row!.id, email: row!.email, name: row!.name };
+/**
+ * How the two editors interleave is drawn from this seed (printed with any failure; repeat it with
+ * INTERLEAVE_SEED=n): before each save an editor may wait until the other has finished a given
+ * number of saves, so runs mix saves in flight together with saves one after the other.
+ */
+const INTERLEAVE_SEED = Number(process.env.INTERLEAVE_SEED ?? randomInt(1, 2 ** 31));
+noteOnFailure("interleaving seed", `${INTERLEAVE_SEED} (repeat with INTERLEAVE_SEED=${INTERLEAVE_SEED})`);
+
+/** A small seeded generator (mulberry32): the same seed, the same schedule. */
+function seeded(seed: number): () => number {
+  let a = seed >>> 0;
+  return () => {
+    a = (a + 0x6d2b79f5) >>> 0;
+    let t = a;
+    t = Math.imul(t ^ (t >>> 15), t | 1);
+    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
+    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
+  };
 }
 
-/** A proof of its own, copied from the demo tee, so the e2e tests never see these saves. */
-async function copyDemoProof(name: string): Promise<string> {
-  const [source] = await db.select().from(proofs).where(eq(proofs.name, "Team tee"));
-  const id = crypto.randomUUID();
-  await db.insert(proofs).values({ ...source!, id, name, revision: "A", version: 1, createdAt: new Date(), updatedAt: new Date() });
-  const rows = await db.select().from(placements).where(eq(placements.proofId, source!.id));
-  if (rows.length) await db.insert(placements).values(rows.map((p) => ({ ...p, id: crypto.randomUUID(), proofId: id })));
-  return id;
+const who = (person: { id: string; email: string; name: string }): SessionUser => ({ id: person.id, email: person.email, name: person.name });
+
+beforeAll(async () => {
+  s = await shops.build({ team: ["designer", "production"] });
+});
+
+let proofCount = 0;
+
+/** A proof of the test's own, made from the file's job as the designer would make it. */
+async function newProof(): Promise<string> {
+  proofCount += 1;
+  const made = await makeProof({ shopId: s.shop.id, userId: s.designer!.id, jobId: s.job.id, name: `Concurrency check ${s.tag}-${proofCount}`, blankId: null, colourName: null, art: [{ location: "full-front", artworkId: s.art.id }] });
+  if (!made.ok) throw new Error(made.error);
+  return made.proofId;
 }
 
-async function saveAs(user: SessionUser, baseVersion: number, doc: ProofDoc) {
-  return session.run(user, () => saveProofAction({ shopSlug: SHOP, proofId, baseVersion, doc }));
+async function saveAs(user: SessionUser, proofId: string, baseVersion: number, doc: ProofDoc) {
+  return session.run(user, () => saveProofAction({ shopSlug: s.shop.slug, proofId, baseVersion, doc }));
 }
 
 function moved(doc: ProofDoc, belowCollarIn: number): ProofDoc {
   return { ...doc, placements: doc.placements.map((p, i) => (i === 0 ? { ...p, belowCollarIn } : p)) };
 }
 
-const pause = (ms: number) => new Promise((resolve) => setTimeout(resolve, ms));
-
-beforeAll(async () => {
-  const [shop] = await db.select().from(shops).where(eq(shops.slug, SHOP));
-  shopId = shop!.id;
-  proofId = await copyDemoProof(`Concurrency check ${Date.now()}`);
-});
-
-afterAll(async () => {
-  if (proofId) await db.delete(proofs).where(eq(proofs.id, proofId));
-});
-
 describe("two sessions saving one proof at once", () => {
   it("keeps every acknowledged save, refuses stale ones with the conflict message, and ends on the last one", async () => {
-    const owner = await person("owner@chalkline.test");
-    const designer = await person("designer@chalkline.test");
-    const start = (await getProofDocument({ shopId, proofId }))!;
+    const owner = who(s.owner);
+    const designer = who(s.designer!);
+    const proofId = await newProof();
+    const start = (await getProofDocument({ shopId: s.shop.id, proofId }))!;
     const startVersion = start.proof.version;
 
     type Ack = { by: string; version: number; doc: ProofDoc };
@@ -74,15 +89,28 @@ describe("two sessions saving one proof at once", () => {
     const refusals: Array<{ by: string; baseVersion: number; version: number; doc: ProofDoc }> = [];
     const SAVES_EACH = 50;
 
+    // How far each editor may run ahead of the other before its next save: 0 waits until the other
+    // has finished as many saves, 3 hardly ever waits. Drawn per step from the interleaving seed.
+    const draw = seeded(INTERLEAVE_SEED);
+    const lead = [1, 2].map(() => Array.from({ length: SAVES_EACH }, () => Math.floor(draw() * 4)));
+    const finished = [0, 0];
+    const progress = new Arrivals<{ lane: number; done: number }>();
+
     // Each session is an editor: it holds the version it last saw, saves its own edit on top, and
     // when refused takes the latest from the server ("Load the latest") before its next edit.
-    async function editor(user: SessionUser, lane: number) {
+    async function editor(user: SessionUser, lane: 1 | 2) {
+      const other = lane === 1 ? 1 : 0;
       let version = startVersion;
       let doc = toEditorDoc(start);
       for (let i = 0; i < SAVES_EACH; i += 1) {
+        const ahead = lead[lane - 1]![i]!;
+        // Never a deadlock: an editor waits only while the other has done fewer saves than it has,
+        // so the two can never both be waiting. On the first step neither waits: both save at once.
+        const target = i - ahead;
+        if (finished[other]! < target) await progress.next(`editor ${lane} to see editor ${other + 1} finish ${target} saves`, (p) => p.lane === other + 1 && p.done >= target);
         // Distinct values per session and step, so every saved state can be told apart.
         const next = moved(doc, lane * 10 + i / 8);
-        const result = await saveAs(user, version, next);
+        const result = await saveAs(user, proofId, version, next);
         if (result.ok) {
           acks.push({ by: user.email, version: result.version, doc: next });
           version = result.version;
@@ -96,8 +124,8 @@ describe("two sessions saving one proof at once", () => {
           version = result.version;
           doc = result.doc;
         }
-        // Uneven gaps interleave the two sessions differently on every step.
-        await pause(((i * 7 + lane * 3) % 5) * 2);
+        finished[lane - 1] = i + 1;
+        progress.push({ lane, done: i + 1 });
       }
     }
 
@@ -122,32 +150,34 @@ describe("two sessions saving one proof at once", () => {
 
     // The proof ends on the last acknowledged save.
     const last = acks.reduce((a, b) => (b.version > a.version ? b : a));
-    const final = (await getProofDocument({ shopId, proofId }))!;
+    const final = (await getProofDocument({ shopId: s.shop.id, proofId }))!;
     expect(final.proof.version).toBe(last.version);
     expect(toEditorDoc(final)).toEqual(last.doc);
 
     // A save from the very first version is refused and changes nothing.
-    const stale = await saveAs(owner, startVersion, moved(toEditorDoc(start), 0.5));
+    const stale = await saveAs(owner, proofId, startVersion, moved(toEditorDoc(start), 0.5));
     expect(stale).toMatchObject({ ok: false, kind: "conflict", message: CONFLICT_MESSAGE, version: last.version });
-    const after = (await getProofDocument({ shopId, proofId }))!;
+    const after = (await getProofDocument({ shopId: s.shop.id, proofId }))!;
     expect(after.proof.version).toBe(last.version);
     expect(toEditorDoc(after)).toEqual(last.doc);
   });
 
   it("still checks who is saving: production and people from no shop are refused", async () => {
-    const current = (await getProofDocument({ shopId, proofId }))!;
+    const proofId = await newProof();
+    const current = (await getProofDocument({ shopId: s.shop.id, proofId }))!;
     const doc = toEditorDoc(current);
     const version = current.proof.version;
-    const press = await person("press@chalkline.test");
-    expect(await saveAs(press, version, moved(doc, 1))).toMatchObject({ ok: false, kind: "denied" });
+    const press = who(s.production!);
+    expect(await saveAs(press, proofId, version, moved(doc, 1))).toMatchObject({ ok: false, kind: "denied" });
     const stranger: SessionUser = { id: "no-such-user", email: "nobody@elsewhere.test", name: null };
-    expect(await saveAs(stranger, version, moved(doc, 1))).toMatchObject({ ok: false, kind: "denied" });
-    expect((await getProofDocument({ shopId, proofId }))!.proof.version).toBe(version);
+    expect(await saveAs(stranger, proofId, version, moved(doc, 1))).toMatchObject({ ok: false, kind: "denied" });
+    expect((await getProofDocument({ shopId: s.shop.id, proofId }))!.proof.version).toBe(version);
   });
 
   it("waits for an approval being recorded, then starts the next revision instead of editing the approved one", async () => {
-    const owner = await person("owner@chalkline.test");
-    const current = (await getProofDocument({ shopId, proofId }))!;
+    const owner = who(s.owner);
+    const proofId = await newProof();
+    const current = (await getProofDocument({ shopId: s.shop.id, proofId }))!;
     const letter = current.proof.revision;
     const sent = await sendRevision({ document: current, userId: owner.id });
     expect(sent).toMatchObject({ letter, state: "open" });
@@ -156,11 +186,12 @@ describe("two sessions saving one proof at once", () => {
     const approval = new Client({ connectionString: process.env.DATABASE_URL });
     await approval.connect();
     try {
+      const [{ pid }] = (await approval.query<{ pid: number }>("select pg_backend_pid() as pid")).rows as [{ pid: number }];
       await approval.query("begin");
       await approval.query("select id from proof_revisions where proof_id = $1 and letter = $2 for update", [proofId, letter]);
       let settled = false;
       const save = saveProof({
-        shopId,
+        shopId: s.shop.id,
         proofId,
         baseVersion: current.proof.version,
         ...toEditorDoc(current),
@@ -169,7 +200,13 @@ describe("two sessions saving one proof at once", () => {
       }).finally(() => {
         settled = true;
       });
-      await pause(300);
+      // The save is held at the approval's row lock: its session waits on the approval's (or, were
+      // it not held, it would settle, and the next line says so).
+      await waitUntil("the save to wait on the approval's lock", async () => {
+        if (settled) return true;
+        const blocked = await db.execute<{ pid: number }>(sql`select pid from pg_stat_activity where ${pid}::int = any(pg_blocking_pids(pid))`);
+        return blocked.rows.length > 0;
+      });
       expect(settled).toBe(false);
       await approval.query("update proof_revisions set state = 'approved' where proof_id = $1 and letter = $2", [proofId, letter]);
       await approval.query("commit");

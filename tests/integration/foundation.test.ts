@@ -6,9 +6,21 @@ import { listClientContacts, listMemberships } from "@/db/queries/access";
 import { findUserByEmail } from "@/db/queries/users";
 import { auditLog, invitations, memberships, shops, users } from "@/db/schema";
 import { GET as health } from "@/app/api/health/route";
+import { shopFactory } from "@/tests/support/factory";
 
-const unique = () => `${Date.now()}-${Math.random().toString(36).slice(2, 8)}`;
+// The shops signed up here go again after the file, with their people.
+const made = shopFactory("foundation");
+let seq = 0;
+/** Names and addresses of this file's own: its factory tag (printed with any failure) and a count. */
+const unique = () => `${made.tag}-${(seq += 1)}`;
 
+async function signUp(input: Parameters<typeof createShopWithOwner>[0]) {
+  const result = await createShopWithOwner(input);
+  made.adopt({ shopSlugs: [result.shopSlug], userIds: [result.userId] });
+  return result;
+}
+
+// About the demo itself: reads what the seed made, changes nothing.
 describe("demo data", () => {
   it("seeds one shop with an owner, a designer, a press operator and a client contact", async () => {
     const owner = await findUserByEmail({ email: "owner@chalkline.test" });
@@ -27,7 +39,7 @@ describe("demo data", () => {
 describe("sign-up", () => {
   it("creates a shop whose creator is its owner, and records it in the audit log", async () => {
     const email = `maker-${unique()}@example.test`;
-    const { userId, shopSlug } = await createShopWithOwner({ shopName: "Cinder Alley Prints", name: "Lou", email, passwordHash: "x" });
+    const { userId, shopSlug } = await signUp({ shopName: `Cinder Alley Prints ${unique()}`, name: "Lou", email, passwordHash: "x" });
     const [shop] = await db.select().from(shops).where(eq(shops.slug, shopSlug));
     const [member] = await db.select().from(memberships).where(eq(memberships.shopId, shop!.id));
     expect(member).toMatchObject({ userId, role: "owner" });
@@ -36,24 +48,27 @@ describe("sign-up", () => {
   });
 
   it("gives two shops with the same name different slugs", async () => {
-    const a = await createShopWithOwner({ shopName: "Same Name", name: "A", email: `a-${unique()}@example.test`, passwordHash: "x" });
-    const b = await createShopWithOwner({ shopName: "Same Name", name: "B", email: `b-${unique()}@example.test`, passwordHash: "x" });
+    const shopName = `Same Name ${unique()}`;
+    const a = await signUp({ shopName, name: "A", email: `a-${unique()}@example.test`, passwordHash: "x" });
+    const b = await signUp({ shopName, name: "B", email: `b-${unique()}@example.test`, passwordHash: "x" });
     expect(a.shopSlug).not.toBe(b.shopSlug);
   });
 
   it("refuses an e-mail that already has an account and saves nothing", async () => {
+    const email = `taken-${unique()}@example.test`;
+    await signUp({ shopName: `First ${unique()}`, name: "First", email, passwordHash: "x" });
+    const dupName = `Dup ${unique()}`;
     const before = await db.select({ id: shops.id }).from(shops);
-    await expect(
-      createShopWithOwner({ shopName: "Dup", name: "Dup", email: "OWNER@chalkline.test", passwordHash: "x" }),
-    ).rejects.toBeInstanceOf(EmailTakenError);
+    await expect(createShopWithOwner({ shopName: dupName, name: "Dup", email: email.toUpperCase(), passwordHash: "x" })).rejects.toBeInstanceOf(EmailTakenError);
     const after = await db.select({ id: shops.id }).from(shops);
     expect(after.length).toBe(before.length);
+    expect(await db.select({ id: shops.id }).from(shops).where(eq(shops.name, dupName))).toEqual([]);
   });
 });
 
 describe("invitations", () => {
   it("stores only a hash of the token and adds the member with the invited role", async () => {
-    const owner = await createShopWithOwner({ shopName: "Invite Test", name: "O", email: `o-${unique()}@example.test`, passwordHash: "x" });
+    const owner = await signUp({ shopName: `Invite Test ${unique()}`, name: "O", email: `o-${unique()}@example.test`, passwordHash: "x" });
     const [shop] = await db.select().from(shops).where(eq(shops.slug, owner.shopSlug));
     const email = `new-${unique()}@example.test`;
     const { token, invitationId } = await createInvitation({ shopId: shop!.id, email, role: "production", invitedBy: owner.userId });
@@ -71,7 +86,7 @@ describe("invitations", () => {
   });
 
   it("refuses an expired invitation", async () => {
-    const owner = await createShopWithOwner({ shopName: "Expiry Test", name: "O", email: `e-${unique()}@example.test`, passwordHash: "x" });
+    const owner = await signUp({ shopName: `Expiry Test ${unique()}`, name: "O", email: `e-${unique()}@example.test`, passwordHash: "x" });
     const [shop] = await db.select().from(shops).where(eq(shops.slug, owner.shopSlug));
     const { token, invitationId } = await createInvitation({ shopId: shop!.id, email: `late-${unique()}@example.test`, role: "designer", invitedBy: owner.userId });
     await db.update(invitations).set({ expiresAt: new Date(Date.now() - 1000) }).where(eq(invitations.id, invitationId));

@@ -3,7 +3,6 @@
  * gets a client, a job and art through the product's own queries, then every step goes through the
  * server actions with the session mocked as that shop's people.
  */
-import { randomBytes } from "node:crypto";
 import { eq } from "drizzle-orm";
 import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
 import { archiveProofAction, createProofAction, duplicateProofAction } from "@/app/shops/[shop]/jobs/[jobId]/proofs/actions";
@@ -17,6 +16,7 @@ import { listRevisions, recordDecision } from "@/db/queries/review";
 import { acceptInvitation, createInvitation, createShopWithOwner } from "@/db/queries/shops";
 import { proofRevisions, shops, users } from "@/db/schema";
 import { insertArt, LIBRARY_TEE } from "@/tests/authz/fixtures";
+import { shopFactory } from "@/tests/support/factory";
 
 const session = vi.hoisted(() => ({ user: null as null | { id: string; email: string; name: string | null } }));
 vi.mock("@/app/_server/auth", async (importOriginal) => ({
@@ -25,7 +25,9 @@ vi.mock("@/app/_server/auth", async (importOriginal) => ({
 }));
 vi.mock("next/cache", () => ({ revalidatePath: vi.fn(), revalidateTag: vi.fn() }));
 
-const tag = randomBytes(3).toString("hex");
+// The shops made here go again after the file (pass or fail), with everything in them.
+const made = shopFactory("proof-making");
+const tag = made.tag;
 const people = {} as Record<"owner" | "designer" | "production", { id: string; email: string; name: string }>;
 let shop: { id: string; slug: string };
 let jobId = "";
@@ -36,6 +38,7 @@ let otherArtId = "";
 beforeAll(async () => {
   const ownerEmail = `maker-${tag}@proofs.test`;
   const { userId, shopSlug } = await createShopWithOwner({ shopName: `Proof Yard ${tag}`, name: "Ines Dale", email: ownerEmail, passwordHash: "x" });
+  made.adopt({ shopSlugs: [shopSlug], userIds: [userId] });
   const [row] = await db.select({ id: shops.id, slug: shops.slug }).from(shops).where(eq(shops.slug, shopSlug));
   shop = row!;
   people.owner = { id: userId, email: ownerEmail, name: "Ines Dale" };
@@ -46,6 +49,7 @@ beforeAll(async () => {
     if (!joined.ok) throw new Error(`could not add the ${role}: ${JSON.stringify(joined)}`);
     const [user] = await db.select({ id: users.id }).from(users).where(eq(users.email, email));
     people[role] = { id: user!.id, email, name: `Pat ${role}` };
+    made.adopt({ userIds: [user!.id] });
   }
   const client = await createClient({ shopId: shop.id, actorUserId: userId, input: { name: `Harbour Rowing ${tag}`, notes: null, taxExempt: false, contacts: [{ name: "Ros Keel", email: `ros-${tag}@rowing.test`, phone: null }] } });
   const base = { clientId: client.id, dueDate: "2027-06-01", method: "dtf" as const, blankId: LIBRARY_TEE, garmentColour: "Kiln Red", dtfAreaIn2: 100, rush: false, notes: null };
@@ -60,10 +64,8 @@ beforeAll(async () => {
   otherArtId = await insertArt(shop.id, client.id, `Oar script ${tag}`);
 });
 
-afterAll(async () => {
+afterAll(() => {
   session.user = null;
-  // The shop made here goes with everything in it.
-  if (shop) await db.delete(shops).where(eq(shops.id, shop.id));
 });
 
 const as = (who: keyof typeof people | null) => (session.user = who ? people[who] : null);
@@ -129,12 +131,12 @@ describe("making a proof for a new job", () => {
 
   it("refuses art from another shop with a message", async () => {
     const stranger = await createShopWithOwner({ shopName: `Elsewhere ${tag}`, name: "Vic Ray", email: `vic-${tag}@elsewhere.test`, passwordHash: "x" });
+    made.adopt({ shopSlugs: [stranger.shopSlug], userIds: [stranger.userId] });
     const [theirs] = await db.select({ id: shops.id }).from(shops).where(eq(shops.slug, stranger.shopSlug));
     const foreignArt = await insertArt(theirs!.id, null, `Their mark ${tag}`);
     as("designer");
     const result = await createProofAction({ shopSlug: shop.slug, jobId, name: null, blankId: null, colourName: null, art: [{ location: "full-front", artworkId: foreignArt }] });
     expect(result).toMatchObject({ ok: false, error: "That art is not in this client's library." });
-    await db.delete(shops).where(eq(shops.id, theirs!.id));
   });
 
   it("copies a proof for another colour with the same prints, and for another blank laid out afresh", async () => {

@@ -4,7 +4,6 @@
  * refuses the short quote; the client's accept and checkout answer 409 in words, start no payment
  * and leave the shop one activity entry.
  */
-import { randomBytes } from "node:crypto";
 import { mkdtempSync } from "node:fs";
 import { tmpdir } from "node:os";
 import path from "node:path";
@@ -27,6 +26,7 @@ import { quoteJob } from "@/lib/quotes";
 import { nextRevisionLetter } from "@/lib/review/diff";
 import { buildShopRecords, insertProof, jobFormInput, type ShopRecords } from "@/tests/authz/fixtures";
 import { startStripeFake, type StripeFake } from "@/scripts/fakes/stripe";
+import { shopFactory } from "@/tests/support/factory";
 
 const session = vi.hoisted(() => ({ user: null as null | { id: string; email: string; name: string | null } }));
 vi.mock("@/app/_server/auth", async (importOriginal) => ({
@@ -35,7 +35,9 @@ vi.mock("@/app/_server/auth", async (importOriginal) => ({
 }));
 vi.mock("next/cache", () => ({ revalidatePath: vi.fn(), revalidateTag: vi.fn() }));
 
-const tag = randomBytes(3).toString("hex");
+// The shops made here go again after the file (pass or fail), with everything in them.
+const made = shopFactory("quote-proof");
+const tag = made.tag;
 let shop: { id: string; slug: string };
 let owner: { id: string; email: string; name: string };
 let count = 0;
@@ -90,6 +92,7 @@ const savedFakeUrl = process.env.STRIPE_FAKE_URL;
 beforeAll(async () => {
   const email = `quote-proof-${tag}@mill-prints.test`;
   const created = await createShopWithOwner({ shopName: `Quote Proof Mill ${tag}`, name: "Odile Marsh", email, passwordHash: "not-used-in-this-test" });
+  made.adopt({ shopSlugs: [created.shopSlug], userIds: [created.userId] });
   const [row] = await db.select({ id: shops.id, slug: shops.slug }).from(shops).where(eq(shops.slug, created.shopSlug));
   shop = row!;
   owner = { id: created.userId, email, name: "Odile Marsh" };
@@ -129,8 +132,10 @@ describe("what the proofs show, from the database", () => {
 
   it("another shop's id reads nothing", async () => {
     const r = await fresh();
-    const [demo] = await db.select({ id: shops.id }).from(shops).where(eq(shops.slug, "quarry-street-print-co"));
-    expect(await listProofPrints({ shopId: demo!.id, jobId: r.jobId })).toEqual({ proofs: [], artColours: {} });
+    const elsewhere = await createShopWithOwner({ shopName: `Quote Proof Elsewhere ${tag}`, name: "Vic Ray", email: `elsewhere-${tag}@mill-prints.test`, passwordHash: "not-used-in-this-test" });
+    made.adopt({ shopSlugs: [elsewhere.shopSlug], userIds: [elsewhere.userId] });
+    const [theirs] = await db.select({ id: shops.id }).from(shops).where(eq(shops.slug, elsewhere.shopSlug));
+    expect(await listProofPrints({ shopId: theirs!.id, jobId: r.jobId })).toEqual({ proofs: [], artColours: {} });
   });
 });
 

@@ -22,8 +22,10 @@ import { addComment } from "@/db/queries/review";
 import { createInvitation } from "@/db/queries/shops";
 import { DEFAULT_PRICE_MATRIX } from "@/lib/pricing";
 import { readAppSurface } from "@/tests/authz/app-surface";
-import { addTeamMember, blankFormValues, buildAuthzFixture, buildShopRecords, jobFormInput, LIBRARY_TEE, type AuthzFixture, type FixtureUser, type ShopRecords } from "@/tests/authz/fixtures";
+import { addTeamMember, authzBaseOf, blankFormValues, buildAuthzFixture, buildShopRecords, jobFormInput, LIBRARY_TEE, type AuthzFixture, type FixtureUser, type ShopRecords } from "@/tests/authz/fixtures";
 import { actionInput, boundaryCases, hostileSegment, leaks, rawBody, type RawBody } from "@/tests/fuzz/hostile";
+import { shopFactory } from "@/tests/support/factory";
+import { noteOnFailure } from "@/tests/support/failure-notes";
 
 const session = vi.hoisted(() => ({ user: null as null | { id: string; email: string; name: string | null } }));
 vi.mock("@/app/_server/auth", async (importOriginal) => ({
@@ -46,6 +48,14 @@ const SCALE = Number(process.env.FUZZ_SCALE ?? 1);
 const PER_ACTION = Math.round(360 * SCALE);
 const PER_ROUTE = Math.round(400 * SCALE);
 const PER_GET = Math.round(60 * SCALE);
+noteOnFailure("fuzz seed", `${SEED} (repeat with FUZZ_SEED=${SEED})`);
+
+/** Generated inputs per server action: the sign-up and invitation actions get a third (each valid one makes an account). */
+const runsFor = (name: string) => (name === "signUpAction" || name === "acceptInvitationAction" ? Math.round(PER_ACTION / 3) : PER_ACTION);
+
+// Our shop (owner, designer, production, the client who signs in) is one of this file's own; the
+// second shop the fuzzer works in joins its cleanup.
+const shopsMade = shopFactory("request-fuzz");
 
 let f: AuthzFixture;
 const baseInputs = new Map<string, unknown>();
@@ -352,7 +362,10 @@ function getRoutes(): Array<{ label: string; file: string; build: (s: string) =>
 let baseNames: Record<string, unknown> = {};
 
 beforeAll(async () => {
-  f = await buildAuthzFixture();
+  const ours = await shopsMade.build({ team: ["designer", "production"], clientAccount: true });
+  f = await buildAuthzFixture(authzBaseOf(ours));
+  shopsMade.adopt({ shopIds: [f.other.id], userIds: [f.users.other.id] });
+  noteOnFailure("matrix tag", f.tag);
   other = f.users.other;
   state = await freshState();
   baseNames = await actionBases(state);
@@ -361,6 +374,19 @@ beforeAll(async () => {
 afterAll(() => {
   session.user = null;
 });
+
+/**
+ * The fewest inputs the action test tries: per action, the valid input, its boundary cases and
+ * random cases up to `runsFor(name)` (at least one random case when the boundary cases fill it).
+ */
+function plannedActionInputs(): number {
+  return readAppSurface(repoRoot).actions.reduce((sum, a) => sum + runsFor(a.name), 0);
+}
+
+/** The fewest bodies the route test tries: per route, the valid body, its boundary cases and random ones up to PER_ROUTE. */
+function plannedRouteBodies(): number {
+  return bodyRoutes().length * PER_ROUTE;
+}
 
 function report(kind: string) {
   const mine = problems.filter((p) => p.target.startsWith(kind));
@@ -374,13 +400,14 @@ describe(`request fuzzing, direct calls (seed ${SEED})`, () => {
   it("hands every server action generated input; each answers { ok } with a message and never throws", async () => {
     const surface = readAppSurface(repoRoot).actions;
     expect(surface.map((a) => a.name).filter((name) => !(name in baseNames)), "actions without a valid input to mutate").toEqual([]);
+    const tried = counts.actions;
     for (const [n, { file, name }] of surface.entries()) {
       // A fresh working set for each action: no earlier action's fuzz cases can refuse its valid input.
       state = await freshState();
       const bases = await actionBases(state);
       baseInputs.set(name, bases[name]);
       const fn = ((await import(/* @vite-ignore */ path.join(repoRoot, file))) as Record<string, (input: unknown) => Promise<unknown>>)[name]!;
-      const runs = name === "signUpAction" || name === "acceptInvitationAction" ? Math.round(PER_ACTION / 3) : PER_ACTION;
+      const runs = runsFor(name);
       // The valid input itself first, as its owner: it must get through, so the deep path runs.
       const edges = name === "signUpAction" || name === "acceptInvitationAction" ? [] : boundaryCases(bases[name], Math.round(200 * SCALE));
       const cases: Array<[Caller, unknown]> = [["other", bases[name]], ...edges.map((e): [Caller, unknown] => ["other", e]), ...fc.sample(fc.tuple(caller, actionInput(bases[name])), { numRuns: Math.max(1, runs - edges.length), seed: SEED + n })];
@@ -396,12 +423,16 @@ describe(`request fuzzing, direct calls (seed ${SEED})`, () => {
     expect(validRefused.filter((t) => t.startsWith("action")), `valid inputs refused (seed ${SEED})`).toEqual([]);
     const neverAccepted = surface.map((a) => `action ${a.name}`).filter((t) => !accepted.get(t));
     expect(neverAccepted, "actions whose valid input was refused, so only their schema was fuzzed").toEqual([]);
+    console.log(`[fuzz] seed ${SEED}: ${counts.actions - tried} action inputs; accepted: ${[...accepted].filter(([t]) => t.startsWith("action ")).map(([t, n]) => `${t.slice(7)} ${n}`).join(", ")}`);
+    // At least the inputs planned for every action (see the count check below).
+    expect(counts.actions - tried).toBeGreaterThanOrEqual(plannedActionInputs());
   }, 600_000);
 
   it("sends every body-reading route handler generated bodies; none answers 5xx or leaks", async () => {
     const stripe = getStripe()!;
     const secret = webhookSecret()!;
     expect(stripe && secret, "the payments fake is configured in the test stack").toBeTruthy();
+    const tried = counts.routes;
     for (const [n, route] of bodyRoutes().entries()) {
       // A fresh working set (accepted quote, open link, a note to resolve) for each route.
       state = await freshState();
@@ -425,6 +456,9 @@ describe(`request fuzzing, direct calls (seed ${SEED})`, () => {
     expect(validRefused.filter((t) => t.startsWith("route")), `valid bodies refused (seed ${SEED})`).toEqual([]);
     const neverAccepted = bodyRoutes().map((r) => `route ${r.label}`).filter((t) => !accepted.get(t));
     expect(neverAccepted, "routes whose valid body was refused").toEqual([]);
+    console.log(`[fuzz] seed ${SEED}: ${counts.routes - tried} route bodies; accepted: ${[...accepted].filter(([t]) => t.startsWith("route ")).map(([t, n]) => `${t.slice(6)} ${n}`).join(", ")}`);
+    // At least the bodies planned for every route (see the count check below).
+    expect(counts.routes - tried).toBeGreaterThanOrEqual(plannedRouteBodies());
   }, 600_000);
 
   it("requests every GET route with generated ids and queries; none answers 5xx or leaks", async () => {
@@ -443,9 +477,11 @@ describe(`request fuzzing, direct calls (seed ${SEED})`, () => {
     expect(report("get")).toEqual([]);
   }, 600_000);
 
-  it("tried at least 10,000 generated bodies across actions and body-reading routes", () => {
-    console.log(`[fuzz] seed ${SEED}: ${counts.actions} action inputs, ${counts.routes} route bodies, ${counts.gets} GET requests`);
-    console.log(`[fuzz] accepted: ${[...accepted].map(([t, n]) => `${t.replace(/^(action|route|get) /, "")} ${n}`).join(", ")}`);
-    expect(counts.actions + counts.routes).toBeGreaterThanOrEqual(10_000 * Math.min(1, SCALE));
+  // The two tests above each check they tried at least their planned number; this checks the plan.
+  it("plans at least 10,000 generated bodies across actions and body-reading routes, each tried by its test above", () => {
+    const actions = plannedActionInputs();
+    const routes = plannedRouteBodies();
+    console.log(`[fuzz] seed ${SEED}: at least ${actions} action inputs and ${routes} route bodies planned`);
+    expect(actions + routes).toBeGreaterThanOrEqual(10_000 * Math.min(1, SCALE));
   });
 });

@@ -1,16 +1,19 @@
-import { eq } from "drizzle-orm";
+import { and, eq, sql } from "drizzle-orm";
 import { describe, expect, it } from "vitest";
 import { db } from "@/db/client";
 import { getProofDocument, saveProof } from "@/db/queries/proofs";
 import { createShareLink, hashShareToken, lookupShareToken, recordDecision, revokeShareLink, sendRevision } from "@/db/queries/review";
-import { proofs, shareLinks, shops, users } from "@/db/schema";
+import { proofRevisions, proofs, shareLinks } from "@/db/schema";
+import { shopFactory } from "@/tests/support/factory";
+import { waitUntil } from "@/tests/support/wait";
 
-async function demo(name: string) {
-  const [shop] = await db.select().from(shops).where(eq(shops.slug, "quarry-street-print-co"));
-  const [user] = await db.select().from(users).where(eq(users.email, "owner@chalkline.test"));
-  const [proof] = await db.select().from(proofs).where(eq(proofs.name, name));
-  const document = (await getProofDocument({ shopId: shop!.id, proofId: proof!.id }))!;
-  return { shopId: shop!.id, userId: user!.id, document };
+const shops = shopFactory("review");
+
+/** A shop of this test's own, with its proof unsent; the owner acts. */
+async function ownProof() {
+  const s = await shops.build();
+  const document = (await getProofDocument({ shopId: s.shop.id, proofId: s.proof.id }))!;
+  return { shopId: s.shop.id, userId: s.owner.id, document };
 }
 
 const decision = (proofId: string, letter: string, kind: "approved" | "changes-requested" = "approved") => ({
@@ -28,7 +31,7 @@ const decision = (proofId: string, letter: string, kind: "approved" | "changes-r
 
 describe("share links", () => {
   it("stores only a hash of a 256-bit token, and tells expired and withdrawn links apart from missing ones", async () => {
-    const { shopId, userId, document } = await demo("Market tote");
+    const { shopId, userId, document } = await ownProof();
     const { token, link } = await createShareLink({ shopId, proofId: document.proof.id, permission: "comment", expiresAt: null, recipientEmail: null, recipientName: null, createdBy: userId });
     expect(Buffer.from(token, "base64url").length).toBe(32);
     const [row] = await db.select().from(shareLinks).where(eq(shareLinks.id, link.id));
@@ -47,7 +50,7 @@ describe("share links", () => {
 
 describe("approval", () => {
   it("approves one revision once, locks it, and starts the next letter on the next edit", async () => {
-    const { shopId, userId, document } = await demo("Market tote");
+    const { shopId, userId, document } = await ownProof();
     const revision = await sendRevision({ document, userId });
     const first = await recordDecision(decision(document.proof.id, revision.letter));
     expect(first.ok).toBe(true);
@@ -62,12 +65,19 @@ describe("approval", () => {
   });
 
   it("refuses a decision on a revision that has been replaced", async () => {
-    const { shopId, userId, document } = await demo("Team tee");
+    const { shopId, userId, document } = await ownProof();
     const a = await sendRevision({ document, userId });
     await recordDecision(decision(document.proof.id, a.letter, "changes-requested"));
     await db.update(proofs).set({ revision: "Z" }).where(eq(proofs.id, document.proof.id));
     const moved = (await getProofDocument({ shopId, proofId: document.proof.id }))!;
-    await new Promise((r) => setTimeout(r, 5));
+    // Revisions are ordered by when they were sent: Z must be sent after A, by the database's clock.
+    await waitUntil("the database clock to pass revision A's send time", async () => {
+      const [row] = await db
+        .select({ past: sql<boolean>`clock_timestamp() > ${proofRevisions.sentAt}` })
+        .from(proofRevisions)
+        .where(and(eq(proofRevisions.proofId, document.proof.id), eq(proofRevisions.letter, a.letter)));
+      return row?.past === true;
+    });
     await sendRevision({ document: moved, userId });
     const stale = await recordDecision(decision(document.proof.id, a.letter));
     expect(stale).toEqual({ ok: false, message: `Revision ${a.letter} has been replaced by revision Z. Look at the newest one first.` });

@@ -1,22 +1,21 @@
-import { eq } from "drizzle-orm";
+import { randomBytes } from "node:crypto";
 import { NextRequest } from "next/server";
 import { beforeAll, describe, expect, it } from "vitest";
 import { authCookies, getAuthOptions, SIGN_IN_LIMIT_MESSAGE, takeSignInAttempt, usesSecureCookies } from "@/app/_server/auth";
 import { POST as postAuth } from "@/app/api/auth/[...nextauth]/route";
 import { GET as getComments, POST as postComment } from "@/app/api/review/[kind]/[key]/comments/route";
 import { POST as postDecision } from "@/app/api/review/[kind]/[key]/decision/route";
-import { db } from "@/db/client";
 import { createShareLink } from "@/db/queries/review";
-import { proofs, shops, users } from "@/db/schema";
+import { shopFactory } from "@/tests/support/factory";
+import { noteOnFailure } from "@/tests/support/failure-notes";
 
+const shops = shopFactory("security");
 let commentToken = "";
 let approveToken = "";
 
 beforeAll(async () => {
-  const [shop] = await db.select().from(shops).where(eq(shops.slug, "quarry-street-print-co"));
-  const [user] = await db.select().from(users).where(eq(users.email, "owner@chalkline.test"));
-  const [proof] = await db.select().from(proofs).where(eq(proofs.name, "Market tote"));
-  const base = { shopId: shop!.id, proofId: proof!.id, expiresAt: null, recipientEmail: null, recipientName: null, createdBy: user!.id };
+  const s = await shops.build({ sent: true });
+  const base = { shopId: s.shop.id, proofId: s.proof.id, expiresAt: null, recipientEmail: null, recipientName: null, createdBy: s.owner.id };
   commentToken = (await createShareLink({ ...base, permission: "comment" })).token;
   approveToken = (await createShareLink({ ...base, permission: "approve" })).token;
 });
@@ -55,7 +54,8 @@ describe("rate limits on the public review endpoints", () => {
 
 describe("password sign-in limit", () => {
   it("answers 429 with the message the sign-in form shows once an address has used its attempts", async () => {
-    const email = `Limit-${Date.now()}@Chalkline.test`;
+    const email = `Limit-${randomBytes(4).toString("hex")}@Chalkline.test`;
+    noteOnFailure("sign-in limit address", email);
     for (let i = 0; i < 10; i += 1) expect(takeSignInAttempt(email)).toBe(true);
     const request = new NextRequest("http://localhost/api/auth/callback/credentials", {
       method: "POST",

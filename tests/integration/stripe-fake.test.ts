@@ -2,6 +2,7 @@
  * The local payments fake against the real `stripe` SDK, over HTTP, without a browser and
  * without a database. A tiny node:http server in this file plays the app's webhook route.
  */
+import { randomBytes } from "node:crypto";
 import { mkdtemp, readdir, rm } from "node:fs/promises";
 import http from "node:http";
 import type { AddressInfo } from "node:net";
@@ -15,13 +16,16 @@ import {
   stripeClientOptions,
   type StripeFake,
 } from "@/scripts/fakes/stripe";
+import { noteOnFailure } from "@/tests/support/failure-notes";
+import { Arrivals } from "@/tests/support/wait";
 
 const SECRET_KEY = "sk_test_chalklineIntegration0123456789";
 const WEBHOOK_SECRET = "whsec_chalklineIntegrationSecret";
 
 type Hook = { rawBody: string; signature: string; contentType: string; type: string; id: string };
 
-const hooks: Hook[] = [];
+/** Webhook deliveries the receiver accepted, in order; a test can wait for the next one it expects. */
+const hooks = new Arrivals<Hook>();
 /** How many of the next webhook deliveries the receiver answers with 500. */
 let failNext = 0;
 let receiver: http.Server;
@@ -86,16 +90,6 @@ async function submitPage(id: string, body: string): Promise<Response> {
   });
 }
 
-async function waitFor<T>(fn: () => T | undefined, ms = 5000): Promise<T> {
-  const until = Date.now() + ms;
-  for (;;) {
-    const v = fn();
-    if (v !== undefined) return v;
-    if (Date.now() > until) throw new Error("timed out waiting");
-    await new Promise((r) => setTimeout(r, 20));
-  }
-}
-
 beforeAll(async () => {
   dir = await mkdtemp(path.join(os.tmpdir(), "chalkline-payments-fake-"));
   receiver = http.createServer((req, res) => {
@@ -132,7 +126,7 @@ afterAll(async () => {
 });
 
 beforeEach(() => {
-  hooks.length = 0;
+  hooks.clear();
   failNext = 0;
 });
 
@@ -194,8 +188,8 @@ describe("paying through the hosted page", () => {
     expect(res.headers.get("location")).toBe(`http://localhost:3000/pay/done?session=${s.id}`);
 
     // Delivered before the redirect: both events are already here, in order.
-    expect(hooks.map((h) => h.type)).toEqual(["checkout.session.completed", "payment_intent.succeeded"]);
-    const [completedHook, succeededHook] = hooks as [Hook, Hook];
+    expect(hooks.items.map((h) => h.type)).toEqual(["checkout.session.completed", "payment_intent.succeeded"]);
+    const [completedHook, succeededHook] = hooks.items as [Hook, Hook];
     expect(completedHook.contentType).toBe("application/json; charset=utf-8");
     expect(completedHook.signature).toMatch(/^t=\d+,v1=[0-9a-f]{64}$/);
 
@@ -247,7 +241,7 @@ describe("paying through the hosted page", () => {
   it("a tampered body, a wrong secret or an old timestamp fails constructEvent", async () => {
     const s = await createSession();
     await submitPage(s.id, "action=pay");
-    const hook = hooks[0]!;
+    const hook = hooks.items[0]!;
     const tampered = hook.rawBody.replace('"amount_total": 2599', '"amount_total": 1');
     expect(tampered).not.toBe(hook.rawBody);
     expect(() => stripe.webhooks.constructEvent(tampered, hook.signature, WEBHOOK_SECRET)).toThrow(
@@ -266,10 +260,10 @@ describe("paying through the hosted page", () => {
   it("paying a completed session again only redirects, without new events", async () => {
     const s = await createSession();
     await submitPage(s.id, "action=pay");
-    const count = hooks.length;
+    const count = hooks.items.length;
     const again = await submitPage(s.id, "action=pay");
     expect(again.status).toBe(303);
-    expect(hooks.length).toBe(count);
+    expect(hooks.items.length).toBe(count);
   });
 
   it("decline keeps the session open and sends the browser to cancel_url", async () => {
@@ -277,7 +271,7 @@ describe("paying through the hosted page", () => {
     const res = await submitPage(s.id, "action=decline");
     expect(res.status).toBe(303);
     expect(res.headers.get("location")).toBe("http://localhost:3000/pay/cancelled");
-    expect(hooks).toEqual([]);
+    expect(hooks.items).toEqual([]);
     const after = await stripe.checkout.sessions.retrieve(s.id);
     expect(after).toMatchObject({ status: "open", payment_status: "unpaid", url: s.url });
   });
@@ -291,7 +285,7 @@ describe("webhook delivery", () => {
     const res = await fetch(`${fake.url}/__fake/resend/${first.id}`, { method: "POST", headers: { "x-fake-key": fake.adminKey } });
     expect(res.status).toBe(200);
     expect(await res.json()).toMatchObject({ eventId: first.id, delivered: true });
-    const again = hooks.filter((h) => h.id === first.id);
+    const again = hooks.items.filter((h) => h.id === first.id);
     expect(again).toHaveLength(2);
     expect(again[1]!.rawBody).toBe(first.rawBody);
     expect(stripe.webhooks.constructEvent(again[1]!.rawBody, again[1]!.signature, WEBHOOK_SECRET).id).toBe(
@@ -315,7 +309,7 @@ describe("webhook delivery", () => {
     const s = await createSession();
     const expired = await stripe.checkout.sessions.expire(s.id);
     expect(expired).toMatchObject({ id: s.id, status: "expired", url: null });
-    const hook = await waitFor(() => hooks.find((h) => h.type === "checkout.session.expired"));
+    const hook = await hooks.next("the checkout.session.expired webhook", (h) => h.type === "checkout.session.expired");
     const event = stripe.webhooks.constructEvent(hook.rawBody, hook.signature, WEBHOOK_SECRET);
     expect((event.data.object as Stripe.Checkout.Session).id).toBe(s.id);
     await expect(stripe.checkout.sessions.expire(s.id)).rejects.toBeInstanceOf(
@@ -371,7 +365,8 @@ describe("errors the SDK turns into its own error classes", () => {
   });
 
   it("the same idempotency key replays; with other parameters it is refused", async () => {
-    const key = `idem-${Date.now()}`;
+    const key = `idem-${randomBytes(6).toString("hex")}`;
+    noteOnFailure("idempotency key", key);
     const a = await stripe.checkout.sessions.create(
       {
         mode: "payment",
@@ -410,7 +405,7 @@ describe("storage", () => {
   it("keeps sessions and events across a restart", async () => {
     const s = await createSession();
     await submitPage(s.id, "action=pay");
-    const eventId = hooks[0]!.id;
+    const eventId = hooks.items[0]!.id;
     expect(await readdir(path.join(dir, "checkout_sessions"))).toContain(`${s.id}.json`);
     await fake.close();
     fake = await startFake();
@@ -421,6 +416,6 @@ describe("storage", () => {
     expect(event.type).toBe("checkout.session.completed");
     const res = await fetch(`${fake.url}/__fake/resend/${eventId}`, { method: "POST", headers: { "x-fake-key": fake.adminKey } });
     expect(res.status).toBe(200);
-    expect(hooks.filter((h) => h.id === eventId)).toHaveLength(2);
+    expect(hooks.items.filter((h) => h.id === eventId)).toHaveLength(2);
   });
 });

@@ -5,7 +5,6 @@
  * in a request.
  */
 import { AsyncLocalStorage } from "node:async_hooks";
-import { randomBytes } from "node:crypto";
 import { and, eq, inArray } from "drizzle-orm";
 import { beforeAll, describe, expect, it, vi } from "vitest";
 import type { SessionUser } from "@/app/_server/auth";
@@ -30,10 +29,13 @@ const { auditLog, memberships, shops, users } = await import("@/db/schema");
 const { LAST_OWNER_MESSAGE } = await import("@/lib/access");
 const { describeAudit } = await import("@/lib/audit-text");
 const { addTeamMember, MEMBER_PASSWORD } = await import("@/tests/authz/fixtures");
+const { shopFactory } = await import("@/tests/support/factory");
 
 type Shop = { id: string; slug: string; owner: SessionUser };
 
-const tag = randomBytes(3).toString("hex");
+// The shops signed up here, and the people who joined them, go again after the file.
+const made = shopFactory("team");
+const tag = made.tag;
 let seq = 0;
 const unique = () => `${tag}-${(seq += 1)}`;
 
@@ -45,6 +47,7 @@ function as<T>(user: SessionUser | null, fn: () => Promise<T>): Promise<T> {
 async function newShop(name: string): Promise<Shop> {
   const email = `team-owner-${unique()}@example.test`;
   const { userId, shopSlug } = await createShopWithOwner({ shopName: `${name} ${tag}`, name: "Wren Calder", email, passwordHash: "not-used" });
+  made.adopt({ shopSlugs: [shopSlug], userIds: [userId] });
   const [shop] = await db.select({ id: shops.id, slug: shops.slug }).from(shops).where(eq(shops.slug, shopSlug));
   return { ...shop!, owner: { id: userId, email, name: "Wren Calder" } };
 }
@@ -92,7 +95,8 @@ describe("a shop's team, from invitation to removal", () => {
     const changed = await as(shop.owner, () => changeMemberRoleAction({ shopSlug: shop.slug, memberId: member.id, role: "production" }));
     expect(changed).toMatchObject({ ok: true, data: { memberId: member.id, role: "production", self: false, changed: true, message: "Juno Park is now production." } });
     expect(await roleOf(member.id)).toBe("production");
-    const [roleEntry] = await auditOf(shop.id, ["member.role-changed"]);
+    // This member's entries only: other tests share the shop, in whatever order they run.
+    const [roleEntry] = (await auditOf(shop.id, ["member.role-changed"])).filter((e) => e.subjectId === member.id);
     expect(roleEntry).toMatchObject({ actorUserId: shop.owner.id, subjectType: "membership", subjectId: member.id, detail: { email, from: "designer", role: "production" } });
     expect(describeAudit(roleEntry!.action, roleEntry!.detail ?? {})).toBe(`The role of ${email} changed from designer to production.`);
 
@@ -101,7 +105,7 @@ describe("a shop's team, from invitation to removal", () => {
     expect(await roleOf(member.id)).toBeUndefined();
     // The account stays; only the place on this team goes.
     expect(await db.select({ id: users.id }).from(users).where(eq(users.id, member.userId))).toHaveLength(1);
-    const [removedEntry] = await auditOf(shop.id, ["member.removed"]);
+    const [removedEntry] = (await auditOf(shop.id, ["member.removed"])).filter((e) => e.subjectId === member.id);
     expect(removedEntry).toMatchObject({ actorUserId: shop.owner.id, subjectId: member.id, detail: { email, role: "production" } });
 
     // Removed, they are no one to this shop.
@@ -226,6 +230,7 @@ describe("who may change the team", () => {
     await createClient({ shopId: shop.id, actorUserId: shop.owner.id, input: { name: `Harbour Rowing ${tag}`, notes: null, taxExempt: false, contacts: [{ name: "Cato Rell", email: clientEmail, phone: null }] } });
     // The client proved the address (opened a link sent to it), so the contact is theirs.
     const [clientUser] = await db.insert(users).values({ email: clientEmail, name: "Cato Rell", emailVerified: new Date() }).returning({ id: users.id });
+    made.adopt({ userIds: [clientUser!.id] });
     await linkContactsToUser({ userId: clientUser!.id });
     const client: SessionUser = { id: clientUser!.id, email: clientEmail, name: "Cato Rell" };
     const { invitationId } = await createInvitation({ shopId: shop.id, email: `team-pending-${unique()}@example.test`, role: "designer", invitedBy: shop.owner.id });

@@ -21,6 +21,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { z } from "zod";
 import { uploadthingConfig } from "@/app/_server/uploadthing-config";
 import { fakeToken, startUploadthingFake, type UploadthingFake } from "@/scripts/fakes/uploadthing";
+import { Arrivals, waitUntil } from "@/tests/support/wait";
 
 const APP_ID = "chalkline-test-app";
 const API_KEY = `sk_test_${randomBytes(12).toString("hex")}`;
@@ -34,8 +35,9 @@ type Hook = { path: string; hook: string; signature: string; body: string };
 type Presigned = { url: string; key: string; name: string; customId: string | null };
 
 const hooks: Hook[] = [];
-const completions: Array<{ metadata: unknown; key: string; ufsUrl: string }> = [];
-const fakeLog: string[] = [];
+/** Upload callbacks the app's file router ran, and the fake's log lines: tests wait on these, never on time. */
+const completions = new Arrivals<{ metadata: unknown; key: string; ufsUrl: string }>();
+const fakeLog = new Arrivals<string>();
 const savedEnv = { ...process.env };
 
 let fake: UploadthingFake;
@@ -129,14 +131,18 @@ async function signedByHand(key: string, data: Record<string, string | number>, 
   );
 }
 
-/** Sends the first `sent` bytes of a multipart PUT body, then drops the connection. */
+/**
+ * Sends the first `sent` bytes of a multipart PUT body, waits until the fake has stored them (all
+ * but the few it holds back while it looks for the closing boundary), then drops the connection.
+ */
 async function interruptedPut(url: string, bytes: Buffer, sent: number): Promise<void> {
   const boundary = "----chalklineboundary";
   const head = Buffer.from(`--${boundary}\r\nContent-Disposition: form-data; name="file"; filename="large.png"\r\nContent-Type: image/png\r\n\r\n`);
   const tail = Buffer.from(`\r\n--${boundary}--\r\n`);
   const target = new URL(url);
-  await new Promise<void>((resolve) => {
-    const req = http.request({
+  let req: http.ClientRequest | undefined;
+  const dropped = new Promise<void>((resolve) => {
+    req = http.request({
       host: target.hostname,
       port: target.port,
       path: `${target.pathname}${target.search}`,
@@ -148,19 +154,15 @@ async function interruptedPut(url: string, bytes: Buffer, sent: number): Promise
       },
     });
     req.on("error", () => resolve());
+    req.on("close", () => resolve());
     req.write(head);
-    req.write(bytes.subarray(0, sent), () => setTimeout(() => (req.destroy(), resolve()), 100));
+    req.write(bytes.subarray(0, sent));
   });
-}
-
-async function waitFor<T>(probe: () => T | undefined | Promise<T | undefined>, what: string, ms = 5000): Promise<T> {
-  const deadline = Date.now() + ms;
-  for (;;) {
-    const v = await probe();
-    if (v !== undefined) return v;
-    if (Date.now() > deadline) throw new Error(`timed out waiting for ${what}`);
-    await new Promise((r) => setTimeout(r, 25));
-  }
+  // The multipart reader keeps back one byte less than a delimiter line until more arrive.
+  const heldBack = `\r\n--${boundary}`.length - 1;
+  await waitUntil(`the fake to store ${sent - heldBack} of the ${sent} bytes sent`, async () => (await rangeStart(url)).start >= sent - heldBack);
+  req!.destroy();
+  await dropped;
 }
 
 beforeAll(async () => {
@@ -293,7 +295,7 @@ describe("upload round trip through the SDK", () => {
     const presigned = await presignOne("large.png", bytes);
 
     await interruptedPut(presigned.url, bytes, 200 * 1024);
-    await waitFor(() => fakeLog.find((l) => l.startsWith(`${presigned.key}: upload interrupted`)), "the interruption to be noticed");
+    await fakeLog.next("the fake to notice the interruption", (l) => l.startsWith(`${presigned.key}: upload interrupted`));
 
     const { status, start } = await rangeStart(presigned.url);
     expect(status).toBe(200);
@@ -325,7 +327,7 @@ describe("upload round trip through the SDK", () => {
     const res = await put(presigned.url, data, "text/plain", "notes.txt");
     expect(res.status).toBe(200);
     expect(((await res.json()) as { serverData: unknown }).serverData).toBeNull();
-    await waitFor(() => completions.find((c) => c.key === presigned.key), "the callback");
+    await completions.next("the upload callback", (c) => c.key === presigned.key);
   });
 
   it("also works in the SDK's dev-stream mode (isDev true)", async () => {
@@ -334,8 +336,8 @@ describe("upload round trip through the SDK", () => {
     expect(res.status).toBe(200);
     expect(((await res.json()) as { serverData: unknown }).serverData).toEqual({ echoed: "note for dev.png", key: presigned.key });
     // The SDK held the route-metadata request open and forwarded the streamed callback itself.
-    expect(fakeLog).toContain('route metadata: 1 file(s) for "test" (dev stream)');
-    expect(fakeLog.some((l) => l.startsWith("callback delivered") && l.includes("/dev/"))).toBe(false);
+    expect(fakeLog.items).toContain('route metadata: 1 file(s) for "test" (dev stream)');
+    expect(fakeLog.items.some((l) => l.startsWith("callback delivered") && l.includes("/dev/"))).toBe(false);
     const hook = hooks.find((h) => h.path === "/dev/api/uploadthing?slug=test" && h.body.includes(presigned.key));
     expect(hook).toBeDefined();
     expect(await sdkVerifies(hook!.body, hook!.signature)).toBe(true);
