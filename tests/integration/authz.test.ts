@@ -15,7 +15,7 @@ import { createExport, markExport } from "@/db/queries/production";
 import { getProofDocument } from "@/db/queries/proofs";
 import { createShareLink } from "@/db/queries/review";
 import { createInvitation, createShopWithOwner } from "@/db/queries/shops";
-import { invitations, memberships, proofs, shops } from "@/db/schema";
+import { proofs } from "@/db/schema";
 import { DEFAULT_PRICE_MATRIX } from "@/lib/pricing";
 import { ACTION_ROWS, ACTORS, outcomeLabel, type Actor, type ActionOutcome, type ActionRow } from "@/tests/authz/matrix";
 import { addTeamMember, authzBaseOf, blankFormValues, buildAuthzFixture, insertArt, insertProof, jobFormInput, LIBRARY_TEE, type AuthzFixture, type FixtureUser } from "@/tests/authz/fixtures";
