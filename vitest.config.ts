@@ -35,6 +35,8 @@ export default defineConfig({
           name: "integration",
           include: ["tests/integration/**/*.test.ts"],
           environment: "node",
+          // As scripts/serve.ts does: handlers believe the client address header, which tests set.
+          env: { CHALKLINE_CLIENT_ADDRESS: "stamped" },
           fileParallelism: false,
           testTimeout: 30_000,
           hookTimeout: 60_000,

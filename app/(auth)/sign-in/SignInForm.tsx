@@ -48,7 +48,8 @@ export function SignInForm({ callbackUrl, initialError, signedOut }: Props) {
     });
     setBusy(false);
     if (!result || result.error) {
-      setError("We could not send a link to that address. Check it, or use your password.");
+      // Past the link limits the answer is a 429 whose error is already in words.
+      setError(result?.status === 429 && result.error ? result.error : "We could not send a link to that address. Check it, or use your password.");
       return;
     }
     if (result.url && result.url.includes("error=")) {

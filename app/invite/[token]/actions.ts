@@ -3,6 +3,8 @@
 import bcrypt from "bcryptjs";
 import { z } from "zod";
 import type { ActionResult } from "@/app/_server/access";
+import { actionClientAddress } from "@/app/_server/client-address";
+import { addressSubject, LIMITS, takeLimits, UNAVAILABLE_MESSAGE } from "@/app/_server/rate-limit";
 import { acceptInvitation } from "@/db/queries/shops";
 import { parseInput } from "@/lib/input";
 
@@ -12,9 +14,14 @@ const schema = z.object({
   password: z.string().min(10, "Use at least 10 characters.").max(200).optional(),
 });
 
+const INVITE_LIMIT_MESSAGE = "Too many tries with invitations. Wait a few minutes and try again.";
+
 export async function acceptInvitationAction(input: z.input<typeof schema>): Promise<ActionResult<{ shopSlug: string; email: string }>> {
   const parsed = parseInput(schema, input);
   if (!parsed.success) return { ok: false, error: "Check the highlighted fields.", fieldErrors: z.flattenError(parsed.error).fieldErrors };
+  // Per address, then per invitation: guessing tokens, or hashing passwords on our time, goes nowhere.
+  const taken = await takeLimits({ rule: LIMITS.inviteAddress, subject: addressSubject(await actionClientAddress()) }, { rule: LIMITS.inviteToken, subject: parsed.data.token });
+  if (!taken.ok) return { ok: false, error: taken.status === 429 ? INVITE_LIMIT_MESSAGE : UNAVAILABLE_MESSAGE, status: taken.status };
   const passwordHash = parsed.data.password ? await bcrypt.hash(parsed.data.password, 10) : undefined;
   const result = await acceptInvitation({ token: parsed.data.token, name: parsed.data.name, passwordHash });
   if (!result.ok) return { ok: false, error: result.message };
