@@ -1,3 +1,4 @@
+import { request as httpRequest } from "node:http";
 import { chromium, type Browser, type BrowserContext, type Page } from "playwright-core";
 import { expect } from "vitest";
 
@@ -47,21 +48,55 @@ function absorb(jar: Map<string, string>, response: Response) {
 }
 const header = (jar: Map<string, string>) => [...jar].map(([k, v]) => `${k}=${v}`).join("; ");
 
+/**
+ * An HTTP request from a chosen loopback address (127.0.0.0/8 is all loopback on Linux), so the app
+ * sees a different client at the socket: how these tests stand in for people on other networks.
+ * The app trusts no proxy in tests, so X-Forwarded-For cannot do that.
+ */
+export async function fetchFrom(source: string, url: string, init: { method?: string; headers?: Record<string, string>; body?: string } = {}): Promise<Response> {
+  const target = new URL(url, BASE_URL);
+  const body = init.body === undefined ? undefined : Buffer.from(init.body);
+  return new Promise<Response>((resolve, reject) => {
+    const request = httpRequest(
+      {
+        host: target.hostname === "localhost" ? "127.0.0.1" : target.hostname,
+        port: target.port,
+        path: `${target.pathname}${target.search}`,
+        method: init.method ?? "GET",
+        headers: { host: target.host, ...(body ? { "content-length": String(body.length) } : {}), ...init.headers },
+        localAddress: source,
+      },
+      (response) => {
+        const chunks: Buffer[] = [];
+        response.on("data", (chunk: Buffer) => chunks.push(chunk));
+        response.on("error", reject);
+        response.on("end", () => {
+          const headers = new Headers();
+          for (let i = 0; i + 1 < response.rawHeaders.length; i += 2) headers.append(response.rawHeaders[i]!, response.rawHeaders[i + 1]!);
+          const status = response.statusCode ?? 500;
+          resolve(new Response([101, 204, 205, 304].includes(status) ? null : Buffer.concat(chunks), { status, headers }));
+        });
+      },
+    );
+    request.on("error", reject);
+    request.end(body);
+  });
+}
+
 /** The credentials sign-in a browser form makes: CSRF token, then the callback; returns the session cookies. */
-export async function signInOverHttp(email: string, password: string): Promise<string> {
+export async function signInOverHttp(email: string, password: string, from = "127.0.0.1"): Promise<string> {
   const jar = new Map<string, string>();
-  const csrf = await fetch(`${BASE_URL}/api/auth/csrf`);
+  const csrf = await fetchFrom(from, `${BASE_URL}/api/auth/csrf`);
   absorb(jar, csrf);
   const { csrfToken } = (await csrf.json()) as { csrfToken: string };
-  const callback = await fetch(`${BASE_URL}/api/auth/callback/credentials`, {
+  const callback = await fetchFrom(from, `${BASE_URL}/api/auth/callback/credentials`, {
     method: "POST",
-    redirect: "manual",
     headers: { "content-type": "application/x-www-form-urlencoded", cookie: header(jar) },
-    body: new URLSearchParams({ csrfToken, email, password, callbackUrl: `${BASE_URL}/home`, json: "true" }),
+    body: new URLSearchParams({ csrfToken, email, password, callbackUrl: `${BASE_URL}/home`, json: "true" }).toString(),
   });
   absorb(jar, callback);
   const cookie = header(jar);
-  const session = (await (await fetch(`${BASE_URL}/api/auth/session`, { headers: { cookie } })).json()) as { user?: { email?: string } };
+  const session = (await (await fetchFrom(from, `${BASE_URL}/api/auth/session`, { headers: { cookie } })).json()) as { user?: { email?: string } };
   if (session.user?.email !== email) throw new Error(`signing in ${email} did not make a session (callback answered ${callback.status})`);
   return cookie;
 }
