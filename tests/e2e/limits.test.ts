@@ -184,12 +184,16 @@ function acceptActionId(): string {
   return found[0];
 }
 
-async function acceptInvite(from: string, token: string): Promise<string> {
-  const response = await fetchFrom(from, `/invite/${token}`, {
+function postAccept(from: string, token: string, headers: Record<string, string> = {}): Promise<Response> {
+  return fetchFrom(from, `/invite/${token}`, {
     method: "POST",
-    headers: { "next-action": acceptActionId(), "content-type": "text/plain;charset=UTF-8", accept: "text/x-component", origin: new URL(BASE_URL).origin },
+    headers: { "next-action": acceptActionId(), "content-type": "text/plain;charset=UTF-8", accept: "text/x-component", origin: new URL(BASE_URL).origin, ...headers },
     body: JSON.stringify([{ token, name: "Tam Reed", password: "a-long-enough-password" }]),
   });
+}
+
+async function acceptInvite(from: string, token: string): Promise<string> {
+  const response = await postAccept(from, token);
   expect(response.status).toBe(200);
   return response.text();
 }
@@ -206,6 +210,15 @@ describe("invitation accept limits", () => {
 });
 
 describe("forwarded addresses from clients", () => {
+  it("ignores an X-Forwarded-Host a client wrote: an action posted from another origin that claims to be that host does not run", async () => {
+    const token = `no-such-invitation-${tag}-host-0000000`;
+    // The same call from our own origin runs and says the invitation is not valid.
+    expect(await (await postAccept("127.0.61.1", token)).text()).toContain("This invitation link is not valid.");
+    const forged = await postAccept("127.0.61.2", token, { origin: "http://elsewhere.test", "x-forwarded-host": "elsewhere.test" });
+    expect(forged.status).not.toBe(200);
+    expect(await forged.text()).not.toContain("This invitation link is not valid.");
+  });
+
   it("rotating X-Forwarded-For does not reset the note limit", async () => {
     const { token } = await createShareLink({ shopId: shop.id, proofId: records.proofId, permission: "comment", expiresAt: null, recipientEmail: null, recipientName: null, createdBy: ownerId });
     const note = (i: number) =>
