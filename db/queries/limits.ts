@@ -20,7 +20,17 @@ function limiter(rule: LimitRule, pool: Pool): RateLimiterPostgres {
   if (!byRule) limiters.set(pool, (byRule = new Map()));
   let found = byRule.get(rule.name);
   if (!found) {
-    found = new RateLimiterPostgres({ storeClient: pool, storeType: "pool", tableName: "rate_limits", tableCreated: true, keyPrefix: rule.name, points: rule.points, duration: rule.durationSeconds });
+    found = new RateLimiterPostgres({
+      storeClient: pool,
+      storeType: "pool",
+      tableName: "rate_limits",
+      tableCreated: true,
+      keyPrefix: rule.name,
+      points: rule.points,
+      duration: rule.durationSeconds,
+      // The sweep of ended windows covers the whole table: the first store on a pool runs it for all.
+      clearExpiredByTimeout: byRule.size === 0,
+    });
     byRule.set(rule.name, found);
   }
   return found;

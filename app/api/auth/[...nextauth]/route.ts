@@ -104,7 +104,8 @@ function forNextAuth(request: NextRequest, read: Extract<Read, { ok: true }>): N
   let body: string;
   if (read.encoding === "json") {
     headers.set("content-type", "application/json");
-    body = read.fields.size === 0 ? "" : JSON.stringify(Object.fromEntries(read.fields));
+    // Always an object, "{}" when empty: next-auth parses a JSON body whatever it holds.
+    body = JSON.stringify(Object.fromEntries(read.fields));
   } else {
     headers.set("content-type", "application/x-www-form-urlencoded");
     body = new URLSearchParams([...read.fields].map(([k, v]) => [k, String(v)])).toString();
@@ -112,10 +113,13 @@ function forNextAuth(request: NextRequest, read: Extract<Read, { ok: true }>): N
   return new NextRequest(request.url, { method: "POST", headers, body });
 }
 
-/** Whether next-auth's answer signs someone in (it sets a session cookie with a value). */
+/** Whether next-auth's answer signs someone in: it sets a session cookie (or the first chunk of one) with a value. */
 function signsIn(response: Response): boolean {
-  const name = `${authCookies(usesSecureCookies()).sessionToken!.name}=`;
-  return response.headers.getSetCookie().some((line) => line.startsWith(name) && !line.startsWith(`${name};`));
+  const name = authCookies(usesSecureCookies()).sessionToken!.name;
+  return response.headers.getSetCookie().some((line) => {
+    const [cookieName = "", ...value] = line.split(";")[0]!.split("=");
+    return (cookieName === name || cookieName === `${name}.0`) && value.join("=") !== "";
+  });
 }
 
 /** A refusal next-auth's client shows in words: it reads `error` from the url it is given back. */
