@@ -38,6 +38,8 @@ export default defineConfig({
           environment: "node",
           // Every failure names the random tags, names and seeds its file made (tests/support/failure-notes.ts).
           setupFiles: ["tests/support/failure-notes.ts"],
+          // As scripts/serve.ts does: handlers believe the client address header, which tests set.
+          env: { CHALKLINE_CLIENT_ADDRESS: "stamped" },
           fileParallelism: false,
           testTimeout: 30_000,
           hookTimeout: 60_000,

@@ -11,7 +11,6 @@ import { getDb } from "@/db/client";
 import { linkContactsToUser, listMemberships } from "@/db/queries/access";
 import { findUserByEmail, normalizeEmail } from "@/db/queries/users";
 import { accounts, sessions, users, verificationTokens } from "@/db/schema";
-import { takeToken } from "./rate-limit";
 import { composeMail } from "./emails";
 import { sendMail } from "./mail";
 import { findContactByEmail } from "@/db/queries/contacts";
@@ -22,13 +21,20 @@ const credentialsSchema = z.object({
   password: z.string().min(1).max(200),
 });
 
-/** Password attempts per e-mail address: 10 at once, then one every 12 s. */
-const SIGN_IN_LIMIT = { capacity: 10, refillPerMinute: 5 };
-export const SIGN_IN_LIMIT_MESSAGE = "Too many sign-in attempts. Wait a minute and try again.";
+/** Shown when password attempts from an address, or for an account, are used up (limits in rate-limit.ts). */
+export const SIGN_IN_LIMIT_MESSAGE = "Too many sign-in attempts. Wait a few minutes and try again, or sign in with an e-mail link.";
+export const SIGN_IN_LINK_LIMIT_MESSAGE = "Too many sign-in links asked for. Wait a while and try again, or use your password.";
 
-/** Takes one password attempt for this address; false once it has used them up. */
-export function takeSignInAttempt(rawEmail: string): boolean {
-  return takeToken(`sign-in:${normalizeEmail(rawEmail)}`, SIGN_IN_LIMIT);
+const linkEmailSchema = z.string().trim().email().max(320);
+
+/**
+ * The address a sign-in link goes to, exactly as next-auth will use it (it is the provider's
+ * normalizer) and as the per-recipient limit counts it; null for anything that is not one plain
+ * address, which gets no e-mail.
+ */
+export function signInLinkRecipient(raw: unknown): string | null {
+  const parsed = parseInput(linkEmailSchema, raw);
+  return parsed.success ? normalizeEmail(parsed.data) : null;
 }
 
 /**
@@ -36,15 +42,6 @@ export function takeSignInAttempt(rawEmail: string): boolean {
  * account's address was never proven: the sign-in form explains it and offers to send the link again.
  */
 export const EMAIL_UNPROVEN = "EmailUnproven";
-
-/** Links e-mailed per address: 5 at once, then one a minute (a resend button must not become a mail cannon). */
-const LINK_LIMIT = { capacity: 5, refillPerMinute: 1 };
-export const LINK_LIMIT_MESSAGE = "We have sent several links to this address just now. Wait a minute, then ask again.";
-
-/** Takes one e-mailed link for this address; false once it has used them up. */
-export function takeSignInLink(rawEmail: string): boolean {
-  return takeToken(`sign-in-link:${normalizeEmail(rawEmail)}`, LINK_LIMIT);
-}
 
 /**
  * The e-mail with a sign-in link. For an account whose address is not proven yet, the mail says
@@ -126,7 +123,8 @@ export function getAuthOptions(): NextAuthOptions {
         async authorize(raw) {
           const parsed = parseInput(credentialsSchema, raw);
           if (!parsed.success) return null;
-          // Attempts are counted per address in the route handler, before this runs (429 past the limit).
+          // Failed attempts are counted per client address and per account in the route handler,
+          // from the same fields, before this runs (429 past either limit).
           const email = normalizeEmail(parsed.data.email);
           const user = await findUserByEmail({ email });
           if (!user?.passwordHash) return null;
@@ -143,6 +141,11 @@ export function getAuthOptions(): NextAuthOptions {
         // The transport is ours (see mail.ts); the provider only needs a value here.
         server: process.env.SMTP_URL ?? { host: "127.0.0.1", port: Number(process.env.MAIL_FAKE_SMTP_PORT ?? 25) },
         maxAge: 30 * 60,
+        normalizeIdentifier(identifier) {
+          const recipient = signInLinkRecipient(identifier);
+          if (!recipient) throw new Error("Not an e-mail address.");
+          return recipient;
+        },
         async sendVerificationRequest({ identifier, url }) {
           await sendMail(await signInLinkMail(identifier, url));
         },

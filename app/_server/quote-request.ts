@@ -2,8 +2,9 @@ import "server-only";
 import { NextResponse } from "next/server";
 import type { z } from "zod";
 import { holdQuoteBehindProof, resolveQuoteAccess, type QuoteAccess } from "@/app/_server/orders";
-import { takeToken } from "@/app/_server/rate-limit";
-import { clientIp } from "@/app/_server/review";
+import { clientAddress } from "@/app/_server/client-address";
+import { addressSubject, limitResponse, takeLimits } from "@/app/_server/rate-limit";
+import type { LimitRule } from "@/db/queries/limits";
 import { parseInput, readJson } from "@/lib/input";
 
 type Granted<T> = { ok: true; body: T; access: Extract<QuoteAccess, { ok: true }>; ip: string | null };
@@ -16,16 +17,16 @@ export async function readQuoteRequest<S extends z.ZodType<{ link?: string }>>(
   request: Request,
   quoteId: string,
   schema: S,
-  limit: { bucket: string; capacity: number; refillPerMinute: number },
+  limit: LimitRule,
 ): Promise<Granted<z.infer<S>> | { ok: false; response: NextResponse }> {
   const parsed = parseInput(schema, await readJson(request));
   if (!parsed.success) return { ok: false, response: NextResponse.json({ error: parsed.error.issues[0]?.message ?? "That could not be read." }, { status: 400 }) };
   const access = await resolveQuoteAccess(quoteId, parsed.data.link);
   if (!access.ok) return { ok: false, response: NextResponse.json({ error: access.message }, { status: access.status }) };
-  const ip = clientIp(request);
-  if (!takeToken(`${limit.bucket}:${quoteId}:${ip ?? "?"}`, limit)) {
-    return { ok: false, response: NextResponse.json({ error: "Too many tries. Wait a minute and try again." }, { status: 429 }) };
-  }
+  // The address kept with an acceptance as evidence, and counted by the limit.
+  const ip = clientAddress(request);
+  const taken = await takeLimits({ rule: limit, subject: `${quoteId} ${addressSubject(ip)}` });
+  if (!taken.ok) return { ok: false, response: limitResponse(taken, "Too many tries. Wait a minute and try again.") };
   return { ok: true, body: parsed.data, access, ip };
 }
 

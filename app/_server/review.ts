@@ -60,11 +60,6 @@ export async function loadReview(reviewer: Reviewer): Promise<ReviewData | undef
   return { document, revision: await latestRevision({ proofId: reviewer.proofId }) };
 }
 
-export function clientIp(request: Request): string | null {
-  const forwarded = request.headers.get("x-forwarded-for");
-  return forwarded?.split(",")[0]?.trim() || request.headers.get("x-real-ip") || null;
-}
-
 /** Notes, the newest revision's state and the decisions: what both review views poll. */
 export async function reviewState(proofId: string) {
   const [comments, revision, approvals] = await Promise.all([listComments({ proofId }), latestRevision({ proofId }), listApprovals({ proofId })]);

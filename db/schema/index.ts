@@ -8,3 +8,4 @@ export * from "./proofs";
 export * from "./review";
 export * from "./production";
 export * from "./orders";
+export * from "./limits";

@@ -4,6 +4,7 @@ import path from "node:path";
 import { repoRoot, run, sleep } from "./proc";
 
 const NEXT_BIN = path.join(repoRoot, "node_modules", "next", "dist", "bin", "next");
+const TSX_CLI = path.join(repoRoot, "node_modules", "tsx", "dist", "cli.mjs");
 const SOURCES = ["app", "components", "canvas", "db", "lib", "public", "fonts", "next.config.ts", "proxy.ts", "tailwind.config.ts", "postcss.config.mjs", "package-lock.json", "tsconfig.json"];
 
 function newestMtime(entry: string): number {
@@ -33,8 +34,9 @@ export async function buildApp(env: Record<string, string>, log: (line: string) 
   });
 }
 
+/** The app: Next.js behind scripts/serve.ts, which works out each request's client address. */
 export function startNext(opts: { dev: boolean; port: number; env: Record<string, string>; quiet?: boolean }): ChildProcess {
-  const args = [NEXT_BIN, opts.dev ? "dev" : "start", "-p", String(opts.port), "-H", process.env.HOST ?? "127.0.0.1"];
+  const args = [TSX_CLI, path.join(repoRoot, "scripts", "serve.ts"), ...(opts.dev ? ["--dev"] : []), "-p", String(opts.port), "-H", process.env.HOST ?? "127.0.0.1"];
   return spawn(process.execPath, args, {
     cwd: repoRoot,
     env: { ...process.env, ...opts.env, NEXT_TELEMETRY_DISABLED: "1" },
@@ -70,8 +72,6 @@ export async function stopChild(child: ChildProcess): Promise<void> {
     child.kill("SIGTERM");
   });
 }
-
-const TSX_CLI = path.join(repoRoot, "node_modules", "tsx", "dist", "cli.mjs");
 
 /** The export worker, a separate process reading jobs from PostgreSQL. */
 export function startWorker(env: Record<string, string>, quiet = false): ChildProcess {

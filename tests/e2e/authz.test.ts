@@ -12,7 +12,7 @@ import { db, getPool } from "@/db/client";
 import { approvals, payments, proofComments } from "@/db/schema";
 import { buildAuthzFixture, type AuthzFixture } from "@/tests/authz/fixtures";
 import { ACTORS, PAGE_ROWS, ROUTE_ROWS, fill, outcomeLabel, rowLabel, type Actor, type HttpOutcome, type PageRow, type RouteRow } from "@/tests/authz/matrix";
-import { BASE_URL, signInOverHttp } from "./support";
+import { BASE_URL, fetchFrom, signInOverHttp } from "./support";
 
 let f: AuthzFixture;
 let ids: Record<string, string>;
@@ -23,7 +23,8 @@ type Answer = { status: number; location: string | null; text: string };
 async function ask(row: PageRow | RouteRow, actor: Actor): Promise<Answer> {
   const method = row.kind === "route" ? row.method : "GET";
   // One address per actor, as if each were on their own device; per-address rate limits stay apart.
-  const headers: Record<string, string> = { "x-forwarded-for": `10.77.0.${ACTORS.indexOf(actor) + 1}` };
+  const from = `127.0.77.${ACTORS.indexOf(actor) + 1}`;
+  const headers: Record<string, string> = {};
   const cookie = cookies[actor];
   if (cookie) headers.cookie = cookie;
   let body: string | undefined;
@@ -37,7 +38,7 @@ async function ask(row: PageRow | RouteRow, actor: Actor): Promise<Answer> {
       headers["content-type"] = "application/json";
     }
   }
-  const response = await fetch(`${BASE_URL}${fill(row.path, ids)}`, { method, headers, body, redirect: "manual" });
+  const response = await fetchFrom(from, `${BASE_URL}${fill(row.path, ids)}`, { method, headers, body });
   return { status: response.status, location: response.headers.get("location"), text: await response.text() };
 }
 

@@ -19,7 +19,7 @@ import { auditLog, payments, placements, proofs, shops } from "@/db/schema";
 import { DEFAULT_PRICE_MATRIX } from "@/lib/pricing";
 import { quoteJob } from "@/lib/quotes";
 import { buildShopRecords, jobFormInput, type ShopRecords } from "@/tests/authz/fixtures";
-import { BASE_URL, signInOverHttp } from "./support";
+import { BASE_URL, fetchFrom, signInOverHttp } from "./support";
 
 const tag = randomBytes(3).toString("hex");
 const password = `quote-proof-${tag}-password`;
@@ -30,7 +30,8 @@ let records: ShopRecords;
 const title = () => `Mill choir tees ${tag}`;
 
 async function post(path: string, body: unknown, ip: string) {
-  const response = await fetch(`${BASE_URL}${path}`, { method: "POST", headers: { "content-type": "application/json", "x-forwarded-for": ip }, body: JSON.stringify(body) });
+  // `ip`: the loopback address the request comes from, so each step has its own per-address limits.
+  const response = await fetchFrom(ip, `${BASE_URL}${path}`, { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify(body) });
   return { status: response.status, type: response.headers.get("content-type") ?? "", body: (await response.json().catch(() => null)) as { error?: string; url?: string } | null };
 }
 
@@ -54,7 +55,7 @@ beforeAll(async () => {
 describe("a client paying for fewer locations than the approved proof", () => {
   it("checking out through the review link answers 409 with words, starts no payment and tells the shop", async () => {
     for (const kind of ["deposit", "full"]) {
-      const answer = await post(`/api/quotes/${records.quoteId}/checkout`, { kind, link: records.linkToken }, "10.91.0.1");
+      const answer = await post(`/api/quotes/${records.quoteId}/checkout`, { kind, link: records.linkToken }, "127.0.91.1");
       expect(answer.status).toBe(409);
       expect(answer.type).toContain("application/json");
       expect(answer.body?.error).toBe("The print shop is updating this quote to match your proof, which also prints on the full back. No payment was started and nothing was charged; the shop will send you the updated quote.");
@@ -84,11 +85,11 @@ describe("a client paying for fewer locations than the approved proof", () => {
     if (!priced.ok || !priced.snapshot) throw new Error(priced.ok ? "no snapshot" : priced.message);
     const quote = await sendQuote({ shopId: shop.id, jobId: records.jobId, snapshot: priced.snapshot, depositPercent: DEFAULT_PRICE_MATRIX.depositPercent, actorUserId: ownerId });
 
-    const answer = await post(`/api/quotes/${quote.id}/accept`, { fullName: "Cass Mill", confirmed: true, link: records.linkToken }, "10.91.0.2");
+    const answer = await post(`/api/quotes/${quote.id}/accept`, { fullName: "Cass Mill", confirmed: true, link: records.linkToken }, "127.0.91.2");
     expect(answer.status).toBe(409);
     expect(answer.body?.error).toContain("The print shop is updating this quote to match your proof");
     expect((await findQuote({ quoteId: quote.id }))?.state).toBe("sent");
-    const checkout = await post(`/api/quotes/${quote.id}/checkout`, { kind: "deposit", link: records.linkToken }, "10.91.0.2");
+    const checkout = await post(`/api/quotes/${quote.id}/checkout`, { kind: "deposit", link: records.linkToken }, "127.0.91.2");
     expect(checkout.status).toBe(409);
     expect(await db.select().from(payments).where(eq(payments.jobId, records.jobId))).toHaveLength(0);
   });

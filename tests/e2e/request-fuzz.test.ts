@@ -18,7 +18,7 @@ import { createShareLink } from "@/db/queries/review";
 import { readAppSurface } from "@/tests/authz/app-surface";
 import { buildAuthzFixture, type AuthzFixture } from "@/tests/authz/fixtures";
 import { actionInput, hostileSegment, leaks, rawBody, type RawBody } from "@/tests/fuzz/hostile";
-import { BASE_URL, signInOverHttp } from "./support";
+import { BASE_URL, fetchFrom, signInOverHttp } from "./support";
 
 const repoRoot = fileURLToPath(new URL("../..", import.meta.url));
 const SEED = Number(process.env.FUZZ_SEED ?? Date.now() % 2 ** 31);
@@ -42,10 +42,11 @@ function show(text: string): string {
 async function send(target: string, url: string, init: { method: string; headers: Record<string, string>; body?: string }, input: string): Promise<Response | null> {
   sent += 1;
   seq += 1;
-  const headers = { "x-forwarded-for": `203.0.113.${seq % 250}`, ...init.headers };
+  // Each request from another loopback address, so per-address limits do not hide the deeper checks.
+  const from = `127.0.${100 + ((seq >> 8) % 100)}.${(seq % 250) + 1}`;
   let response: Response;
   try {
-    response = await fetch(`${BASE_URL}${url}`, { ...init, headers, redirect: "manual" });
+    response = await fetchFrom(from, `${BASE_URL}${url}`, init);
   } catch (error) {
     problems.push({ target, input, what: `the request failed: ${error instanceof Error ? error.message : String(error)}` });
     return null;

@@ -5,7 +5,7 @@ import type { Browser, Page } from "playwright-core";
 import sharp from "sharp";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { fetchProof, openTeeProof, waitSaved } from "./editor-support";
-import { BASE_URL, DEMO_SHOP, launch, newContext, signIn, watchCsp } from "./support";
+import { BASE_URL, DEMO_SHOP, fetchFrom, launch, newContext, signIn, watchCsp } from "./support";
 
 let browser: Browser;
 beforeAll(async () => {
@@ -176,29 +176,30 @@ describe("pages under the policy", () => {
 });
 
 describe("rate limits", () => {
-  it("answers 429 on the eleventh password attempt for one address, and the form says so in words", async () => {
+  it("answers 429 once an account has had its wrong passwords, and the sign-in form says so in words", async () => {
+    // Fifty wrong passwords for one e-mail, ten from each of five addresses (so no address is
+    // locked), use up the account's allowance; the browser then tries it from its own address.
+    const email = `limit-${Date.now()}@chalkline.test`;
+    for (let a = 1; a <= 5; a += 1) {
+      for (let i = 0; i < 10; i += 1) {
+        const csrf = await fetchFrom(`127.0.60.${a}`, "/api/auth/csrf");
+        const cookie = csrf.headers.getSetCookie().map((c) => c.split(";")[0]).join("; ");
+        const { csrfToken } = (await csrf.json()) as { csrfToken: string };
+        const response = await fetchFrom(`127.0.60.${a}`, "/api/auth/callback/credentials", {
+          method: "POST",
+          headers: { cookie, "content-type": "application/x-www-form-urlencoded" },
+          body: new URLSearchParams({ email, password: "not-it", csrfToken, json: "true", callbackUrl: `${BASE_URL}/home` }).toString(),
+        });
+        expect(response.status, await response.text()).toBe(401);
+      }
+    }
     const context = await newContext(browser);
     const page = await context.newPage();
-    const email = `limit-${Date.now()}@chalkline.test`;
-    // Straight at the endpoint first (a page would fetch its own CSRF cookie alongside these).
-    const attempt = async () => {
-      const { csrfToken } = (await (await page.request.get("/api/auth/csrf")).json()) as { csrfToken: string };
-      return page.request.post("/api/auth/callback/credentials", { form: { email, password: "not-it", csrfToken, json: "true", callbackUrl: `${BASE_URL}/home` } });
-    };
-    for (let i = 0; i < 10; i += 1) {
-      const response = await attempt();
-      expect(response.status(), await response.text()).toBe(401);
-    }
-    const limited = await attempt();
-    expect(limited.status()).toBe(429);
-    expect(limited.headers()["retry-after"]).toBe("60");
-    expect(await limited.json()).toMatchObject({ error: "Too many sign-in attempts. Wait a minute and try again." });
-
     await page.goto("/sign-in");
     await page.getByLabel("E-mail").fill(email);
     await page.getByLabel("Password").fill("not-it");
     await page.getByRole("button", { name: "Sign in", exact: true }).click();
-    await page.getByRole("alert").filter({ hasText: "Too many sign-in attempts. Wait a minute and try again." }).waitFor();
+    await page.getByRole("alert").filter({ hasText: "Too many sign-in attempts. Wait a few minutes and try again, or sign in with an e-mail link." }).waitFor();
     await context.close();
   });
 });

@@ -1,3 +1,4 @@
+import { request as httpRequest } from "node:http";
 import { chromium, type Browser, type BrowserContext, type Page } from "playwright-core";
 import { expect } from "vitest";
 
@@ -52,36 +53,69 @@ const header = (jar: Map<string, string>) => [...jar].map(([k, v]) => `${k}=${v}
 export type PasswordAttempt = { cookie: string; status: number; error: string | null; sessionEmail: string | null };
 
 /**
- * The credentials sign-in a browser form makes: CSRF token, then the callback. Says what came of it:
- * the cookies, next-auth's `error` (as its client reads it from the url it answers), and whose
- * session the cookies now carry, if anyone's.
+ * An HTTP request from a chosen loopback address (127.0.0.0/8 is all loopback on Linux), so the app
+ * sees a different client at the socket: how these tests stand in for people on other networks.
+ * The app trusts no proxy in tests, so X-Forwarded-For cannot do that.
  */
-export async function tryPasswordSignIn(email: string, password: string): Promise<PasswordAttempt> {
+export async function fetchFrom(source: string, url: string, init: { method?: string; headers?: Record<string, string>; body?: string } = {}): Promise<Response> {
+  const target = new URL(url, BASE_URL);
+  const body = init.body === undefined ? undefined : Buffer.from(init.body);
+  return new Promise<Response>((resolve, reject) => {
+    const request = httpRequest(
+      {
+        host: target.hostname === "localhost" ? "127.0.0.1" : target.hostname,
+        port: target.port,
+        path: `${target.pathname}${target.search}`,
+        method: init.method ?? "GET",
+        headers: { host: target.host, ...(body ? { "content-length": String(body.length) } : {}), ...init.headers },
+        localAddress: source,
+      },
+      (response) => {
+        const chunks: Buffer[] = [];
+        response.on("data", (chunk: Buffer) => chunks.push(chunk));
+        response.on("error", reject);
+        response.on("end", () => {
+          const headers = new Headers();
+          for (let i = 0; i + 1 < response.rawHeaders.length; i += 2) headers.append(response.rawHeaders[i]!, response.rawHeaders[i + 1]!);
+          const status = response.statusCode ?? 500;
+          resolve(new Response([101, 204, 205, 304].includes(status) ? null : Buffer.concat(chunks), { status, headers }));
+        });
+      },
+    );
+    request.on("error", reject);
+    request.end(body);
+  });
+}
+
+/**
+ * The credentials sign-in a browser form makes: CSRF token, then the callback, from a chosen loopback
+ * address. Says what came of it: the cookies, next-auth's `error` (as its client reads it from the url
+ * it answers), and whose session the cookies now carry, if anyone's.
+ */
+export async function tryPasswordSignIn(email: string, password: string, from = "127.0.0.1"): Promise<PasswordAttempt> {
   const jar = new Map<string, string>();
-  const csrf = await fetch(`${BASE_URL}/api/auth/csrf`);
+  const csrf = await fetchFrom(from, `${BASE_URL}/api/auth/csrf`);
   absorb(jar, csrf);
   const { csrfToken } = (await csrf.json()) as { csrfToken: string };
-  const callback = await fetch(`${BASE_URL}/api/auth/callback/credentials`, {
+  const callback = await fetchFrom(from, `${BASE_URL}/api/auth/callback/credentials`, {
     method: "POST",
-    redirect: "manual",
     headers: { "content-type": "application/x-www-form-urlencoded", cookie: header(jar) },
-    body: new URLSearchParams({ csrfToken, email, password, callbackUrl: `${BASE_URL}/home`, json: "true" }),
+    body: new URLSearchParams({ csrfToken, email, password, callbackUrl: `${BASE_URL}/home`, json: "true" }).toString(),
   });
   absorb(jar, callback);
   const answer = (await callback.json().catch(() => null)) as { url?: string } | null;
   const error = answer?.url ? new URL(answer.url, BASE_URL).searchParams.get("error") : null;
   const cookie = header(jar);
-  const session = (await (await fetch(`${BASE_URL}/api/auth/session`, { headers: { cookie } })).json()) as { user?: { email?: string } };
+  const session = (await (await fetchFrom(from, `${BASE_URL}/api/auth/session`, { headers: { cookie } })).json()) as { user?: { email?: string } };
   return { cookie, status: callback.status, error, sessionEmail: session.user?.email ?? null };
 }
 
 /** The credentials sign-in a browser form makes; returns the session cookies, or throws when no session came of it. */
-export async function signInOverHttp(email: string, password: string): Promise<string> {
-  const attempt = await tryPasswordSignIn(email, password);
+export async function signInOverHttp(email: string, password: string, from = "127.0.0.1"): Promise<string> {
+  const attempt = await tryPasswordSignIn(email, password, from);
   if (attempt.sessionEmail !== email) throw new Error(`signing in ${email} did not make a session (callback answered ${attempt.status}, error ${attempt.error})`);
   return attempt.cookie;
 }
-
 /**
  * After the sign-up form: the "check your e-mail" page, then the link e-mailed to the new address,
  * opened in the same browser. Resolves once the link has signed in and opened the new shop.

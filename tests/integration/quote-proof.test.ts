@@ -71,7 +71,7 @@ async function approve(proofId: string, letter: string) {
 }
 
 function post(route: typeof checkoutRoute, quoteId: string, body: unknown, ip: string) {
-  return route(new Request(`http://localhost/api/quotes/${quoteId}/x`, { method: "POST", headers: { "content-type": "application/json", "x-forwarded-for": ip }, body: JSON.stringify(body) }), { params: Promise.resolve({ quoteId }) });
+  return route(new Request(`http://localhost/api/quotes/${quoteId}/x`, { method: "POST", headers: { "content-type": "application/json", "x-chalkline-client-address": ip }, body: JSON.stringify(body) }), { params: Promise.resolve({ quoteId }) });
 }
 
 async function heldEntries(jobId: string) {

@@ -33,6 +33,16 @@ vi.mock("@/app/_server/auth", async (importOriginal) => ({
   getSessionUser: async () => session.user,
 }));
 vi.mock("next/cache", () => ({ revalidatePath: vi.fn(), revalidateTag: vi.fn() }));
+// Server actions run outside a request here, so they would all share the "unknown" address; each
+// call comes from an address of its own instead, as each route call does (see nextIp).
+const actionAddresses = vi.hoisted(() => ({ seq: 0 }));
+vi.mock("@/app/_server/client-address", async (importOriginal) => ({
+  ...(await importOriginal<typeof import("@/app/_server/client-address")>()),
+  actionClientAddress: async () => {
+    actionAddresses.seq += 1;
+    return `203.0.${(actionAddresses.seq >> 8) & 255}.${actionAddresses.seq & 255}`;
+  },
+}));
 vi.mock("@/app/_server/queue", () => ({
   EXPORT_QUEUE: "chalkline-export",
   queue: () => {
@@ -235,7 +245,7 @@ async function load(file: string): Promise<Record<string, Handler>> {
 }
 
 async function callRoute(target: string, handler: Handler, url: string, method: string, params: Record<string, string>, body: RawBody | null, headers: Record<string, string>): Promise<void> {
-  const init: { method: string; headers: Record<string, string>; body?: string } = { method, headers: { "x-forwarded-for": nextIp(), ...headers } };
+  const init: { method: string; headers: Record<string, string>; body?: string } = { method, headers: { "x-chalkline-client-address": nextIp(), ...headers } };
   if (body) {
     init.body = body.text;
     if (body.contentType) init.headers["content-type"] = body.contentType;

@@ -1,10 +1,14 @@
 import { randomBytes } from "node:crypto";
 import { NextRequest } from "next/server";
 import { beforeAll, describe, expect, it } from "vitest";
-import { authCookies, getAuthOptions, SIGN_IN_LIMIT_MESSAGE, takeSignInAttempt, usesSecureCookies } from "@/app/_server/auth";
+import { Pool } from "pg";
+import { authCookies, getAuthOptions, SIGN_IN_LIMIT_MESSAGE, usesSecureCookies } from "@/app/_server/auth";
+import { LIMITS, takeLimits } from "@/app/_server/rate-limit";
 import { POST as postAuth } from "@/app/api/auth/[...nextauth]/route";
 import { GET as getComments, POST as postComment } from "@/app/api/review/[kind]/[key]/comments/route";
 import { POST as postDecision } from "@/app/api/review/[kind]/[key]/decision/route";
+import { db } from "@/db/client";
+import { consumeLimit, usedLimit } from "@/db/queries/limits";
 import { createShareLink } from "@/db/queries/review";
 import { shopFactory } from "@/tests/support/factory";
 import { noteOnFailure } from "@/tests/support/failure-notes";
@@ -25,7 +29,8 @@ const params = (kind: string, key: string) => ({ params: Promise.resolve({ kind,
 function post(path: string, ip: string, body: unknown = {}) {
   return new Request(`http://localhost${path}`, {
     method: "POST",
-    headers: { "content-type": "application/json", "x-forwarded-for": ip },
+    // The client address as scripts/serve.ts hands it on (the integration project runs as if behind it).
+    headers: { "content-type": "application/json", "x-chalkline-client-address": ip },
     body: JSON.stringify(body),
   });
 }
@@ -52,24 +57,61 @@ describe("rate limits on the public review endpoints", () => {
   });
 });
 
+function credentials(ip: string, type: string, body: string) {
+  const request = new NextRequest("http://localhost/api/auth/callback/credentials", { method: "POST", headers: { "content-type": type, "x-chalkline-client-address": ip }, body });
+  return postAuth(request, { params: Promise.resolve({ nextauth: ["callback", "credentials"] }) });
+}
+
 describe("password sign-in limit", () => {
   it("answers 429 with the message the sign-in form shows once an address has used its attempts", async () => {
-    const email = `Limit-${randomBytes(4).toString("hex")}@Chalkline.test`;
-    noteOnFailure("sign-in limit address", email);
-    for (let i = 0; i < 10; i += 1) expect(takeSignInAttempt(email)).toBe(true);
-    const request = new NextRequest("http://localhost/api/auth/callback/credentials", {
-      method: "POST",
-      headers: { "content-type": "application/x-www-form-urlencoded" },
-      // Counted per address, whatever its case.
-      body: new URLSearchParams({ email: email.toLowerCase(), password: "x", json: "true" }).toString(),
-    });
-    const response = await postAuth(request, { params: Promise.resolve({ nextauth: ["callback", "credentials"] }) });
+    const ip = "198.51.100.20";
+    noteOnFailure("sign-in limit address", ip);
+    for (let i = 0; i < 10; i += 1) expect(await takeLimits({ rule: LIMITS.signInAddress, subject: ip })).toEqual({ ok: true });
+    const response = await credentials(ip, "application/x-www-form-urlencoded", new URLSearchParams({ email: `Limit-${Date.now()}@Chalkline.test`, password: "x", json: "true" }).toString());
     expect(response.status).toBe(429);
-    expect(response.headers.get("retry-after")).toBe("60");
+    expect(Number(response.headers.get("retry-after"))).toBeGreaterThan(500);
     const body = (await response.json()) as { error: string; url: string };
     expect(body.error).toBe(SIGN_IN_LIMIT_MESSAGE);
     expect(new URL(body.url).searchParams.get("error")).toBe(SIGN_IN_LIMIT_MESSAGE);
+    // The same as JSON.
+    expect((await credentials(ip, "application/json", JSON.stringify({ email: "someone@chalkline.test", password: "x" }))).status).toBe(429);
   });
+
+  it("refuses with 415 any content type but a plain form or JSON, whatever its parameters claim", async () => {
+    const body = JSON.stringify({ "a&=": "1", email: "owner@chalkline.test", password: "x" });
+    for (const type of ["application/x-www-form-urlencoded; x=application/json", "application/json; x=application/x-www-form-urlencoded", "text/plain", "application/json;charset=latin1", "application/x-www-form-urlencoded;"]) {
+      expect((await credentials("198.51.100.21", type, body)).status, type).toBe(415);
+    }
+    // Nothing was counted for them.
+    expect(await usedLimit({ rule: LIMITS.signInAddress, subject: "198.51.100.21" })).toBe(0);
+  });
+});
+
+describe("shared limit store", () => {
+  it("a limit reached through one process's pool holds for another process's pool on the same database", async () => {
+    const subject = `shared-${Date.now()}`;
+    for (let i = 0; i < LIMITS.signInAddress.points; i += 1) expect((await consumeLimit({ rule: LIMITS.signInAddress, subject })).allowed).toBe(true);
+    const second = new Pool({ connectionString: process.env.DATABASE_URL, max: 2 });
+    try {
+      expect(await consumeLimit({ rule: LIMITS.signInAddress, subject, pool: second })).toMatchObject({ allowed: false });
+      // And a point taken there is seen here.
+      const other = `shared-other-${Date.now()}`;
+      await consumeLimit({ rule: LIMITS.signInAddress, subject: other, pool: second });
+      expect(await usedLimit({ rule: LIMITS.signInAddress, subject: other })).toBe(1);
+    } finally {
+      await second.end();
+    }
+  });
+
+  it("spraying over 50,000 other subjects does not reset an address that reached its limit", async () => {
+    const ip = "198.51.100.30";
+    for (let i = 0; i < LIMITS.signInAddress.points; i += 1) await consumeLimit({ rule: LIMITS.signInAddress, subject: ip });
+    const stamp = Date.now();
+    const subjects = Array.from({ length: 50_001 }, (_, i) => `spray-${stamp}-${i}@nowhere.test`);
+    // Ten at a time, as many connections as the app's pool has.
+    for (let i = 0; i < subjects.length; i += 10) await Promise.all(subjects.slice(i, i + 10).map((subject) => consumeLimit({ rule: LIMITS.signInAccount, subject })));
+    expect(await consumeLimit({ rule: LIMITS.signInAddress, subject: ip })).toMatchObject({ allowed: false });
+  }, 300_000);
 });
 
 describe("session cookies", () => {

@@ -30,7 +30,8 @@ export function SignInForm({ callbackUrl, initialError, initialEmail, signedOut 
     const result = await signIn("email", { email, callbackUrl: returnTo, redirect: false });
     setBusy(false);
     if (!result || result.error) {
-      setError(linkError(result?.error));
+      // Past the link limits the answer is a 429 whose error is already in words.
+      setError(result?.status === 429 && result.error ? result.error : linkError(result?.error));
       return;
     }
     if (result.url && result.url.includes("error=")) {

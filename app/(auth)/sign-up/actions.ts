@@ -3,7 +3,7 @@
 import bcrypt from "bcryptjs";
 import { z } from "zod";
 import type { ActionResult } from "@/app/_server/access";
-import { takeToken } from "@/app/_server/rate-limit";
+import { LIMITS, takeLimits, UNAVAILABLE_MESSAGE } from "@/app/_server/rate-limit";
 import { createShopWithOwner, EmailTakenError } from "@/db/queries/shops";
 import { parseInput } from "@/lib/input";
 
@@ -21,9 +21,8 @@ export async function signUpAction(input: SignUpInput): Promise<ActionResult<{ s
   if (!parsed.success) {
     return { ok: false, error: "Check the highlighted fields.", fieldErrors: z.flattenError(parsed.error).fieldErrors };
   }
-  if (!takeToken(`sign-up:${parsed.data.email}`, { capacity: 5, refillPerMinute: 1 })) {
-    return { ok: false, error: "Too many attempts. Wait a minute and try again.", status: 429 };
-  }
+  const taken = await takeLimits({ rule: LIMITS.signUp, subject: parsed.data.email });
+  if (!taken.ok) return { ok: false, error: taken.status === 429 ? "Too many attempts. Wait a minute and try again." : UNAVAILABLE_MESSAGE, status: taken.status };
   try {
     const passwordHash = await bcrypt.hash(parsed.data.password, 10);
     const { shopSlug } = await createShopWithOwner({ ...parsed.data, passwordHash });

@@ -1,6 +1,7 @@
 import { NextResponse } from "next/server";
 import { z } from "zod";
 import { readQuoteRequest, refuseQuoteBehindProof } from "@/app/_server/quote-request";
+import { LIMITS } from "@/app/_server/rate-limit";
 import { acceptQuote } from "@/db/queries/orders";
 
 export const dynamic = "force-dynamic";
@@ -14,7 +15,7 @@ const schema = z.object({
 /** The client accepts a sent quote with their typed name; the time, address and browser are kept with it. */
 export async function POST(request: Request, { params }: { params: Promise<{ quoteId: string }> }) {
   const { quoteId } = await params;
-  const req = await readQuoteRequest(request, quoteId, schema, { bucket: "quote-accept", capacity: 6, refillPerMinute: 2 });
+  const req = await readQuoteRequest(request, quoteId, schema, LIMITS.quoteAccept);
   if (!req.ok) return req.response;
   const { access, body, ip } = req;
   if (!access.payer.canAccept) return NextResponse.json({ error: "This link can view the quote but not accept it. Ask the print shop for an approval link." }, { status: 403 });

@@ -1,8 +1,9 @@
 import { NextResponse } from "next/server";
 import { z } from "zod";
 import { notifyClientComment, notifyShopReply } from "@/app/_server/notify";
-import { takeToken } from "@/app/_server/rate-limit";
-import { clientIp, resolveReview, reviewState } from "@/app/_server/review";
+import { clientAddress } from "@/app/_server/client-address";
+import { addressSubject, LIMITS, limitResponse, takeLimits } from "@/app/_server/rate-limit";
+import { resolveReview, reviewState } from "@/app/_server/review";
 import { addComment, latestRevision, listShareLinks, setCommentResolved } from "@/db/queries/review";
 import { parseInput, readJson } from "@/lib/input";
 
@@ -40,8 +41,12 @@ export async function POST(request: Request, { params }: Params) {
   if (!access.ok) return error(access.status, access.message);
   const reviewer = access.reviewer;
   if (!reviewer.canComment) return error(403, "This link lets you look, not comment.");
-  const limitKey = reviewer.kind === "link" ? `comment:${reviewer.link.id}:${clientIp(request) ?? "?"}` : `comment:${reviewer.actor.id}`;
-  if (!takeToken(limitKey, { capacity: 12, refillPerMinute: 6 })) return error(429, "That is a lot of notes at once. Wait a minute and try again.");
+  // Each note e-mails the shop: per link and address, then per link from every address together.
+  const taken =
+    reviewer.kind === "link"
+      ? await takeLimits({ rule: LIMITS.commentLinkAddress, subject: `${reviewer.link.id} ${addressSubject(clientAddress(request))}` }, { rule: LIMITS.commentLink, subject: reviewer.link.id })
+      : await takeLimits({ rule: LIMITS.commentUser, subject: reviewer.actor.id });
+  if (!taken.ok) return limitResponse(taken, "That is a lot of notes at once. Wait a minute and try again.");
   const parsed = parseInput(postSchema, await readJson(request));
   if (!parsed.success) return error(400, parsed.error.issues[0]?.message ?? "That note could not be read.");
   const input = parsed.data;

@@ -1,8 +1,9 @@
 import { NextResponse } from "next/server";
 import { z } from "zod";
 import { notifyDecision } from "@/app/_server/notify";
-import { takeToken } from "@/app/_server/rate-limit";
-import { clientIp, resolveReview } from "@/app/_server/review";
+import { clientAddress } from "@/app/_server/client-address";
+import { addressSubject, LIMITS, limitResponse, takeLimits } from "@/app/_server/rate-limit";
+import { resolveReview } from "@/app/_server/review";
 import { recordDecision } from "@/db/queries/review";
 import { APPROVAL_STATEMENT } from "@/lib/review/approval";
 import { parseInput, readJson } from "@/lib/input";
@@ -31,10 +32,10 @@ export async function POST(request: Request, { params }: { params: Promise<{ kin
   if (!access.ok) return NextResponse.json({ error: access.message }, { status: access.status });
   const reviewer = access.reviewer;
   if (!reviewer.canApprove) return NextResponse.json({ error: "This link cannot approve or request changes." }, { status: 403 });
-  const ip = clientIp(request);
-  if (!takeToken(`decision:${reviewer.kind === "link" ? reviewer.link.id : reviewer.actor.id}:${ip ?? "?"}`, { capacity: 6, refillPerMinute: 2 })) {
-    return NextResponse.json({ error: "Too many tries. Wait a minute and try again." }, { status: 429 });
-  }
+  // The address kept with the decision as evidence, and counted by the limit: the socket's (or a trusted proxy's word).
+  const ip = clientAddress(request);
+  const taken = await takeLimits({ rule: LIMITS.decision, subject: `${reviewer.kind === "link" ? reviewer.link.id : reviewer.actor.id} ${addressSubject(ip)}` });
+  if (!taken.ok) return limitResponse(taken, "Too many tries. Wait a minute and try again.");
   const parsed = parseInput(schema, await readJson(request));
   if (!parsed.success) return NextResponse.json({ error: parsed.error.issues[0]?.message ?? "That could not be read." }, { status: 400 });
   const input = parsed.data;

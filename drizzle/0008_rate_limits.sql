@@ -1,0 +1,7 @@
+CREATE TABLE "rate_limits" (
+	"key" varchar(255) PRIMARY KEY NOT NULL,
+	"points" integer DEFAULT 0 NOT NULL,
+	"expire" bigint
+);
+--> statement-breakpoint
+CREATE INDEX "rate_limits_expire_idx" ON "rate_limits" USING btree ("expire");
