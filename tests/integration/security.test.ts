@@ -1,4 +1,3 @@
-import { randomBytes } from "node:crypto";
 import { NextRequest } from "next/server";
 import { beforeAll, describe, expect, it } from "vitest";
 import { Pool } from "pg";
@@ -7,7 +6,6 @@ import { LIMITS, takeLimits } from "@/app/_server/rate-limit";
 import { POST as postAuth } from "@/app/api/auth/[...nextauth]/route";
 import { GET as getComments, POST as postComment } from "@/app/api/review/[kind]/[key]/comments/route";
 import { POST as postDecision } from "@/app/api/review/[kind]/[key]/decision/route";
-import { db } from "@/db/client";
 import { consumeLimit, usedLimit } from "@/db/queries/limits";
 import { createShareLink } from "@/db/queries/review";
 import { shopFactory } from "@/tests/support/factory";
