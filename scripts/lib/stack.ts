@@ -24,16 +24,30 @@ function log(line: string) {
   console.log(`[chalkline] ${line}`);
 }
 
-/** AUTH_SECRET: taken from the environment, or generated once into .data/ (never committed). */
-export function authSecret(): string {
-  if (process.env.AUTH_SECRET) return process.env.AUTH_SECRET;
+/** A secret of this install: from the environment, or made once into .data/<file> (never committed). */
+function installSecret(envVar: string, file: string, bytes: number): string {
+  const fromEnv = process.env[envVar];
+  if (fromEnv) return fromEnv;
   const dir = path.join(repoRoot, ".data");
   mkdirSync(dir, { recursive: true, mode: 0o755 });
-  const file = path.join(dir, "auth-secret");
-  if (existsSync(file)) return readFileSync(file, "utf8").trim();
-  const secret = randomBytes(32).toString("base64url");
-  writeFileSync(file, `${secret}\n`, { mode: 0o600 });
+  const target = path.join(dir, file);
+  if (existsSync(target)) return readFileSync(target, "utf8").trim();
+  const secret = randomBytes(bytes).toString("base64url");
+  writeFileSync(target, `${secret}\n`, { mode: 0o600 });
   return secret;
+}
+
+/** AUTH_SECRET: taken from the environment, or generated once into .data/. */
+export function authSecret(): string {
+  return installSecret("AUTH_SECRET", "auth-secret", 32);
+}
+
+/**
+ * The key of the local fakes' own pages and APIs (the mail catcher, the payments fake's admin
+ * endpoints): FAKES_KEY from the environment, or one made once per install into .data/.
+ */
+export function fakesKey(): string {
+  return installSecret("FAKES_KEY", "fakes-key", 24);
 }
 
 /**
@@ -41,21 +55,6 @@ export function authSecret(): string {
  * second checkout on this machine can run its tests beside the first. The fakes sit 100 ports
  * apart, so use a multiple of 1000 (1000, 2000…) or an offset under 40. Dev ports never move.
  */
-/**
- * The key of the local fakes' own pages and APIs (the mail catcher, the payments fake's admin
- * endpoints): FAKES_KEY from the environment, or one made once per install into .data/.
- */
-export function fakesKey(): string {
-  if (process.env.FAKES_KEY) return process.env.FAKES_KEY;
-  const dir = path.join(repoRoot, ".data");
-  mkdirSync(dir, { recursive: true, mode: 0o755 });
-  const file = path.join(dir, "fakes-key");
-  if (existsSync(file)) return readFileSync(file, "utf8").trim();
-  const key = randomBytes(24).toString("base64url");
-  writeFileSync(file, `${key}\n`, { mode: 0o600 });
-  return key;
-}
-
 export function testPortOffset(): number {
   const raw = process.env.CHALKLINE_PORT_OFFSET;
   if (!raw) return 0;
