@@ -15,6 +15,7 @@ import { db, getPool } from "@/db/client";
 import { sendQuote } from "@/db/queries/orders";
 import { createShareLink } from "@/db/queries/review";
 import { createShopWithOwner } from "@/db/queries/shops";
+import { markEmailVerified } from "@/db/queries/users";
 import { approvals, quotes, shops } from "@/db/schema";
 import { DEFAULT_PRICE_MATRIX } from "@/lib/pricing";
 import { quoteJob } from "@/lib/quotes";
@@ -70,6 +71,8 @@ async function askForLink(from: string, email: string): Promise<Response> {
 
 beforeAll(async () => {
   const created = await createShopWithOwner({ shopName: `Bramble Limit Prints ${tag}`, name: "Wren Halloway", email: ownerEmail, passwordHash: await bcrypt.hash(password, 10) });
+  // The owner proved the address (opened the link sign-up sent), so the password signs in.
+  await markEmailVerified({ userId: created.userId });
   const [row] = await db.select({ id: shops.id, slug: shops.slug }).from(shops).where(eq(shops.slug, created.shopSlug));
   shop = row!;
   ownerId = created.userId;
@@ -141,6 +144,7 @@ describe("password sign-in limits", () => {
   it("limits an account tried from many addresses, and its owner still gets in with an e-mail link", async () => {
     const email = `limits-linked-${tag}@bramble-print.test`;
     const created = await createShopWithOwner({ shopName: `Bramble Link Prints ${tag}`, name: "Ivo Sandal", email, passwordHash: await bcrypt.hash(password, 10) });
+    await markEmailVerified({ userId: created.userId });
     expect(created.userId).toBeTruthy();
     // Five addresses, ten wrong passwords each: every one of them is a 401, none is locked yet.
     for (let a = 1; a <= 5; a += 1) {
