@@ -50,10 +50,9 @@ export type DemoEmails = Record<(typeof DEMO_ACCOUNTS)[number]["role"], string>;
 /**
  * The demo scenario as a new shop would build it: its shop name, its people's e-mails and their
  * password are the caller's, so a test can build its own copy of the demo and change it freely.
- * Returns the shop and the people's ids.
+ * Returns the shop and the people's ids. The library blanks must be in place (seedDemo puts them there).
  */
 export async function buildDemoShop(opts: { shopName: string; emails: DemoEmails; password: string }): Promise<{ id: string; slug: string; userIds: Record<keyof DemoEmails, string> }> {
-  await ensureLibraryBlanks(db);
   const passwordHash = await bcrypt.hash(opts.password, 10);
   const account = (role: keyof DemoEmails) => ({ ...DEMO_ACCOUNTS.find((a) => a.role === role)!, email: opts.emails[role] });
 

@@ -87,9 +87,8 @@ if (only.length === 0 && componentTestFiles(repoRoot).length === 0) {
 mkdirSync(reportDir, { recursive: true });
 let ok = true;
 /**
- * Compares the seeded demo rows with the record taken after seeding. Strict after vitest (a changed
- * or deleted seeded row fails the run); after the end-to-end tests, which do not all own their data
- * yet, the rows they changed are listed as a warning.
+ * Compares the seeded demo rows with the record taken after seeding: a changed or deleted seeded
+ * row fails the run, after vitest and again after the end-to-end tests, naming each row.
  */
 async function checkSeededRows(seeded: SeededRows, after: string, strict: boolean, already: Set<string>): Promise<boolean> {
   const changed = await changedSeededRows(stack.databaseUrl, seeded);
@@ -137,7 +136,7 @@ try {
     // End-to-end tests still run in file order.
     log(`end-to-end tests in ${CHROMIUM} against http://localhost:${PORT}, in file order`);
     ok = (await vitest(["e2e"], { ...testEnv, E2E_BASE_URL: `http://localhost:${PORT}`, CHROMIUM_PATH: CHROMIUM }, "e2e")) && ok;
-    await checkSeededRows(seeded, "end-to-end tests", false, reported);
+    ok = (await checkSeededRows(seeded, "end-to-end tests", true, reported)) && ok;
   }
 } catch (error) {
   ok = false;

@@ -100,16 +100,40 @@ export function authCookies(secure: boolean): NonNullable<NextAuthOptions["cooki
   };
 }
 
+/**
+ * emailVerified records when the address was first proven. Each e-mail sign-in asks the adapter to
+ * set it to now; for an address proven already that keeps the first date instead.
+ */
+function keepFirstProof(adapter: Adapter): Adapter {
+  const update = adapter.updateUser!.bind(adapter);
+  return {
+    ...adapter,
+    updateUser: async (user) => {
+      if (user.emailVerified && user.id) {
+        const current = await adapter.getUser!(user.id);
+        if (current?.emailVerified) {
+          const rest = { ...user };
+          delete rest.emailVerified;
+          return Object.keys(rest).length > 1 ? update(rest) : current;
+        }
+      }
+      return update(user);
+    },
+  };
+}
+
 export function getAuthOptions(): NextAuthOptions {
   if (options) return options;
   const secure = usesSecureCookies();
   options = {
-    adapter: DrizzleAdapter(getDb(), {
-      usersTable: users,
-      accountsTable: accounts,
-      sessionsTable: sessions,
-      verificationTokensTable: verificationTokens,
-    }) as unknown as Adapter,
+    adapter: keepFirstProof(
+      DrizzleAdapter(getDb(), {
+        usersTable: users,
+        accountsTable: accounts,
+        sessionsTable: sessions,
+        verificationTokensTable: verificationTokens,
+      }) as unknown as Adapter,
+    ),
     secret: process.env.NEXTAUTH_SECRET ?? process.env.AUTH_SECRET,
     session: { strategy: "jwt", maxAge: 30 * 24 * 3600 },
     useSecureCookies: secure,

@@ -5,13 +5,19 @@ import type { Browser, Page } from "playwright-core";
 import sharp from "sharp";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { fetchProof, openTeeProof, waitSaved } from "./editor-support";
-import { BASE_URL, DEMO_SHOP, fetchFrom, launch, newContext, signIn, watchCsp } from "./support";
+import { BASE_URL, fetchFrom, launch, newContext, signIn, watchCsp } from "./support";
+import { demoCopy, type DemoCopy } from "./demo-copy";
+import { getPool } from "@/db/client";
 
 let browser: Browser;
+let demo: DemoCopy;
 beforeAll(async () => {
+  demo = await demoCopy("security");
   browser = await launch();
 });
 afterAll(async () => {
+  await demo?.drop();
+  await getPool().end();
   await browser?.close();
 });
 
@@ -27,7 +33,7 @@ function directives(csp: string): Record<string, string[]> {
 const originOf = (url: string | undefined) => (url ? new URL(url).origin : "");
 
 async function openProof(page: Page, jobTitle: RegExp, proofName: RegExp) {
-  await page.goto(`/shops/${DEMO_SHOP}/jobs`);
+  await page.goto(`/shops/${demo.slug}/jobs`);
   await page.getByRole("link", { name: jobTitle }).click();
   await page.getByRole("link", { name: proofName }).click();
   await page.waitForURL(/\/proofs\//);
@@ -78,7 +84,7 @@ describe("security headers", () => {
   it("keeps the session cookie away from scripts and other sites", async () => {
     const context = await newContext(browser);
     const page = await context.newPage();
-    await signIn(page, "designer@chalkline.test");
+    await signIn(page, demo.emails.designer);
     const cookies = await context.cookies();
     const session = cookies.find((c) => c.name.endsWith("next-auth.session-token"));
     expect(session).toMatchObject({ httpOnly: true, sameSite: "Lax" });
@@ -107,10 +113,10 @@ describe("pages under the policy", () => {
     await page.goto("/sign-up");
     await page.getByRole("button", { name: "Create shop" }).click();
     await page.locator(".field-error").first().waitFor();
-    await signIn(page, "owner@chalkline.test");
+    await signIn(page, demo.emails.owner);
 
     // Editor: keyboard nudge, autosave, and back.
-    const proofId = await openTeeProof(page);
+    const proofId = await openTeeProof(page, 0.3, demo.slug);
     const before = (await fetchProof(page, proofId)).placements[0]!;
     await page.getByRole("heading", { name: "Team tee" }).click();
     await page.keyboard.press("ArrowDown");
@@ -120,7 +126,7 @@ describe("pages under the policy", () => {
     expect((await fetchProof(page, proofId)).placements[0]!.belowCollarIn).toBeCloseTo(before.belowCollarIn, 6);
 
     // Upload: straight from the browser to the upload service, then analysed and shown.
-    await page.goto(`/shops/${DEMO_SHOP}/art`);
+    await page.goto(`/shops/${demo.slug}/art`);
     await page.getByLabel("Art files").setInputFiles(file);
     await page.locator('[data-testid=upload-row][data-name="csp-check-badge.png"][data-state=done]').waitFor({ timeout: 60_000 });
     const thumb = page.locator('[data-testid=art-card][data-name="csp-check-badge"] img');
@@ -150,14 +156,14 @@ describe("pages under the policy", () => {
     await review.getByTestId("note").filter({ hasText: "security policy" }).waitFor();
 
     // The production page and the client's own portal run under the same policy.
-    await page.goto(`/shops/${DEMO_SHOP}/jobs`);
+    await page.goto(`/shops/${demo.slug}/jobs`);
     await page.getByRole("link", { name: /Spring season team tees/ }).click();
     await page.getByRole("link", { name: "Production" }).click();
     await page.getByTestId("grading-summary").first().waitFor();
     const clientContext = await newContext(browser, { viewport: { width: 1280, height: 900 } });
     const clientViolations = await watchCsp(clientContext);
     const clientPage = await clientContext.newPage();
-    await signIn(clientPage, "client@chalkline.test");
+    await signIn(clientPage, demo.emails.client);
     await clientPage.goto("/portal");
     const portalProof = clientPage.locator('a[href^="/portal/proofs/"]').first();
     if ((await portalProof.count()) > 0) {
