@@ -37,7 +37,7 @@ export default defineConfig({
           include: ["tests/integration/**/*.test.ts"],
           environment: "node",
           // Every failure names the random tags, names and seeds its file made (tests/support/failure-notes.ts).
-          setupFiles: ["tests/support/failure-notes.ts"],
+          setupFiles: ["tests/support/failure-notes.ts", "tests/support/action-address.ts"],
           // As scripts/serve.ts does: handlers believe the client address header, which tests set.
           env: { CHALKLINE_CLIENT_ADDRESS: "stamped" },
           fileParallelism: false,
