@@ -1,15 +1,16 @@
 import "server-only";
 import { and, asc, desc, eq, sql } from "drizzle-orm";
 import { db } from "../client";
-import { exportJobs, jobGradings, jobSizes, type ExportJob } from "../schema";
+import { exportJobs, jobGradings, jobSizes, jobs, type ExportJob } from "../schema";
 
 export async function listJobSizes({ jobId }: { jobId: string }) {
   return db.select().from(jobSizes).where(eq(jobSizes.jobId, jobId)).orderBy(asc(jobSizes.sortOrder));
 }
 
-/** Replaces the size run in one go, so a failed save leaves the old run untouched. */
-export async function saveJobSizes({ jobId, sizes }: { jobId: string; sizes: Array<{ size: string; quantity: number }> }) {
+/** Replaces the size run (and, when given, the spares) in one go, so a failed save leaves the old run untouched. */
+export async function saveJobSizes({ jobId, sizes, sparePercent }: { jobId: string; sizes: Array<{ size: string; quantity: number }>; sparePercent?: number }) {
   await db.transaction(async (tx) => {
+    if (sparePercent !== undefined) await tx.update(jobs).set({ sparePercent, updatedAt: new Date() }).where(eq(jobs.id, jobId));
     await tx.delete(jobSizes).where(eq(jobSizes.jobId, jobId));
     if (sizes.length) await tx.insert(jobSizes).values(sizes.map((s, i) => ({ jobId, size: s.size, quantity: s.quantity, sortOrder: i })));
   });

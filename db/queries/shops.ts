@@ -343,6 +343,11 @@ export async function withdrawInvitation(input: {
 }
 
 export async function findShopById({ shopId }: { shopId: string }) {
-  const [row] = await db.select({ id: shops.id, slug: shops.slug, name: shops.name }).from(shops).where(eq(shops.id, shopId)).limit(1);
+  const [row] = await db.select({ id: shops.id, slug: shops.slug, name: shops.name, locale: shops.locale, timeZone: shops.timeZone }).from(shops).where(eq(shops.id, shopId)).limit(1);
   return row;
+}
+
+/** The shop's locale and time zone, checked by the caller (lib/dates.ts). */
+export async function saveShopClock({ shopId, locale, timeZone }: { shopId: string; locale: string; timeZone: string }) {
+  await db.update(shops).set({ locale, timeZone }).where(eq(shops.id, shopId));
 }

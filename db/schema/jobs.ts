@@ -36,6 +36,8 @@ export const jobs = pgTable(
     /** DTF: total transfer area per garment, in², for the quote. */
     dtfAreaIn2: doublePrecision("dtf_area_in2"),
     rush: boolean("rush").notNull().default(false),
+    /** Spare pieces per size, percent of the ordered quantity (rounded up), for misprints and weeding. */
+    sparePercent: doublePrecision("spare_percent").notNull().default(0),
     createdBy: text("created_by").references(() => users.id, { onDelete: "set null" }),
     createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
     updatedAt: timestamp("updated_at", { withTimezone: true }).notNull().defaultNow(),

@@ -12,6 +12,9 @@ export const shops = pgTable("shops", {
   /** The shop's price matrix (lib/pricing.ts); null until the owner saves one (the demo matrix is shown). */
   priceMatrix: jsonb("price_matrix").$type<unknown>(),
   priceMatrixUpdatedAt: timestamp("price_matrix_updated_at", { withTimezone: true }),
+  /** How the shop writes dates and numbers (BCP 47) and its clock (IANA zone): lib/dates.ts. */
+  locale: text("locale").notNull().default("en-US"),
+  timeZone: text("time_zone").notNull().default("UTC"),
   createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
 });
 

@@ -10,7 +10,8 @@ import type { GradingSize } from "./grading";
 export type ChartRow = { size: string; group: SizeGroup; measurements: GarmentMeasurements };
 
 /**
- * Allowed width = the location's maximum for that size (print area and side-seam clearance).
+ * Allowed width = the widest print that stays inside that size's print area (its maximum width,
+ * and its maximum height at the art's proportions) and clear of the side seams.
  * Ideal width = the designed width, scaled by how the location's typical width for that size
  * compares with the size it was designed on, and never above the allowed width.
  */
@@ -29,7 +30,8 @@ export function gradingSizes(args: { category: GarmentCategory; chart: ChartRow[
     }
     const spec = locationSpec({ location: args.placement.location, category: args.category, group: row.group, measurements: row.measurements });
     const ratio = baseSpec.typicalWidth > 0 ? spec.typicalWidth / baseSpec.typicalWidth : 1;
-    const allowed = Math.max(0, spec.maxWidth);
+    const aspect = args.placement.widthIn / args.placement.heightIn;
+    const allowed = Math.max(0, Math.min(spec.maxWidth, spec.maxHeight * aspect));
     if (!(allowed > 0)) {
       noRoom.push(entry.size);
       continue;

@@ -450,6 +450,10 @@ describe("renderTestPrintPdf", () => {
 
 const SIZES = ["YS", "YM", "YL", "S", "M", "L", "XL", "2XL", "3XL", "4XL", "5XL"];
 
+function location(heading: string, rows: Array<Omit<SpecSheetInput["locations"][number]["perSize"][number], "count" | "checks">>): SpecSheetInput["locations"][number] {
+  return { heading, topFrom: "collar", tools: "transfers", groups: [], suggestion: null, perSize: rows.map((r) => ({ ...r, count: "1", checks: [] })) };
+}
+
 function specInput(over: Partial<SpecSheetInput> = {}): SpecSheetInput {
   return {
     shopName: "Harbour Lane Print Co",
@@ -460,18 +464,14 @@ function specInput(over: Partial<SpecSheetInput> = {}): SpecSheetInput {
     garment: { style: "Cotton tee, unisex", colourName: "Heather navy", colourHex: "#2b3a55" },
     sizeRun: SIZES.map((size, i) => ({ size, quantity: i + 2 })),
     locations: [
-      {
-        label: "Full front",
-        side: "front",
-        perSize: SIZES.map((size, i) => ({
+      location("Full front", SIZES.map((size, i) => ({
           size,
           widthIn: 8 + i * 0.4,
           heightIn: 10.5,
-          belowCollarIn: 3,
-          offsetFromCenterIn: 0,
-          transfer: i < 3 ? "T1 8.5 in" : "T2 11 in",
-        })),
-      },
+          topIn: 3,
+          fromCentreIn: 0,
+          group: i < 3 ? "T1 8.5 in" : "T2 11 in",
+        }))),
     ],
     thumbnails: [],
     approval: null,
@@ -517,18 +517,16 @@ describe("renderSpecSheetPdf", () => {
     const pdf = await renderSpecSheetPdf(
       specInput({
         sizeRun: many.map((size) => ({ size, quantity: 1 })),
-        locations: ["Full front", "Full back", "Left sleeve"].map((label) => ({
-          label,
-          side: label === "Full back" ? ("back" as const) : ("front" as const),
-          perSize: many.map((size) => ({
+        locations: ["Full front", "Full back", "Left sleeve"].map((label) =>
+          location(label, many.map((size) => ({
             size,
             widthIn: 10,
             heightIn: 12,
-            belowCollarIn: 3.5,
-            offsetFromCenterIn: -4,
-            transfer: "S1",
-          })),
-        })),
+            topIn: 3.5,
+            fromCentreIn: -4,
+            group: "S1",
+          }))),
+        ),
       }),
     );
     const doc = await openPdf(pdf);
@@ -550,20 +548,7 @@ describe("renderSpecSheetPdf", () => {
         garment: { style: "Tee — heavy ✓", colourName: "Ink ✕ blue", colourHex: "not a colour" },
         cautions: ["Keep ≥ 3 in from seams… ‘always’"],
         locations: [
-          {
-            label: "Left chest ★",
-            side: "front",
-            perSize: [
-              {
-                size: "M",
-                widthIn: 3.5,
-                heightIn: 3.5,
-                belowCollarIn: 3,
-                offsetFromCenterIn: 4,
-                transfer: "T1 → press 15 s",
-              },
-            ],
-          },
+          location("Left chest ★", [{ size: "M", widthIn: 3.5, heightIn: 3.5, topIn: 3, fromCentreIn: 4, group: "T1 → press 15 s" }]),
         ],
       }),
     );

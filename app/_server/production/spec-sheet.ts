@@ -10,6 +10,7 @@ import {
 } from "pdf-lib";
 import sharp from "sharp";
 import { PDF_UNITS_PER_INCH, formatLength } from "@/lib/units";
+import { planSizeText, printHeading, type PrintPlan } from "@/lib/production/print-plan";
 import { SAFETY_CAUTIONS } from "@/lib/safety";
 
 /**
@@ -22,37 +23,84 @@ import { SAFETY_CAUTIONS } from "@/lib/safety";
 
 export interface SpecSheetLocationSize {
   size: string;
+  /** "24" or "24 + 2 spares". */
+  count: string;
+  /** Ink width and height (the trimmed art, not its canvas). */
   widthIn: number;
   heightIn: number;
-  /** From the collar seam down to the top edge of the print. */
-  belowCollarIn: number;
-  /** x of the print's center from the garment's center line; positive is to the viewer's right. */
-  offsetFromCenterIn: number;
-  /** Which transfer or screen this size gets, e.g. "T1 10.5 in". */
-  transfer: string;
+  /** From the collar seam (or the bag's top edge) down to the top of the ink. */
+  topIn: number;
+  /** x of the ink's center from the garment's center line; positive is to the viewer's right. */
+  fromCentreIn: number;
+  /** Which transfer or screen this size gets: "T1", "S2". */
+  group: string;
+  /** Fit problems at this size, in words; empty when it fits. */
+  checks: string[];
+}
+
+export interface SpecSheetGroup {
+  name: string;
+  widthIn: number;
+  heightIn: number;
+  sizes: string[];
+  toMake: number;
+  /** Screen print: the film positive for this screen. */
+  film: { widthIn: number; heightIn: number } | null;
 }
 
 export interface SpecSheetLocation {
-  label: string;
-  side: "front" | "back";
+  /** Already free of repeated words (printHeading). */
+  heading: string;
+  topFrom: "collar" | "top edge";
+  tools: "screens" | "transfers" | "direct";
   perSize: SpecSheetLocationSize[];
+  groups: SpecSheetGroup[];
+  /** "Suggested, not applied: …" when the plan suggests other widths than the ones printed. */
+  suggestion: string | null;
 }
 
 export interface SpecSheetInput {
   shopName: string;
   jobTitle: string;
   clientName: string;
+  /** Already written in the shop's locale. */
   dueDate: string | null;
   /** Decoration method, as a label ("DTF", "Screen print", …). */
   method: string;
   garment: { style: string; colourName: string; colourHex: string };
   sizeRun: Array<{ size: string; quantity: number }>;
+  /** Spares asked for per size, percent. */
+  sparePercent?: number;
   locations: SpecSheetLocation[];
   /** Mock-up images, optional. */
   thumbnails: Array<{ label: string; png: Buffer }>;
+  /** `at` already written in the shop's locale and time zone. */
   approval: { name: string; at: string; revision: string } | null;
+  /** When the sheet was made, in the shop's clock. */
+  madeAt?: string;
   /** Defaults to DEFAULT_CAUTIONS. */
   cautions?: string[];
+}
+
+/** A print plan as the spec sheet lays it out: every number comes from the plan. */
+export function specSheetLocation(args: { label: string; proofName: string | null; plan: PrintPlan }): SpecSheetLocation {
+  const { plan } = args;
+  const groupWord = plan.tools === "screens" ? "screen" : plan.tools === "transfers" ? "transfer" : "print";
+  const suggestion =
+    plan.suggestion && plan.suggestionDiffers
+      ? `Suggested, not applied: ${plan.suggestion.groups.map((g) => `${formatLength(g.widthIn, "in")} wide for ${g.sizes.join(", ")}`).join("; ")}. Ask the shop before using it.`
+      : null;
+  return {
+    heading: printHeading([args.label, `${plan.side} view`, args.proofName]),
+    topFrom: plan.topFrom,
+    tools: plan.tools,
+    perSize: plan.sizes.map((s) => {
+      const text = planSizeText(plan, s);
+      return { size: s.size, count: text.count, widthIn: s.widthIn, heightIn: s.heightIn, topIn: s.topIn, fromCentreIn: s.fromCentreIn, group: `${s.group} ${groupWord}`, checks: text.checks };
+    }),
+    groups: plan.groups.map((g) => ({ name: g.name, widthIn: g.widthIn, heightIn: g.heightIn, sizes: g.sizes, toMake: g.toMake, film: g.film })),
+    suggestion,
+  };
 }
 
 /** Safety and compliance notes printed on every spec sheet unless the shop supplies its own. */
@@ -170,6 +218,9 @@ export function fitText(text: string, font: PDFFont, size: number, maxWidth: num
   if (font.widthOfTextAtSize(clean, size) <= maxWidth) return clean;
   let cut = clean.length;
   while (cut > 0 && font.widthOfTextAtSize(`${clean.slice(0, cut)}...`, size) > maxWidth) cut -= 1;
+  // Never mid-word: back up to the last space that fits, unless the first word alone is too long.
+  const space = clean.lastIndexOf(" ", cut);
+  if (space > 0 && clean[cut] !== " ") cut = space;
   return `${clean.slice(0, cut).trimEnd()}...`;
 }
 
@@ -379,7 +430,7 @@ function drawHeader(flow: Flow, input: SpecSheetInput, totalPieces: number) {
     ? `${input.garment.colourName || "-"} (${toWinAnsi(input.garment.colourHex).trim()})`
     : `${input.garment.colourName || "-"} (no colour code)`;
   field(1, 1, "Colour", colourText, 17);
-  field(2, 1, "Pieces", `${totalPieces}`);
+  field(2, 1, "Garments", input.sparePercent ? `${totalPieces} (+${input.sparePercent}% spares per size)` : `${totalPieces}`);
   flow.y += 62;
   flow.rule(flow.y);
   flow.y += 4;
@@ -434,27 +485,29 @@ function drawSizeRun(flow: Flow, sizeRun: SpecSheetInput["sizeRun"], total: numb
 }
 
 const LOCATION_COLUMNS = [
-  { title: "Size", width: 62 },
-  { title: "Print W x H", width: 150 },
-  { title: "Below collar", width: 96 },
-  { title: "From center", width: 104 },
-  { title: "Transfer / screen", width: CONTENT_W - 62 - 150 - 96 - 104 },
+  { title: "Size (count)", width: 78 },
+  { title: "Ink W x H", width: 150 },
+  { title: "Below collar", width: 92 },
+  { title: "From center", width: 100 },
+  { title: "Transfer / screen", width: CONTENT_W - 78 - 150 - 92 - 100 },
 ] as const;
 
 function drawLocation(flow: Flow, location: SpecSheetLocation) {
-  const side = location.side === "back" ? "back" : "front";
+  const checkLines = location.perSize.reduce((n, r) => n + r.checks.length, 0);
   // Keep a table whole when it fits on one page; a longer one starts with at least three rows.
-  const whole = 25 + 16 + 26 * Math.max(1, location.perSize.length) + 6;
+  const whole = 25 + 16 + 26 * Math.max(1, location.perSize.length) + 12 * checkLines + 6;
   flow.ensure(whole <= BOTTOM_LIMIT - MARGIN ? whole : 25 + 16 + 26 * 3);
+  const topTitle = location.topFrom === "collar" ? "Below collar" : "Below top edge";
   flow.heading(
-    `${location.label || "Print"} (${side})`,
-    "Below collar: seam to top of print. From center: print center, left/right as you face this side.",
+    location.heading || "Print",
+    `Sizes are of the ink. ${topTitle}: ${location.topFrom === "collar" ? "collar seam" : "bag's top edge"} to top of ink. From center: ink center, left/right as you face this side.`,
   );
   const header = () => {
     flow.rect(MARGIN, flow.y, CONTENT_W, 16, { fill: HEAD_FILL });
     let x = MARGIN;
     for (const col of LOCATION_COLUMNS) {
-      flow.text(col.title, x + 4, flow.y + 4, 8, { bold: true, maxWidth: col.width - 6 });
+      const title = col.title === "Below collar" ? topTitle : col.title;
+      flow.text(title, x + 4, flow.y + 4, 8, { bold: true, maxWidth: col.width - 6 });
       x += col.width;
     }
     flow.y += 16;
@@ -467,18 +520,19 @@ function drawLocation(flow: Flow, location: SpecSheetLocation) {
   }
   const rowH = 26;
   location.perSize.forEach((row, i) => {
-    if (flow.ensure(rowH)) {
-      flow.text(`${location.label} (${side}), continued`, MARGIN, flow.y, 9, { bold: true, color: MUTED });
+    const warnings = row.checks.flatMap((c) => wrapText(`Check: ${c}`, flow.fonts.bold, 8, CONTENT_W - 12));
+    if (flow.ensure(rowH + warnings.length * 11)) {
+      flow.text(`${location.heading}, continued`, MARGIN, flow.y, 9, { bold: true, color: MUTED });
       flow.y += 14;
       header();
     }
-    if (i % 2 === 1) flow.rect(MARGIN, flow.y, CONTENT_W, rowH, { fill: ZEBRA });
+    if (i % 2 === 1) flow.rect(MARGIN, flow.y, CONTENT_W, rowH + warnings.length * 11, { fill: ZEBRA });
     const cells: Array<{ main: string; decimal: string; bold?: boolean }> = [
-      { main: row.size, decimal: "", bold: true },
+      { main: row.size, decimal: row.count, bold: true },
       sizePair(row.widthIn, row.heightIn),
-      inchesAndDecimal(row.belowCollarIn),
-      fromCenter(row.offsetFromCenterIn),
-      { main: row.transfer || "-", decimal: "" },
+      inchesAndDecimal(row.topIn),
+      fromCenter(row.fromCentreIn),
+      { main: row.group || "-", decimal: "" },
     ];
     let x = MARGIN;
     cells.forEach((cell, c) => {
@@ -488,9 +542,32 @@ function drawLocation(flow: Flow, location: SpecSheetLocation) {
       x += w;
     });
     flow.y += rowH;
+    for (const line of warnings) {
+      flow.text(line, MARGIN + 8, flow.y - 2, 8, { bold: true, color: STOP });
+      flow.y += 11;
+    }
   });
   flow.rule(flow.y);
   flow.y += 6;
+  const groupLines = location.groups.map((g) => {
+    const what = location.tools === "screens" ? "Screen" : location.tools === "transfers" ? "Transfer" : "Print";
+    const film = g.film ? `; film positive ${formatLength(g.film.widthIn, "in", { withUnit: false })} x ${formatLength(g.film.heightIn, "in")}` : "";
+    const made = location.tools === "screens" ? "" : `, make ${g.toMake}`;
+    return `${what} ${g.name}: ${formatLength(g.widthIn, "in", { withUnit: false })} x ${formatLength(g.heightIn, "in")} for ${g.sizes.join(", ")}${made}${film}.`;
+  });
+  for (const line of groupLines.flatMap((l) => wrapText(l, flow.fonts.regular, 8.5, CONTENT_W))) {
+    flow.ensure(12);
+    flow.text(line, MARGIN, flow.y, 8.5);
+    flow.y += 12;
+  }
+  if (location.suggestion) {
+    for (const line of wrapText(location.suggestion, flow.fonts.bold, 8.5, CONTENT_W)) {
+      flow.ensure(12);
+      flow.text(line, MARGIN, flow.y, 8.5, { bold: true, color: rgb(0.6, 0.4, 0.05) });
+      flow.y += 12;
+    }
+  }
+  flow.y += 4;
 }
 
 async function embedThumbnail(doc: PDFDocument, png: Buffer): Promise<PDFImage | null> {
@@ -514,7 +591,7 @@ async function drawThumbnails(flow: Flow, thumbnails: SpecSheetInput["thumbnails
   const gap = (CONTENT_W - 4 * box) / 3;
   for (let i = 0; i < thumbnails.length; i++) {
     const col = i % 4;
-    if (col === 0 && i > 0) flow.y += box + 24;
+    if (col === 0 && i > 0) flow.y += box + 30;
     if (col === 0) flow.ensure(box + 20);
     const x = MARGIN + col * (box + gap);
     const thumb = thumbnails[i]!;
@@ -536,9 +613,12 @@ async function drawThumbnails(flow: Flow, thumbnails: SpecSheetInput["thumbnails
         maxWidth: box - 12,
       });
     }
-    flow.text(thumb.label, x, flow.y + box + 4, 8, { color: MUTED, maxWidth: box });
+    // Two lines at word breaks; a third line's worth ends the second with "...".
+    const lines = wrapText(thumb.label, flow.fonts.regular, 8, box);
+    const shown = lines.length > 2 ? [lines[0]!, fitText(`${lines[1]} ${lines.slice(2).join(" ")}`, flow.fonts.regular, 8, box)] : lines;
+    shown.forEach((line, n) => flow.text(line, x, flow.y + box + 4 + n * 10, 8, { color: MUTED }));
   }
-  flow.y += box + 24;
+  flow.y += box + 30;
 }
 
 function drawApproval(flow: Flow, approval: SpecSheetInput["approval"]) {
@@ -612,7 +692,7 @@ function drawFooters(flow: Flow, input: SpecSheetInput) {
     const right = toWinAnsi(`Page ${i + 1} of ${n}`);
     const rightW = regular.widthOfTextAtSize(right, 7.5);
     const left = fitText(
-      `${input.shopName} - ${input.jobTitle} - spec sheet`,
+      `${input.shopName} - ${input.jobTitle} - spec sheet${input.madeAt ? `, made ${input.madeAt}` : ""}`,
       regular,
       7.5,
       CONTENT_W - rightW - 20,

@@ -113,14 +113,14 @@ describe("grading inputs from a proof (gradingSizes)", () => {
         }
         for (const size of noRoom) {
           const row = j.rows.find((r) => r.size === size)!;
-          expect(
-            locationSpec({
-              location: j.location,
-              category: j.category,
-              group: row.group,
-              measurements: row.measurements,
-            }).maxWidth,
-          ).toBe(0);
+          const spec = locationSpec({
+            location: j.location,
+            category: j.category,
+            group: row.group,
+            measurements: row.measurements,
+          });
+          // No room: no width, or no height (the art's proportions then need a width of 0).
+          expect(Math.min(spec.maxWidth, spec.maxHeight)).toBe(0);
         }
         for (const s of sizes) {
           expect(s.allowedWidthIn).toBeGreaterThan(0);
@@ -409,7 +409,7 @@ describe("gang sheets at the edge of the roll", () => {
 });
 
 describe("location limits feed grading sensibly", () => {
-  it("every catalog size with room at a location gets an allowance equal to that location's maximum width", () => {
+  it("every catalog size with room at a location gets an allowance equal to the widest art of its proportions inside the print area", () => {
     for (const blank of CATALOG) {
       for (const location of locationsFor(blank.category)) {
         const chartRows = blank.sizes.map((r) => ({
@@ -427,15 +427,14 @@ describe("location limits feed grading sensibly", () => {
         });
         for (const s of sizes) {
           const row = chartRows.find((r) => r.size === s.size)!;
-          expect(s.allowedWidthIn).toBeCloseTo(
-            locationSpec({
-              location,
-              category: blank.category,
-              group: row.group,
-              measurements: row.measurements,
-            }).maxWidth,
-            9,
-          );
+          const spec = locationSpec({
+            location,
+            category: blank.category,
+            group: row.group,
+            measurements: row.measurements,
+          });
+          // Square art (aspect 1): the print area's shorter side bounds it.
+          expect(s.allowedWidthIn).toBeCloseTo(Math.min(spec.maxWidth, spec.maxHeight), 9);
         }
       }
     }

@@ -1,0 +1,55 @@
+/**
+ * Dates and times as a shop reads them: in the shop's own locale (BCP 47, e.g. "en-US") and
+ * time zone (IANA, e.g. "America/Chicago"), through the platform's Intl (ECMA-402). A locale or
+ * zone Intl does not know falls back to en-US and UTC, and the text says "UTC" so it is never
+ * silently wrong.
+ */
+
+export const DEFAULT_LOCALE = "en-US";
+export const DEFAULT_TIME_ZONE = "UTC";
+
+export type ShopClock = { locale?: string | null; timeZone?: string | null };
+
+export function isKnownLocale(locale: string): boolean {
+  try {
+    return Intl.DateTimeFormat.supportedLocalesOf([locale]).length > 0;
+  } catch {
+    return false;
+  }
+}
+
+export function isKnownTimeZone(timeZone: string): boolean {
+  try {
+    new Intl.DateTimeFormat("en-US", { timeZone });
+    return true;
+  } catch {
+    return false;
+  }
+}
+
+function clock(c: ShopClock): { locale: string; timeZone: string } {
+  const locale = c.locale && isKnownLocale(c.locale) ? c.locale : DEFAULT_LOCALE;
+  const timeZone = c.timeZone && isKnownTimeZone(c.timeZone) ? c.timeZone : DEFAULT_TIME_ZONE;
+  return { locale, timeZone };
+}
+
+/**
+ * A calendar date ("2026-12-18" from a date column, or a Date) as the shop writes it, e.g.
+ * "Dec 18, 2026". A date column has no time zone, so it is shown as written, never shifted.
+ */
+export function formatShopDate(value: string | Date, c: ShopClock = {}): string {
+  const { locale, timeZone } = clock(c);
+  if (typeof value === "string") {
+    const m = /^(\d{4})-(\d{2})-(\d{2})$/.exec(value);
+    if (!m) return value;
+    const d = new Date(Date.UTC(Number(m[1]), Number(m[2]) - 1, Number(m[3])));
+    return new Intl.DateTimeFormat(locale, { dateStyle: "medium", timeZone: "UTC" }).format(d);
+  }
+  return new Intl.DateTimeFormat(locale, { dateStyle: "medium", timeZone }).format(value);
+}
+
+/** An instant as the shop's clock shows it, with the zone named: "Dec 4, 2026, 12:56 AM CST". */
+export function formatShopDateTime(at: Date, c: ShopClock = {}): string {
+  const { locale, timeZone } = clock(c);
+  return new Intl.DateTimeFormat(locale, { dateStyle: "medium", timeStyle: "short", timeZone, timeZoneName: "short" }).format(at);
+}
