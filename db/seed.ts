@@ -21,7 +21,8 @@ import { createClient } from "./queries/clients";
 import { createJob, setJobStatus, type JobInput } from "./queries/jobs";
 import { getProofDocument } from "./queries/proofs";
 import { findShopBySlug } from "./queries/access";
-import { acceptInvitation, createInvitation, createShopWithOwner } from "./queries/shops";
+import { listJobSizes, saveJobSizes } from "./queries/production";
+import { acceptInvitation, createInvitation, createShopWithOwner, saveShopClock } from "./queries/shops";
 import { createUser, findUserByEmail, markEmailVerified } from "./queries/users";
 import * as schema from "./schema";
 
@@ -144,6 +145,10 @@ export async function buildDemoShop(opts: { shopName: string; emails: DemoEmails
   await proof(tees.id, "Team tee", "eastfield-emblem", "full-front", { widthIn: 10, belowCollarIn: 3 });
   await proof(totes.id, "Market tote", "larkspur-wordmark", "tote-front", { widthIn: 10, belowCollarIn: 5 });
   await proof(hoodies.id, "Team hoodie", "northgate-badge", "full-front", { widthIn: 9, belowCollarIn: 3 });
+
+  // The shop keeps Central time, and orders 5 % spare transfers on its DTF jobs.
+  await saveShopClock({ shopId: shop.id, locale: "en-US", timeZone: "America/Chicago" });
+  for (const dtf of [totes, hoodies]) await saveJobSizes({ jobId: dtf.id, sizes: (await listJobSizes({ jobId: dtf.id })).map((s) => ({ size: s.size, quantity: s.quantity })), sparePercent: 5 });
 
   // The bakery's totes are with the client, as the owner marked them on the board.
   await setJobStatus({ shopId: shop.id, jobId: totes.id, status: "with-client", actorUserId: ownerId });

@@ -19,6 +19,7 @@ export const PERMISSIONS = [
   "blanks.view",
   "blanks.edit",
   "production.view",
+  "production.grade",
   "prices.view",
   "prices.edit",
   "audit.view",
@@ -37,9 +38,11 @@ const GRANTS: Record<ActorRole, readonly Permission[]> = {
     "blanks.view",
     "blanks.edit",
     "production.view",
+    "production.grade",
     "prices.view",
   ],
-  production: ["shop.view", "jobs.view", "blanks.view", "production.view"],
+  // The press applies the print plan's grading: it chooses which transfer or screen sizes to make.
+  production: ["shop.view", "jobs.view", "blanks.view", "production.view", "production.grade"],
   // Clients never hold shop permissions; their own jobs are checked by ownership, not by role.
   client: [],
 };

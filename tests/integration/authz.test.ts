@@ -129,7 +129,7 @@ const INPUTS: Record<string, Input> = {
   "send-quote/their-slug": ({ f }) => ({ shopSlug: f.other.slug, jobId: f.ids.secondClientJobId }),
   "send-quote/their-ids": ({ f }) => ({ shopSlug: f.shop.slug, jobId: f.ids.otherJobId }),
 
-  "save-size-run/ours": ({ f }) => ({ shopSlug: f.shop.slug, jobId: f.ids.secondClientJobId, sizes: [{ size: "S", quantity: 8 }, { size: "M", quantity: 12 }] }),
+  "save-size-run/ours": ({ f }) => ({ shopSlug: f.shop.slug, jobId: f.ids.secondClientJobId, sizes: [{ size: "S", quantity: 8 }, { size: "M", quantity: 12 }], sparePercent: 5 }),
   "save-size-run/their-slug": ({ f }) => ({ shopSlug: f.other.slug, jobId: f.ids.secondClientJobId, sizes: [{ size: "M", quantity: 1 }] }),
   "save-size-run/their-ids": ({ f }) => ({ shopSlug: f.shop.slug, jobId: f.ids.otherJobId, sizes: [{ size: "M", quantity: 1 }] }),
   // A print that is on the job's proof (insertProof names its placement after the proof).
@@ -168,6 +168,7 @@ const INPUTS: Record<string, Input> = {
   "revoke-share-link/their-slug": ({ f, mine }) => ({ shopSlug: f.other.slug, linkId: mine.linkId }),
   "revoke-share-link/their-ids": ({ f }) => ({ shopSlug: f.shop.slug, linkId: f.ids.otherLinkId }),
 
+  "save-shop-clock/ours": ({ f }) => ({ shopSlug: f.shop.slug, locale: "en-GB", timeZone: "Europe/London" }),
   "invite-member/ours": ({ f, unique }) => ({ shopSlug: f.shop.slug, email: `invited-${unique}@example.test`, role: "production" }),
   "change-member-role/ours": ({ f, mine }) => ({ shopSlug: f.shop.slug, memberId: mine.roleMemberId, role: "designer" }),
   "change-member-role/their-slug": ({ f, mine }) => ({ shopSlug: f.other.slug, memberId: mine.roleMemberId, role: "owner" }),

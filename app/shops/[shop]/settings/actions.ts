@@ -6,8 +6,9 @@ import { deniedAction, resolveShopAccess, type ActionResult } from "@/app/_serve
 import { appUrl } from "@/app/_server/config";
 import { composeMail } from "@/app/_server/emails";
 import { sendMailSafely } from "@/app/_server/mail";
-import { changeMemberRole, createInvitation, removeMember, withdrawInvitation, type TeamChangeRefusal, type TeamChangeResult } from "@/db/queries/shops";
+import { changeMemberRole, createInvitation, removeMember, saveShopClock, withdrawInvitation, type TeamChangeRefusal, type TeamChangeResult } from "@/db/queries/shops";
 import { LAST_OWNER_MESSAGE, ROLE_LABELS, SHOP_ROLES, type ShopRole } from "@/lib/access";
+import { isKnownLocale, isKnownTimeZone } from "@/lib/dates";
 import { parseInput } from "@/lib/input";
 
 const inviteSchema = z.object({
@@ -141,4 +142,21 @@ export async function withdrawInvitationAction(input: z.input<typeof invitationS
   const { invitation } = result;
   revalidatePath(`/shops/${shop.slug}/settings`);
   return { ok: true, data: { invitationId: invitation.id, message: `The invitation to ${invitation.email} is withdrawn; its link no longer works.` } };
+}
+
+const clockSchema = z.object({
+  shopSlug: z.string().min(1).max(80),
+  locale: z.string().trim().min(2).max(35).refine(isKnownLocale, "Pick a language and region from the list."),
+  timeZone: z.string().trim().min(1).max(64).refine(isKnownTimeZone, "Pick a time zone from the list."),
+});
+
+/** The shop's language-and-region and time zone, used for every date it prints and shows. */
+export async function saveShopClockAction(input: z.input<typeof clockSchema>): Promise<ActionResult<null>> {
+  const parsed = parseInput(clockSchema, input);
+  if (!parsed.success) return { ok: false, error: parsed.error.issues[0]?.message ?? "Check the date settings.", fieldErrors: z.flattenError(parsed.error).fieldErrors };
+  const access = await resolveShopAccess(parsed.data.shopSlug, "shop.settings");
+  if (access.kind !== "ok") return deniedAction(access);
+  await saveShopClock({ shopId: access.access.shop.id, locale: parsed.data.locale, timeZone: parsed.data.timeZone });
+  revalidatePath(`/shops/${parsed.data.shopSlug}/settings`);
+  return { ok: true, data: null };
 }

@@ -7,6 +7,8 @@ import { enqueueExport } from "@/app/_server/queue";
 import { findJob } from "@/db/queries/jobs";
 import { createExport, findExport, markExport, saveGrading, saveJobSizes } from "@/db/queries/production";
 import { placementOnJob } from "@/db/queries/proofs";
+import { DECORATION_LABELS, type DecorationMethod } from "@/lib/jobs";
+import { usesGangSheets } from "@/lib/production/print-plan";
 import { PAPER_SIZES, type PaperId } from "@/lib/production/tiling";
 import { parseInput } from "@/lib/input";
 
@@ -20,6 +22,8 @@ const sizesSchema = z.object({
     .array(z.object({ size: z.string().trim().min(1).max(12), quantity: z.number().int("Quantities are whole garments.").min(0, "Quantities cannot be negative.").max(100_000) }))
     .max(40)
     .refine((rows) => new Set(rows.map((r) => r.size)).size === rows.length, "Each size appears once."),
+  /** Spares per size, percent of the ordered quantity (rounded up per size). */
+  sparePercent: z.number().min(0, "Spares cannot be negative.").max(50, "Spares are at most 50 %.").optional(),
 });
 
 export async function saveSizeRunAction(input: z.input<typeof sizesSchema>): Promise<ActionResult<null>> {
@@ -28,7 +32,7 @@ export async function saveSizeRunAction(input: z.input<typeof sizesSchema>): Pro
   const access = await resolveShopAccess(parsed.data.shopSlug, "jobs.edit");
   if (access.kind !== "ok") return deniedAction(access);
   if (!(await findJob({ shopId: access.access.shop.id, jobId: parsed.data.jobId }))) return { ok: false, error: "Not found.", status: 404 };
-  await saveJobSizes({ jobId: parsed.data.jobId, sizes: parsed.data.sizes });
+  await saveJobSizes({ jobId: parsed.data.jobId, sizes: parsed.data.sizes, sparePercent: parsed.data.sparePercent });
   revalidatePath(`/shops/${parsed.data.shopSlug}/jobs/${parsed.data.jobId}/production`);
   return { ok: true, data: null };
 }
@@ -50,7 +54,7 @@ const gradingSchema = z.object({
 export async function saveGradingAction(input: z.input<typeof gradingSchema>): Promise<ActionResult<null>> {
   const parsed = parseInput(gradingSchema, input);
   if (!parsed.success) return { ok: false, error: "That grading could not be read." };
-  const access = await resolveShopAccess(parsed.data.shopSlug, "proofs.edit");
+  const access = await resolveShopAccess(parsed.data.shopSlug, "production.grade");
   if (access.kind !== "ok") return deniedAction(access);
   if (!(await findJob({ shopId: access.access.shop.id, jobId: parsed.data.jobId }))) return { ok: false, error: "Not found.", status: 404 };
   // The print graded must be on this job's proofs: never another job's, never one that does not exist.
@@ -79,7 +83,8 @@ const exportSchema = z.discriminatedUnion("kind", [
     jobId: id,
     rollWidthIn: z.union([z.literal(11), z.literal(13), z.literal(22), z.literal(24)]),
     gapIn: z.number().min(0).max(2),
-    sparePercent: z.number().min(0).max(50),
+    /** Ignored: spares come from the job's size run (the print plan counts them per size). */
+    sparePercent: z.number().min(0).max(50).optional(),
     allowRotation: z.boolean(),
     maxSheetLengthIn: z.number().min(12).max(600),
   }),
@@ -92,7 +97,11 @@ export async function requestExportAction(input: z.input<typeof exportSchema>): 
   const access = await resolveShopAccess(parsed.data.shopSlug, "production.view");
   if (access.kind !== "ok") return deniedAction(access);
   const { shopSlug, kind, jobId, ...params } = parsed.data;
-  if (!(await findJob({ shopId: access.access.shop.id, jobId }))) return { ok: false, error: "Not found.", status: 404 };
+  const job = await findJob({ shopId: access.access.shop.id, jobId });
+  if (!job) return { ok: false, error: "Not found.", status: 404 };
+  if ((kind === "gang-sheet-png" || kind === "gang-sheet-pdf") && !usesGangSheets(job.method as DecorationMethod)) {
+    return { ok: false, error: `A ${DECORATION_LABELS[job.method as DecorationMethod].toLowerCase()} job prints without transfers, so it has no gang sheet.`, status: 409 };
+  }
   const exportId = await createExport({ shopId: access.access.shop.id, jobId, kind, params, requestedBy: access.access.actor.id });
   try {
     await enqueueExport(exportId);

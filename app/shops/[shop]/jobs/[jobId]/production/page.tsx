@@ -2,10 +2,11 @@ import Link from "next/link";
 import { notFound } from "next/navigation";
 import { requireShopPage } from "@/app/_server/access";
 import { PageHeader } from "@/components/ui/PageHeader";
-import { findJob } from "@/db/queries/jobs";
-import { listExports, listGradings, listJobSizes } from "@/db/queries/production";
-import { getProductionDocument, listProofsForJob } from "@/db/queries/proofs";
+import { loadPriceMatrix } from "@/app/_server/orders";
+import { loadJobPrints } from "@/app/_server/production/plans";
+import { listExports } from "@/db/queries/production";
 import { can } from "@/lib/access";
+import { DECORATION_LABELS, type DecorationMethod } from "@/lib/jobs";
 import { LOCATION_LABELS } from "@/lib/garments/locations";
 import { SAFETY_CAUTIONS } from "@/lib/safety";
 import { ProductionBoard } from "./ProductionBoard";
@@ -16,16 +17,12 @@ export const metadata = { title: "Production" };
 export default async function ProductionPage({ params }: { params: Promise<{ shop: string; jobId: string }> }) {
   const { shop, jobId } = await params;
   const access = await requireShopPage(shop, "production.view", `/shops/${shop}/jobs/${jobId}/production`);
-  const job = await findJob({ shopId: access.shop.id, jobId });
-  if (!job) notFound();
-  const [sizes, gradings, proofList, exports] = await Promise.all([
-    listJobSizes({ jobId }),
-    listGradings({ jobId }),
-    listProofsForJob({ shopId: access.shop.id, jobId }),
-    listExports({ shopId: access.shop.id, jobId }),
-  ]);
-  const printed = (await Promise.all(proofList.map((p) => getProductionDocument({ shopId: access.shop.id, proofId: p.id })))).filter((d): d is NonNullable<typeof d> => !!d);
-  const docs = printed.map((p) => p.document);
+  const loaded = await loadJobPrints({ shopId: access.shop.id, jobId });
+  if (!loaded) notFound();
+  const { job, sizeRun, printed, prints } = loaded;
+  const showCost = can(access.role, "prices.view");
+  const [exports, prices] = await Promise.all([listExports({ shopId: access.shop.id, jobId }), showCost ? loadPriceMatrix(access.shop.id) : null]);
+  const method = job.method as DecorationMethod;
   return (
     <>
       <p className="mb-2 text-sm">
@@ -33,7 +30,7 @@ export default async function ProductionPage({ params }: { params: Promise<{ sho
           ← {job.title}
         </Link>
       </p>
-      <PageHeader title="Production" lead="Size run, print sizes per garment size, and the files the press needs." />
+      <PageHeader title="Production" lead={`${DECORATION_LABELS[method]}: the size run, each size's print, and the files the press needs.`} />
       <div role="note" className="mb-6 rounded-card border border-ochre-300 bg-ochre-100 p-4 text-sm text-ochre-800">
         <strong>Safety.</strong>
         <ul className="mt-1 list-disc space-y-1 pl-5">
@@ -54,17 +51,22 @@ export default async function ProductionPage({ params }: { params: Promise<{ sho
       <ProductionBoard
         shopSlug={access.shop.slug}
         jobId={job.id}
+        method={method}
         canEdit={can(access.role, "jobs.edit")}
-        sizeRun={sizes.map((s) => ({ size: s.size, quantity: s.quantity }))}
-        proofs={docs.map((d) => ({
-          id: d.proof.id,
-          name: d.proof.name,
-          size: d.proof.size,
+        canGrade={can(access.role, "production.grade")}
+        film={prices ? { centsPerInch: prices.matrix.dtf.centsPerInchOfSheet, currency: prices.matrix.currency } : null}
+        sizeRun={sizeRun}
+        sparePercent={job.sparePercent}
+        prints={prints.map(({ document: d, placement, artwork, plan }) => ({
+          proofId: d.proof.id,
+          proofName: d.proof.name,
+          designedOn: d.proof.size,
           colourHex: d.proof.colourHex,
           blank: { name: d.blank.name, category: d.blank.category, sizeChart: d.blank.sizeChart },
-          placements: d.placements.filter((p) => !!p.artworkId).map((p) => ({ ...p, label: LOCATION_LABELS[p.location] })),
+          placement: { ...placement, label: LOCATION_LABELS[placement.location] },
+          artworkId: artwork?.id ?? null,
+          saved: plan.basis === "graded" ? (loaded.gradings.find((g) => g.placementId === placement.id) ?? null) : null,
         }))}
-        gradings={gradings.map((g) => ({ placementId: g.placementId, transferCount: g.transferCount, assignment: g.assignment }))}
         exports={exports.map((e) => ({ id: e.id, kind: e.kind, state: e.state, progress: e.progress, message: e.message, fileName: e.fileName, createdAt: e.createdAt.toISOString() }))}
       />
     </>
