@@ -51,5 +51,6 @@ export function formatShopDate(value: string | Date, c: ShopClock = {}): string 
 /** An instant as the shop's clock shows it, with the zone named: "Dec 4, 2026, 12:56 AM CST". */
 export function formatShopDateTime(at: Date, c: ShopClock = {}): string {
   const { locale, timeZone } = clock(c);
-  return new Intl.DateTimeFormat(locale, { dateStyle: "medium", timeStyle: "short", timeZone, timeZoneName: "short" }).format(at);
+  // ECMA-402 refuses timeZoneName beside dateStyle, so the parts are named one by one.
+  return new Intl.DateTimeFormat(locale, { year: "numeric", month: "short", day: "numeric", hour: "numeric", minute: "2-digit", timeZone, timeZoneName: "short" }).format(at);
 }

@@ -118,21 +118,71 @@ export interface PrintPlanInput {
   sparePercent: number;
 }
 
-/** The suggested grading, each width rounded down to the precision the plan shows. */
+/** The print on one size at a given ink width: top-aligned prints keep their top, centred ones their centre. */
+function sizedPlacement(placement: Placement, widthIn: number, middleAligned: boolean): Placement {
+  const heightIn = widthIn / (placement.widthIn / placement.heightIn);
+  const belowCollarIn = middleAligned ? placement.belowCollarIn + (placement.heightIn - heightIn) / 2 : placement.belowCollarIn;
+  return { ...placement, widthIn, heightIn, belowCollarIn };
+}
+
+function fitChecks(placement: Placement, category: GarmentCategory, row: SizeRow): PlacementWarning[] {
+  return checkPlacement({ placement, category, group: row.group, measurements: row.measurements, size: row.size }).filter((w) => FIT_CODES.has(w.code) && w.severity !== "info");
+}
+
+/**
+ * The widest ink, on the 1/8 in grid, that passes every fit check at this size where the print
+ * actually sits (its own top and offset, not the location's usual ones). Searches down from the
+ * print area's bound; 0 when not even 1/8 in fits there.
+ */
+export function widestFit(placement: Placement, category: GarmentCategory, row: SizeRow, boundIn: number, middleAligned: boolean): number {
+  const fits = (steps: number) => steps > 0 && fitChecks(sizedPlacement(placement, steps * PLAN_STEP_IN, middleAligned), category, row).length === 0;
+  let hi = Math.floor(boundIn / PLAN_STEP_IN + 1e-9);
+  if (hi <= 0) return 0;
+  if (fits(hi)) return hi * PLAN_STEP_IN;
+  // Bigger art only adds problems, so the fitting widths are a run from 1/8 in up: bisect its end.
+  let lo = 0;
+  while (hi - lo > 1) {
+    const mid = (lo + hi) >> 1;
+    if (fits(mid)) lo = mid;
+    else hi = mid;
+  }
+  return lo * PLAN_STEP_IN;
+}
+
+/**
+ * The suggested grading. Each size's allowance is the widest ink that passes every fit check
+ * where the print sits (widestFit), so a suggested width is never flagged; widths are on the
+ * 1/8 in grid the plan shows.
+ */
 export function suggestGrading(input: Pick<PrintPlanInput, "category" | "chart" | "sizeRun" | "placement" | "designedOn">, transferCount: number): { suggestion: GradingResult | null; missing: string[]; noRoom: string[] } {
   const { sizes, missing, noRoom } = gradingSizes({ ...input, chart: [...input.chart], sizeRun: [...input.sizeRun] });
-  const usable = sizes
-    .map((s) => ({ ...s, allowedWidthIn: floorToStep(s.allowedWidthIn) }))
-    .filter((s) => s.allowedWidthIn > 0)
-    .map((s) => ({ ...s, idealWidthIn: Math.min(s.idealWidthIn, s.allowedWidthIn) }));
-  for (const s of sizes) if (floorToStep(s.allowedWidthIn) <= 0) noRoom.push(s.size);
+  const middle = isMiddleAligned(input.placement, input.category, input.chart);
+  const usable = [];
+  for (const s of sizes) {
+    const row = input.chart.find((r) => r.size === s.size)!;
+    const allowedWidthIn = widestFit(input.placement, input.category, row, s.allowedWidthIn, middle);
+    if (allowedWidthIn <= 0) noRoom.push(s.size);
+    else usable.push({ ...s, allowedWidthIn, idealWidthIn: Math.min(s.idealWidthIn, allowedWidthIn) });
+  }
   if (!usable.length) return { suggestion: null, missing, noRoom };
   const raw = gradeSizeRun(usable, transferCount);
-  // Round every chosen width down to 1/8 in: never wider than any size's allowance it was chosen under.
+  // Nothing ordered yet: no width to suggest.
+  if (!raw.groups.length) return { suggestion: null, missing, noRoom };
+  // The chosen widths are allowances (on the grid) or ideals: round down so none passes an allowance.
   const assignment: Record<string, number> = {};
-  for (const [size, width] of Object.entries(raw.assignment)) assignment[size] = floorToStep(width);
-  const groups = raw.groups.map((g) => ({ ...g, widthIn: floorToStep(g.widthIn) }));
+  // Never below 1/8 in: every usable size's allowance is at least that, so it still fits.
+  const onGrid = (w: number) => Math.max(PLAN_STEP_IN, floorToStep(w));
+  for (const [size, width] of Object.entries(raw.assignment)) assignment[size] = onGrid(width);
+  // A size not ordered now that no chosen width fits gets its own fitting width, so a reorder is never flagged.
+  for (const s of usable) if (assignment[s.size] === undefined) assignment[s.size] = onGrid(s.idealWidthIn);
+  const groups = raw.groups.map((g) => ({ ...g, widthIn: onGrid(g.widthIn) }));
   return { suggestion: { ...raw, groups, assignment }, missing, noRoom };
+}
+
+function isMiddleAligned(placement: Placement, category: GarmentCategory, chart: readonly SizeRow[]): boolean {
+  const first = chart[0];
+  if (!first) return false;
+  return locationSpec({ location: placement.location, category, group: first.group, measurements: first.measurements }).verticalAlign === "middle";
 }
 
 const same = (a: number, b: number) => Math.abs(a - b) < 1e-9;
@@ -144,8 +194,7 @@ export function printPlan(input: PrintPlanInput): PrintPlan {
   const transferCount = input.transferCount ?? input.saved?.transferCount ?? 2;
   const { suggestion, missing, noRoom } = suggestGrading(input, transferCount);
   const basis: PrintPlan["basis"] = input.saved && Object.keys(input.saved.assignment).length ? "graded" : "designed";
-  const spec0 = chart[0] ? locationSpec({ location: placement.location, category, group: chart[0].group, measurements: chart[0].measurements }) : null;
-  const middleAligned = spec0?.verticalAlign === "middle";
+  const middleAligned = isMiddleAligned(placement, category, chart);
 
   const rows: Array<Omit<PlanSize, "group">> = [];
   for (const entry of input.sizeRun) {
@@ -153,13 +202,11 @@ export function printPlan(input: PrintPlanInput): PrintPlan {
     if (!row || noRoom.includes(entry.size)) continue;
     const spec = locationSpec({ location: placement.location, category, group: row.group, measurements: row.measurements });
     const widthIn = basis === "graded" ? (input.saved!.assignment[entry.size] ?? placement.widthIn) : placement.widthIn;
-    const heightIn = widthIn / aspect;
     // Top-aligned prints keep their top edge; centred ones (sleeves, pouch, tote) keep their centre.
-    const topIn = middleAligned ? placement.belowCollarIn + (placement.heightIn - heightIn) / 2 : placement.belowCollarIn;
-    const sized: Placement = { ...placement, widthIn, heightIn, belowCollarIn: topIn };
-    const checks = checkPlacement({ placement: sized, category, group: row.group, measurements: row.measurements, size: row.size }).filter(
-      (w) => FIT_CODES.has(w.code) && w.severity !== "info",
-    );
+    const sized = sizedPlacement(placement, widthIn, middleAligned);
+    const heightIn = sized.heightIn;
+    const topIn = sized.belowCollarIn;
+    const checks = fitChecks(sized, category, row);
     const suggested = suggestion?.assignment[entry.size];
     const spares = sparesFor(entry.quantity, input.sparePercent);
     rows.push({
@@ -210,6 +257,14 @@ export function printPlan(input: PrintPlanInput): PrintPlan {
     suggestion,
     suggestionDiffers,
   };
+}
+
+/** One size's print, for a test print: from the plan when the size is in the run, else planned alone. */
+export function planForSize(input: PrintPlanInput, plan: PrintPlan, size: string): PlanSize | undefined {
+  const inRun = plan.sizes.find((s) => s.size === size);
+  if (inRun) return inRun;
+  const saved = plan.basis === "graded" ? input.saved : null;
+  return printPlan({ ...input, saved, sizeRun: [{ size, quantity: 0 }] }).sizes[0];
 }
 
 /** The plan with the suggested grading applied (what "apply the suggestion" saves). */

@@ -4,13 +4,15 @@ import { findJob } from "@/db/queries/jobs";
 import { listGradings, listJobSizes } from "@/db/queries/production";
 import { getProductionDocument, listProofsForJob, type ProductionDocument } from "@/db/queries/proofs";
 import type { DecorationMethod } from "@/lib/jobs";
-import { printPlan, type PrintPlan } from "@/lib/production/print-plan";
+import { printPlan, type PrintPlan, type PrintPlanInput } from "@/lib/production/print-plan";
 
 export type JobPrint = {
   document: ProductionDocument["document"];
   placement: ProductionDocument["document"]["placements"][number];
   artwork: ProductionDocument["document"]["artworks"][number] | null;
   plan: PrintPlan;
+  /** What the plan was made from, to plan a size outside the run the same way. */
+  input: PrintPlanInput;
 };
 
 /**
@@ -31,7 +33,7 @@ export async function loadJobPrints({ shopId, jobId }: { shopId: string; jobId: 
     for (const placement of document.placements) {
       if (!placement.artworkId) continue;
       const saved = gradings.find((g) => g.placementId === placement.id);
-      const plan = printPlan({
+      const input: PrintPlanInput = {
         method: job.method as DecorationMethod,
         category: blank.category,
         chart: blank.sizeChart,
@@ -40,8 +42,8 @@ export async function loadJobPrints({ shopId, jobId }: { shopId: string; jobId: 
         designedOn: document.proof.size,
         saved: saved ? { transferCount: saved.transferCount, assignment: saved.assignment } : null,
         sparePercent: job.sparePercent,
-      });
-      prints.push({ document: { ...document, blank }, placement, artwork: document.artworks.find((a) => a.id === placement.artworkId) ?? null, plan });
+      };
+      prints.push({ document: { ...document, blank }, placement, artwork: document.artworks.find((a) => a.id === placement.artworkId) ?? null, plan: printPlan(input), input });
     }
   }
   return { job, sizeRun, printed, prints, gradings };

@@ -6,11 +6,11 @@ import { formatShopDate, formatShopDateTime } from "@/lib/dates";
 import { LOCATION_LABELS, locationSpec } from "@/lib/garments/locations";
 import { DECORATION_LABELS, type DecorationMethod } from "@/lib/jobs";
 import { expandTransfers, packGangSheet } from "@/lib/production/packing";
-import { gangItems, printPlan, usesGangSheets } from "@/lib/production/print-plan";
+import { gangItems, planForSize, usesGangSheets } from "@/lib/production/print-plan";
 import type { PaperId } from "@/lib/production/tiling";
 import { productionArt } from "./art-source";
 import { renderGangSheet } from "./gang-sheet";
-import { loadJobPrints, type JobPrint } from "./plans";
+import { loadJobPrints } from "./plans";
 import { renderSpecSheetPdf, specSheetLocation } from "./spec-sheet";
 import { renderTestPrintPdf } from "./test-print";
 
@@ -65,14 +65,14 @@ async function specSheet(shopId: string, jobId: string, progress: (f: number) =>
 }
 
 async function testPrint(shopId: string, jobId: string, params: Record<string, unknown>, progress: (f: number) => Promise<void>): Promise<Done> {
-  const { job, prints } = await loadPrints(shopId, jobId);
+  const { prints } = await loadPrints(shopId, jobId);
   const print = prints.find((p) => p.document.proof.id === params.proofId && p.placement.id === params.placementId);
   if (!print) throw new Error("That print is no longer on the proof.");
   if (!print.artwork) throw new Error("That print has no art to print.");
   const { document: doc, placement, plan } = print;
   const row = doc.blank.sizeChart.find((r) => r.size === params.size) ?? doc.blank.sizeChart.find((r) => r.size === doc.proof.size)!;
-  // The size's own print from the plan; a size outside the run gets the plan for that size alone.
-  const sized = plan.sizes.find((s) => s.size === row.size) ?? printPlan({ ...planInputOf(print, job), sizeRun: [{ size: row.size, quantity: 0 }] }).sizes[0];
+  // The size's own print from the plan; a size outside the run is planned on its own.
+  const sized = planForSize(print.input, plan, row.size);
   if (!sized) throw new Error(`Size ${row.size} has no room for this print.`);
   await progress(0.2);
   const source = await productionArt(print.artwork);
@@ -94,19 +94,6 @@ async function testPrint(shopId: string, jobId: string, params: Record<string, u
     collarLineYIn: params.outline ? -sized.topIn : undefined,
   });
   return { fileName: `${slugify(doc.job.title)}-test-print-${slugify(row.size)}-${String(params.paper)}${params.mirror ? "-mirrored" : ""}.pdf`, mime: "application/pdf", bytes: Buffer.from(pdf) };
-}
-
-function planInputOf(print: JobPrint, job: { method: string; sparePercent: number }) {
-  return {
-    method: job.method as DecorationMethod,
-    category: print.document.blank.category,
-    chart: print.document.blank.sizeChart,
-    sizeRun: [],
-    placement: print.placement,
-    designedOn: print.document.proof.size,
-    saved: print.plan.basis === "graded" ? { transferCount: print.plan.groups.length, assignment: Object.fromEntries(print.plan.sizes.map((s) => [s.size, s.widthIn])) } : null,
-    sparePercent: job.sparePercent,
-  };
 }
 
 async function gangSheet(shopId: string, jobId: string, kind: "gang-sheet-png" | "gang-sheet-pdf", params: Record<string, unknown>, progress: (f: number) => Promise<void>): Promise<Done> {
