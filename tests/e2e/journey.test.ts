@@ -252,7 +252,7 @@ describe("the whole job from an empty shop", () => {
     const gang = await pdfText(await download(press, "gang-sheet-pdf"));
     expect(gang.pages).toBeGreaterThan(0);
     const frontHeading = press.getByRole("region", { name: "Print sizes for Full front" }).getByRole("heading");
-    await expect(frontHeading.textContent()).resolves.toMatch(/designed at 9 in wide on size M/);
+    await expect(frontHeading.textContent()).resolves.toMatch(/designed at 9 in ink width on size M/);
 
     // --- After approval: only looking changes nothing; a real change starts a draft the press never sees.
     await owner.goto(`/shops/${slug}/proofs/${proofId}`);
@@ -270,7 +270,7 @@ describe("the whole job from an empty shop", () => {
 
     await press.goto(`${jobUrl}/production`);
     await press.getByTestId("newer-draft").getByText(/Revision B is a newer draft/).waitFor();
-    await expect(press.getByRole("region", { name: "Print sizes for Full front" }).getByRole("heading").textContent()).resolves.toMatch(/designed at 9 in wide on size M/);
+    await expect(press.getByRole("region", { name: "Print sizes for Full front" }).getByRole("heading").textContent()).resolves.toMatch(/designed at 9 in ink width on size M/);
     await press.getByRole("button", { name: "Make the spec sheet" }).click();
     const specAgain = await pdfText(await download(press, "spec-sheet", 2));
     expect(specAgain.text).toContain("9 x 5 7/8 in");

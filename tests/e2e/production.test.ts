@@ -40,9 +40,16 @@ describe("production exports", () => {
     await page.getByRole("link", { name: "Production" }).click();
     await page.getByText(/Heat presses and transfer platens run hot enough to burn skin/).waitFor();
     await page.getByText(/waist or bottom drawstring may show at most 3 in/).waitFor();
-    await page.getByTestId("grading-summary").first().waitFor();
-    await page.getByLabel("Number of transfer sizes").first().selectOption("1");
-    await expect(page.getByTestId("grading-summary").first().textContent()).resolves.toMatch(/^T1 /);
+    // Screen print: screens and film positives, no gang sheet.
+    await page.getByTestId("screen-list").getByText(/film positive/).first().waitFor();
+    expect(await page.getByRole("button", { name: "Gang sheet PNG" }).count()).toBe(0);
+    // The press applies the plan's suggested grading with one screen size for the whole run.
+    await page.getByLabel("Screen sizes to suggest").first().selectOption("1");
+    await page.getByTestId("plan-suggestion").first().waitFor();
+    await page.getByRole("button", { name: "Use the suggested sizes" }).first().click();
+    await page.getByRole("status").filter({ hasText: "The suggested sizes are now what the spec sheet" }).waitFor();
+    await expect(page.getByTestId("plan-now").first().textContent()).resolves.toMatch(/^Printing \(saved sizes\): S1 /);
+    const xsInk = (await page.locator("[data-testid=plan-row][data-size=XS] [data-testid=plan-ink]").first().textContent())!;
 
     // Spec sheet: queued, worked on by the worker with a progress bar, then ready.
     await page.getByRole("button", { name: "Make the spec sheet" }).click();
@@ -58,6 +65,10 @@ describe("production exports", () => {
     const allText = specPages.map((p) => p.text).join(" ");
     expect(allText).toContain("Spring season team tees");
     expect(allText).toContain("16 CFR 1120");
+    // The spec sheet prints the page's numbers: XS's ink as the table shows it, and the screen's film.
+    expect(allText).toContain(xsInk.replace(" in × ", " x "));
+    expect(allText).toMatch(/Screen S1: .* film positive/);
+    expect(allText).not.toMatch(/\d{4}-\d{2}-\d{2}T\d{2}:/);
 
     // Test print on A4: 210 × 297 mm = 595.28 × 841.89 pt (ISO 216, 25.4 mm per inch).
     await page.getByLabel("Paper").first().selectOption("a4");
@@ -74,12 +85,17 @@ describe("production exports", () => {
       expect(Math.max(p.width, p.height)).toBeCloseTo(841.89, 1);
     }
 
-    // Gang sheet PNG at 300 ppi on a 22 in roll: 6600 px wide (22 in × 300 ppi).
+    // A DTF job: a forecast of the sheets before any file, then the gang sheet PNG at 300 ppi on a
+    // 22 in roll: 6600 px wide (22 in × 300 ppi).
+    await page.goto(`/shops/${demo.slug}/jobs`);
+    await page.getByRole("link", { name: /Competition hoodies/ }).click();
+    await page.getByRole("link", { name: "Production" }).click();
+    await expect(page.getByTestId("gang-forecast").textContent()).resolves.toMatch(/\d+ sheets? for 26 transfers/);
     await page.getByRole("button", { name: "Gang sheet PNG" }).click();
     const gang = page.locator("[data-testid=export-row][data-kind=gang-sheet-png]").first();
     await gang.waitFor();
     await page.locator("[data-testid=export-row][data-kind=gang-sheet-png][data-state=done]").first().waitFor({ timeout: 120_000 });
-    const gangHref = await gang.getByRole("link", { name: /Download/ }).getAttribute("href");
+    const gangHref = await gang.getByRole("link", { name: /Download/ }).first().getAttribute("href");
     const gangPng = Buffer.from(await (await page.request.get(gangHref!)).body());
     const sharp = (await import("sharp")).default;
     const meta = await sharp(gangPng, { limitInputPixels: false }).metadata();
