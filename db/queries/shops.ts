@@ -47,6 +47,9 @@ export async function createShopWithOwner(input: {
   name: string;
   email: string;
   passwordHash: string;
+  /** The shop's clock (checked by the caller); the column defaults otherwise. */
+  timeZone?: string;
+  locale?: string;
 }): Promise<{ userId: string; shopSlug: string }> {
   const email = normalizeEmail(input.email);
   const slug = await uniqueSlug(input.shopName);
@@ -57,7 +60,10 @@ export async function createShopWithOwner(input: {
       .insert(users)
       .values({ email, name: input.name, passwordHash: input.passwordHash })
       .returning({ id: users.id });
-    const [shop] = await tx.insert(shops).values({ name: input.shopName, slug }).returning({ id: shops.id });
+    const [shop] = await tx
+      .insert(shops)
+      .values({ name: input.shopName, slug, ...(input.timeZone ? { timeZone: input.timeZone } : {}), ...(input.locale ? { locale: input.locale } : {}) })
+      .returning({ id: shops.id });
     await tx.insert(memberships).values({ shopId: shop!.id, userId: user!.id, role: "owner" });
     await recordAudit({ shopId: shop!.id, actorUserId: user!.id, action: "shop.created", subjectType: "shop", subjectId: shop!.id }, tx);
     return { userId: user!.id, shopSlug: slug };

@@ -30,7 +30,8 @@ export function SignUpForm() {
 
   const onSubmit = handleSubmit(async (values) => {
     setError(undefined);
-    const result = await signUpAction(values);
+    const clock = Intl.DateTimeFormat().resolvedOptions();
+    const result = await signUpAction({ ...values, timeZone: clock.timeZone, locale: clock.locale });
     if (!result.ok) {
       setError(result.error);
       for (const [field, messages] of Object.entries(result.fieldErrors ?? {})) {

@@ -5,6 +5,7 @@ import { z } from "zod";
 import type { ActionResult } from "@/app/_server/access";
 import { LIMITS, takeLimits, UNAVAILABLE_MESSAGE } from "@/app/_server/rate-limit";
 import { createShopWithOwner, EmailTakenError } from "@/db/queries/shops";
+import { isKnownLocale, isKnownTimeZone } from "@/lib/dates";
 import { parseInput } from "@/lib/input";
 
 const signUpSchema = z.object({
@@ -12,6 +13,9 @@ const signUpSchema = z.object({
   name: z.string().trim().min(1, "Tell us your name.").max(80, "Keep your name under 80 characters."),
   email: z.string().trim().toLowerCase().email("Enter a valid e-mail address."),
   password: z.string().min(10, "Use at least 10 characters.").max(200, "Use at most 200 characters."),
+  /** The browser's own clock and language, so a new shop's dates read right from the start; unknown ones are dropped. */
+  timeZone: z.string().max(64).optional(),
+  locale: z.string().max(35).optional(),
 });
 
 export type SignUpInput = z.input<typeof signUpSchema>;
@@ -25,7 +29,13 @@ export async function signUpAction(input: SignUpInput): Promise<ActionResult<{ s
   if (!taken.ok) return { ok: false, error: taken.status === 429 ? "Too many attempts. Wait a minute and try again." : UNAVAILABLE_MESSAGE, status: taken.status };
   try {
     const passwordHash = await bcrypt.hash(parsed.data.password, 10);
-    const { shopSlug } = await createShopWithOwner({ ...parsed.data, passwordHash });
+    const { timeZone, locale, ...account } = parsed.data;
+    const { shopSlug } = await createShopWithOwner({
+      ...account,
+      passwordHash,
+      timeZone: timeZone && isKnownTimeZone(timeZone) ? timeZone : undefined,
+      locale: locale && isKnownLocale(locale) ? locale : undefined,
+    });
     return { ok: true, data: { shopSlug } };
   } catch (error) {
     if (error instanceof EmailTakenError) return { ok: false, error: error.message, fieldErrors: { email: [error.message] } };
