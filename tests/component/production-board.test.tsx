@@ -40,7 +40,7 @@ function props(method: "screen-print" | "dtf", over: Partial<Parameters<typeof P
         proofName: "Team tee",
         designedOn: "M",
         colourHex: "#334455",
-        blank: { name: tee.name, category: tee.category, sizeChart: tee.sizes },
+        blank: { name: tee.styleName, category: tee.category, sizeChart: tee.sizes },
         placement: { id: "front", location: "full-front" as const, artworkId: "art", widthIn: 13, heightIn: 13, offsetFromCenterIn: 0, belowCollarIn: 3, rotationDeg: 0, label: "Full front" },
         artworkId: "art",
         saved: null,

@@ -8,6 +8,7 @@ import { DECORATION_LABELS, type DecorationMethod } from "@/lib/jobs";
 import { expandTransfers, packGangSheet } from "@/lib/production/packing";
 import { gangItems, planForSize, usesGangSheets } from "@/lib/production/print-plan";
 import type { PaperId } from "@/lib/production/tiling";
+import { formatLength } from "@/lib/units";
 import { productionArt } from "./art-source";
 import { renderGangSheet } from "./gang-sheet";
 import { loadJobPrints } from "./plans";
@@ -84,7 +85,7 @@ async function testPrint(shopId: string, jobId: string, params: Record<string, u
     printArea = { widthIn: spec.printArea.width, heightIn: spec.printArea.height, offsetXIn: spec.printArea.x - artLeft, offsetYIn: spec.printArea.y - sized.topIn };
   }
   const { pdf } = await renderTestPrintPdf({
-    title: `${doc.job.title} · ${LOCATION_LABELS[placement.location]} · size ${row.size} · ${sized.group}`,
+    title: `${doc.job.title} · ${LOCATION_LABELS[placement.location]} · size ${row.size} · ${sized.group} · ink ${formatLength(sized.widthIn, "in")} × ${formatLength(sized.heightIn, "in")}, ${formatLength(sized.topIn, "in")} below ${plan.topFrom === "collar" ? "collar" : "top edge"}`,
     art: source,
     artWidthIn: sized.widthIn,
     artHeightIn: sized.heightIn,
