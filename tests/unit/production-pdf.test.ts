@@ -1,4 +1,5 @@
 import fc from "fast-check";
+import type { PDFFont } from "pdf-lib";
 import sharp from "sharp";
 import { beforeAll, describe, expect, it } from "vitest";
 import {
@@ -18,8 +19,11 @@ import {
   FIVE_CM_BAR_PT,
   ONE_INCH_BAR_PT,
   SCALE_BAR_HEIGHT_PT,
+  TITLE_MAX_LINES,
   joinInstruction,
   renderTestPrintPdf,
+  titleLines,
+  wrapAtWords,
   type TestPrintInput,
 } from "@/app/_server/production/test-print";
 import { planTiles, tileCoverage, type PaperId, type TilePlan } from "@/lib/production/tiling";
@@ -984,5 +988,76 @@ describe("test print labels stay off the art", () => {
         for (let x = 0; x < img.width; x++) if (pixel(img, x, y).slice(0, 3).every((v) => v < 60)) dark += 1;
       expect(dark, `page ${tile.label}: labels in the band`).toBeGreaterThan(500);
     }
+  });
+});
+
+describe("test print titles", () => {
+  let fonts: { regular: PDFFont; bold: PDFFont };
+  beforeAll(async () => {
+    const { PDFDocument, StandardFonts } = await import("pdf-lib");
+    const doc = await PDFDocument.create();
+    fonts = {
+      regular: await doc.embedFont(StandardFonts.Helvetica),
+      bold: await doc.embedFont(StandardFonts.HelveticaBold),
+    };
+  });
+  const widthOf = (t: string, size = 7.5) => fonts.regular.widthOfTextAtSize(t, size);
+
+  it.each([
+    { title: "Maple Street 5K volunteer tees · Full front · size XS · T1", width: 90 },
+    { title: "Maple Street 5K volunteer tees · Full front · size XS · T1", width: 150 },
+    { title: "Harbour Lane spring open day staff and volunteers · Left chest · size 3XL · T2", width: 60 },
+  ])("wraps $title at $width pt only between words, and no line starts with a separator", ({ title, width }) => {
+    const lines = wrapAtWords(title, fonts.regular, 7.5, width);
+    expect(lines.length).toBeGreaterThan(1);
+    expect(lines.join(" ")).toBe(title);
+    for (const line of lines) {
+      expect(widthOf(line)).toBeLessThanOrEqual(width);
+      expect(line).not.toMatch(/^·/);
+    }
+  });
+
+  it("cuts a word longer than a line with a hyphen, and only that word", () => {
+    const word = "Pneumonoultramicroscopicsilicovolcanoconiosis";
+    const title = `Crew ${word} tees · size M`;
+    const lines = wrapAtWords(title, fonts.regular, 7.5, 60);
+    expect(lines[0]).toBe("Crew");
+    expect(lines.filter((l) => l.endsWith("-")).length).toBeGreaterThan(1);
+    // Put back together: a piece ending in "-" runs on into the next line, any other line ends at a space.
+    const rebuilt = lines.map((l, i) => (i === lines.length - 1 ? l : l.endsWith("-") ? l.slice(0, -1) : `${l} `));
+    expect(rebuilt.join("")).toBe(title);
+    for (const line of lines) expect(widthOf(line)).toBeLessThanOrEqual(60);
+    // Only the long word was cut: every other word is whole on one line.
+    for (const w of ["Crew", "tees", "size", "M"]) expect(lines.some((l) => l.split(" ").includes(w))).toBe(true);
+  });
+
+  it(`stops after ${TITLE_MAX_LINES} lines with "..." after a whole word`, () => {
+    const title = Array.from({ length: 60 }, (_, i) => `word${i + 1}`).join(" ");
+    const lines = titleLines(title, fonts.regular, 7.5, 150);
+    expect(lines).toHaveLength(TITLE_MAX_LINES);
+    const shown = lines.join(" ");
+    expect(shown).toMatch(/word\d+\.\.\.$/);
+    const before = shown.replace(/\.\.\.$/, "");
+    expect(title.startsWith(before)).toBe(true);
+    expect(title[before.length]).toBe(" ");
+    for (const line of lines) expect(widthOf(line)).toBeLessThanOrEqual(150);
+  });
+
+  it("prints a long title whole, over several lines broken between words", async () => {
+    const title =
+      "Maple Street 5K volunteer tees for the spring harbour open day and the autumn river run · Full front · size XS · T1";
+    const { pdf } = await renderTestPrintPdf({
+      title,
+      art: { png: await solidPng("#00a050") },
+      artWidthIn: 6,
+      artHeightIn: 4,
+      paper: "a4",
+    });
+    const page = await (await openPdf(pdf)).getPage(1);
+    const runs = (await textBoxes(page)).map((t) => t.str);
+    expect(runs).not.toContain(title);
+    const titleRuns = runs.filter((r) => title.includes(r) && r.length > 10);
+    expect(titleRuns.length).toBeGreaterThan(1);
+    expect(titleRuns.join(" ")).toBe(title);
   });
 });
