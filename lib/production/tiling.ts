@@ -9,6 +9,11 @@
  * Coordinates: inches. Art space has its origin at the art's top-left corner, x to the
  * right, y down. Page space has its origin at the page's top-left corner.
  *
+ * A page's printable area (the page less its margins) may keep a label band along its lower
+ * edge, as deep as the caller asks: no art is ever placed there, so the page's labels and
+ * scale bars can be printed in it without covering the art. The art fills the rest, the art
+ * area, from the printable area's top-left corner.
+ *
  * Tile names are our own scheme: a letter for the row (A, B, … Z, AA, AB, …) and a number
  * for the column, so "B2" is the second row, second column as the taped sheet is seen.
  */
@@ -116,10 +121,16 @@ export interface TilePlan {
   artHeightIn: number;
   marginIn: number;
   overlapIn: number;
+  /** Depth of the strip along the lower edge of the printable area kept free of art, inches. */
+  labelBandIn: number;
   pageWidthIn: number;
   pageHeightIn: number;
+  /** The page less its margins. */
   printableWidthIn: number;
   printableHeightIn: number;
+  /** The part of the printable area the art may fill: all of it but the label band. */
+  artAreaWidthIn: number;
+  artAreaHeightIn: number;
   columns: number;
   rows: number;
   tiles: Tile[];
@@ -132,6 +143,8 @@ export interface TileOptions {
   paper: PaperSize | PaperId;
   marginIn?: number;
   overlapIn?: number;
+  /** Depth of a strip along the lower edge of the printable area to keep free of art. Default 0. */
+  labelBandIn?: number;
   /** Default "auto": whichever needs fewer pages, portrait on a tie. */
   orientation?: TileOrientation | "auto";
   /** Print mirrored (see `mirrorX`). Default false. */
@@ -154,10 +167,10 @@ export function tileLabel(row: number, column: number): string {
   return `${rowLetters(row)}${column + 1}`;
 }
 
-/** How many tiles of `printable` with `overlap` cover `length`. */
-function tileCount(length: number, printable: number, overlap: number): number {
-  if (length <= printable) return 1;
-  return Math.ceil((length - overlap) / (printable - overlap) - COUNT_SLACK);
+/** How many tiles, each showing `room` of art and sharing `overlap` with the next, cover `length`. */
+function tileCount(length: number, room: number, overlap: number): number {
+  if (length <= room) return 1;
+  return Math.ceil((length - overlap) / (room - overlap) - COUNT_SLACK);
 }
 
 function requireFinite(value: number, what: string, min: "positive" | "non-negative"): void {
@@ -182,6 +195,8 @@ interface Layout {
   pageHeightIn: number;
   printableWidthIn: number;
   printableHeightIn: number;
+  artAreaWidthIn: number;
+  artAreaHeightIn: number;
   columns: number;
   rows: number;
 }
@@ -192,35 +207,40 @@ function layoutFor(
   art: { w: number; h: number },
   marginIn: number,
   overlapIn: number,
+  labelBandIn: number,
 ): Layout {
   const pageWidthIn = orientation === "portrait" ? paper.widthIn : paper.heightIn;
   const pageHeightIn = orientation === "portrait" ? paper.heightIn : paper.widthIn;
   const printableWidthIn = pageWidthIn - 2 * marginIn;
   const printableHeightIn = pageHeightIn - 2 * marginIn;
+  const artAreaWidthIn = printableWidthIn;
+  const artAreaHeightIn = printableHeightIn - labelBandIn;
   return {
     orientation,
     pageWidthIn,
     pageHeightIn,
     printableWidthIn,
     printableHeightIn,
-    columns: tileCount(art.w, printableWidthIn, overlapIn),
-    rows: tileCount(art.h, printableHeightIn, overlapIn),
+    artAreaWidthIn,
+    artAreaHeightIn,
+    columns: tileCount(art.w, artAreaWidthIn, overlapIn),
+    rows: tileCount(art.h, artAreaHeightIn, overlapIn),
   };
 }
 
 /** Slice `index` of a length cut into `count` tiles: [start, start + size]. */
-function slice(index: number, count: number, length: number, printable: number, overlap: number) {
+function slice(index: number, count: number, length: number, room: number, overlap: number) {
   if (count === 1) return { start: 0, size: length };
-  const start = index * (printable - overlap);
+  const start = index * (room - overlap);
   // The last slice takes what is left; never more than a page holds (float slack only).
-  const size = index === count - 1 ? Math.min(printable, length - start) : printable;
+  const size = index === count - 1 ? Math.min(room, length - start) : room;
   return { start, size };
 }
 
 /**
  * Cuts the art into pages. Throws RangeError for art sizes that are not positive, margins
- * that leave no printable area, an overlap as big as the printable area, or a plan needing
- * more than MAX_TILE_PAGES pages.
+ * (with the label band) that leave no room for art, an overlap as big as the art area, or a
+ * plan needing more than MAX_TILE_PAGES pages.
  */
 export function planTiles(options: TileOptions): TilePlan {
   const {
@@ -228,6 +248,7 @@ export function planTiles(options: TileOptions): TilePlan {
     artHeightIn,
     marginIn = DEFAULT_TILE_MARGIN_IN,
     overlapIn = DEFAULT_TILE_OVERLAP_IN,
+    labelBandIn = 0,
     orientation = "auto",
     mirror = false,
   } = options;
@@ -238,6 +259,7 @@ export function planTiles(options: TileOptions): TilePlan {
   requireFinite(paper.heightIn, "The paper height", "positive");
   requireFinite(marginIn, "The page margin", "non-negative");
   requireFinite(overlapIn, "The overlap", "non-negative");
+  requireFinite(labelBandIn, "The label band", "non-negative");
 
   const shortSide = Math.min(paper.widthIn, paper.heightIn);
   const shortPrintable = shortSide - 2 * marginIn;
@@ -246,20 +268,27 @@ export function planTiles(options: TileOptions): TilePlan {
       `A ${marginIn} in margin on every side leaves no printable area on ${paper.label} paper.`,
     );
   }
-  if (overlapIn >= shortPrintable) {
+  // The art area's shortest side in either orientation: the short side less margins and band.
+  const shortArtArea = shortPrintable - labelBandIn;
+  if (shortArtArea <= 0) {
     throw new RangeError(
-      `The ${overlapIn} in overlap must be smaller than the printable area (${shortPrintable.toFixed(3)} in across).`,
+      `A ${marginIn} in margin and a ${labelBandIn.toFixed(3)} in label band leave no room for art on ${paper.label} paper.`,
+    );
+  }
+  if (overlapIn >= shortArtArea) {
+    throw new RangeError(
+      `The ${overlapIn} in overlap must be smaller than the printable area (${shortArtArea.toFixed(3)} in across${labelBandIn > 0 ? " above the label band" : ""}).`,
     );
   }
 
   const art = { w: artWidthIn, h: artHeightIn };
   let layout: Layout;
   if (orientation === "auto") {
-    const portrait = layoutFor(paper, "portrait", art, marginIn, overlapIn);
-    const landscape = layoutFor(paper, "landscape", art, marginIn, overlapIn);
+    const portrait = layoutFor(paper, "portrait", art, marginIn, overlapIn, labelBandIn);
+    const landscape = layoutFor(paper, "landscape", art, marginIn, overlapIn, labelBandIn);
     layout = landscape.columns * landscape.rows < portrait.columns * portrait.rows ? landscape : portrait;
   } else if (orientation === "portrait" || orientation === "landscape") {
-    layout = layoutFor(paper, orientation, art, marginIn, overlapIn);
+    layout = layoutFor(paper, orientation, art, marginIn, overlapIn, labelBandIn);
   } else {
     throw new RangeError(`Orientation must be portrait, landscape or auto (got ${String(orientation)}).`);
   }
@@ -274,9 +303,9 @@ export function planTiles(options: TileOptions): TilePlan {
   const { columns, rows } = layout;
   const tiles: Tile[] = [];
   for (let row = 0; row < rows; row++) {
-    const ys = slice(row, rows, artHeightIn, layout.printableHeightIn, overlapIn);
+    const ys = slice(row, rows, artHeightIn, layout.artAreaHeightIn, overlapIn);
     for (let column = 0; column < columns; column++) {
-      const xs = slice(column, columns, artWidthIn, layout.printableWidthIn, overlapIn);
+      const xs = slice(column, columns, artWidthIn, layout.artAreaWidthIn, overlapIn);
       const joins: TileJoins = {};
       if (column + 1 < columns) joins.right = tileLabel(row, column + 1);
       if (row + 1 < rows) joins.below = tileLabel(row + 1, column);
@@ -306,10 +335,13 @@ export function planTiles(options: TileOptions): TilePlan {
     artHeightIn,
     marginIn,
     overlapIn,
+    labelBandIn,
     pageWidthIn: layout.pageWidthIn,
     pageHeightIn: layout.pageHeightIn,
     printableWidthIn: layout.printableWidthIn,
     printableHeightIn: layout.printableHeightIn,
+    artAreaWidthIn: layout.artAreaWidthIn,
+    artAreaHeightIn: layout.artAreaHeightIn,
     columns,
     rows,
     tiles,
@@ -325,9 +357,9 @@ export function planTiles(options: TileOptions): TilePlan {
  * reflection of the right-reading one. Reflect the whole taped sheet about its vertical
  * centre line: the page in column c lands in column (columns − 1 − c), keeping its art
  * rectangle, and its content is drawn flipped. So column 1 of a mirrored plan shows the
- * rightmost slice of the art. Each page's content also flips within the printable area,
- * so a slice narrower than the printable width moves from the left margin to the right:
- * pageX = margin + (printable − artWidth). Rows and labels stay in place (labels name the
+ * rightmost slice of the art. Each page's content also flips within the art area, so a
+ * slice narrower than the art area moves from the left margin to the right:
+ * pageX = margin + (art area width − artWidth). Rows and labels stay in place (labels name the
  * position on the sheet, not the slice of art), and neighbours keep their labels.
  *
  * This only moves existing tiles between positions, so mirrorX(mirrorX(plan)) equals plan
@@ -344,7 +376,7 @@ export function mirrorX(plan: TilePlan): TilePlan {
       artY: source.artY,
       artWidth: source.artWidth,
       artHeight: source.artHeight,
-      pageX: mirrored ? plan.marginIn + (plan.printableWidthIn - source.artWidth) : plan.marginIn,
+      pageX: mirrored ? plan.marginIn + (plan.artAreaWidthIn - source.artWidth) : plan.marginIn,
       pageY: source.pageY,
       joins: { ...target.joins },
     };
@@ -357,7 +389,7 @@ export interface TileCoverage {
   coversArt: boolean;
   /** Every art rectangle lies inside the art. */
   insideArt: boolean;
-  /** Every tile is drawn inside its page's printable area. */
+  /** Every tile is drawn inside its page's art area: the printable area, clear of the label band. */
   insidePrintable: boolean;
   /** Art overlap (inches) between each tile and its right-hand neighbour on the sheet. */
   horizontalOverlaps: number[];
@@ -375,7 +407,7 @@ function intervalOverlap(a0: number, a1: number, b0: number, b1: number): number
  * Checks a plan: whether the tiles' art rectangles cover the art (on the grid of every
  * rectangle edge, each cell's centre must fall in some tile; a union of rectangles covers a
  * cell of that grid wholly or not at all), whether the tiles stay inside the art and the
- * printable area, and how much neighbouring tiles overlap.
+ * art area, and how much neighbouring tiles overlap.
  */
 export function tileCoverage(plan: TilePlan): TileCoverage {
   const W = plan.artWidthIn;
@@ -419,8 +451,8 @@ export function tileCoverage(plan: TilePlan): TileCoverage {
     (t) =>
       t.pageX >= m - COVER_EPS &&
       t.pageY >= m - COVER_EPS &&
-      t.pageX + t.artWidth <= m + plan.printableWidthIn + COVER_EPS &&
-      t.pageY + t.artHeight <= m + plan.printableHeightIn + COVER_EPS,
+      t.pageX + t.artWidth <= m + plan.artAreaWidthIn + COVER_EPS &&
+      t.pageY + t.artHeight <= m + plan.artAreaHeightIn + COVER_EPS,
   );
 
   const at = new Map(plan.tiles.map((t) => [`${t.row}:${t.column}`, t]));

@@ -1,4 +1,5 @@
 import fc from "fast-check";
+import type { PDFFont } from "pdf-lib";
 import sharp from "sharp";
 import { beforeAll, describe, expect, it } from "vitest";
 import {
@@ -18,8 +19,11 @@ import {
   FIVE_CM_BAR_PT,
   ONE_INCH_BAR_PT,
   SCALE_BAR_HEIGHT_PT,
+  TITLE_MAX_LINES,
   joinInstruction,
   renderTestPrintPdf,
+  titleLines,
+  wrapAtWords,
   type TestPrintInput,
 } from "@/app/_server/production/test-print";
 import { planTiles, tileCoverage, type PaperId, type TilePlan } from "@/lib/production/tiling";
@@ -297,7 +301,7 @@ describe("renderTestPrintPdf", () => {
     }
   });
 
-  it("puts one tile on each page: the plan is planTiles' own, and the page count matches it", async () => {
+  it("puts one tile on each page: the plan is planTiles' own with a label band, and the page count matches it", async () => {
     const options = {
       artWidthIn: 18,
       artHeightIn: 24,
@@ -307,7 +311,8 @@ describe("renderTestPrintPdf", () => {
       orientation: "portrait" as const,
     };
     const { pdf, plan } = await renderTestPrintPdf(base(options));
-    expect(plan).toEqual(planTiles(options));
+    expect(plan.labelBandIn).toBeGreaterThan(0);
+    expect(plan).toEqual(planTiles({ ...options, labelBandIn: plan.labelBandIn }));
     expect(plan.pages).toBe(9);
     const doc = await openPdf(pdf);
     expect(doc.numPages).toBe(plan.pages);
@@ -337,7 +342,7 @@ describe("renderTestPrintPdf", () => {
         }),
         async (options) => {
           const { pdf, plan } = await renderTestPrintPdf(base(options));
-          expect(plan).toEqual(planTiles(options));
+          expect(plan).toEqual(planTiles({ ...options, labelBandIn: plan.labelBandIn }));
           const doc = await openPdf(pdf);
           expect(doc.numPages).toBe(plan.pages);
           const drawn: DrawnImage[][] = [];
@@ -800,5 +805,259 @@ describe("renderGangSheet", () => {
         },
       }),
     ).rejects.toThrow(RangeError);
+  });
+});
+
+// ---------------------------------------------------------------------------------------
+// Labels off the art.
+//
+// The art's rectangle on a page is read from the PDF itself: the clip the art image is drawn
+// through. Text boxes come from pdf.js's text content (ISO 32000 9.4.4: each run's text matrix
+// gives its baseline origin and size, and pdf.js reports the run's advance width); each box runs
+// from a quarter of the size below the baseline to a full size above it, more than any
+// Helvetica glyph reaches (ascender 718, descender 207 per 1000 em, Adobe's Helvetica AFM).
+
+type TextBox = Box & { str: string };
+
+async function textBoxes(page: PdfPage): Promise<TextBox[]> {
+  const content = await page.getTextContent();
+  return content.items.flatMap((item) => {
+    if (!("str" in item) || item.str.trim() === "") return [];
+    const [, , c, d, e, f] = item.transform as Matrix;
+    const size = Math.hypot(c, d);
+    return [{ str: item.str, x0: e, x1: e + item.width, y0: f - 0.25 * size, y1: f + size }];
+  });
+}
+
+/** Whether two boxes share any area (touching edges, within `slack` pt, do not count). */
+function overlaps(a: Box, b: Box, slack = 0.01): boolean {
+  return a.x0 < b.x1 - slack && b.x0 < a.x1 - slack && a.y0 < b.y1 - slack && b.y0 < a.y1 - slack;
+}
+
+function inside(inner: Box, outer: Box, slack = 0.01): boolean {
+  return (
+    inner.x0 >= outer.x0 - slack &&
+    inner.y0 >= outer.y0 - slack &&
+    inner.x1 <= outer.x1 + slack &&
+    inner.y1 <= outer.y1 + slack
+  );
+}
+
+/**
+ * The strips a page shares with its neighbours, inside its art rectangle (PDF y up): each is
+ * `overlap` deep along the edge facing that neighbour on the taped sheet, as tiling says.
+ */
+function sharedStrips(art: Box, joins: TilePlan["tiles"][number]["joins"], overlapPt: number): Box[] {
+  if (overlapPt <= 0) return [];
+  const strips: Box[] = [];
+  if (joins.left) strips.push({ ...art, x1: art.x0 + overlapPt });
+  if (joins.right) strips.push({ ...art, x0: art.x1 - overlapPt });
+  if (joins.above) strips.push({ ...art, y0: art.y1 - overlapPt });
+  if (joins.below) strips.push({ ...art, y1: art.y0 + overlapPt });
+  return strips;
+}
+
+describe("test print labels stay off the art", () => {
+  let art: Buffer;
+  beforeAll(async () => {
+    art = await solidPng("#00a050", 40, 40);
+  });
+
+  const TITLE = "Maple Street 5K volunteer tees · Full front · size XS · T1";
+
+  // Paper sizes: Letter 8.5 × 11 in and Tabloid 11 × 17 in (ANSI/ASME Y14.1 sizes A and B); A4 210 × 297 mm
+  // and A3 297 × 420 mm (ISO 216). Margins 0.25 in and overlap 0.5 in unless a row says otherwise (our defaults).
+  it.each([
+    { name: "Letter, 11 × 14 in, print area and collar line", paper: "letter", artWidthIn: 11, artHeightIn: 14, guides: true },
+    // Exactly a Letter page's printable area (8.5 − 0.5 by 11 − 0.5): the art that the old panels covered most.
+    { name: "Letter, 8 × 10.5 in", paper: "letter", artWidthIn: 8, artHeightIn: 10.5 },
+    { name: "Letter, 4 × 3 in, one page", paper: "letter", artWidthIn: 4, artHeightIn: 3 },
+    { name: "Letter, 20 × 30 in, mirrored", paper: "letter", artWidthIn: 20, artHeightIn: 30, mirror: true },
+    { name: "Letter, 12 × 9 in, no overlap", paper: "letter", artWidthIn: 12, artHeightIn: 9, overlapIn: 0 },
+    { name: "Letter, 5 × 5 in, 2.5 in margins (labels stacked)", paper: "letter", artWidthIn: 5, artHeightIn: 5, marginIn: 2.5 },
+    { name: "A4, 20 × 20 in, mirrored, print area", paper: "a4", artWidthIn: 20, artHeightIn: 20, mirror: true, guides: true },
+    { name: "A4, 8 × 11 in", paper: "a4", artWidthIn: 8, artHeightIn: 11 },
+    { name: "Tabloid, 16 × 24 in", paper: "tabloid", artWidthIn: 16, artHeightIn: 24 },
+    { name: "A3, 12 × 16 in, 1 in overlap", paper: "a3", artWidthIn: 12, artHeightIn: 16, overlapIn: 1 },
+  ] as Array<Partial<TestPrintInput> & { name: string; paper: PaperId; guides?: boolean }>)(
+    "$name: no word or scale bar on the art, and nothing filled on it but the shared strips",
+    async ({ name, guides, ...options }) => {
+      void name;
+      const { pdf, plan } = await renderTestPrintPdf({
+        title: TITLE,
+        art: { png: art },
+        ...options,
+        ...(guides
+          ? {
+              printArea: { widthIn: 12, heightIn: 16, offsetXIn: -0.5, offsetYIn: 1 },
+              collarLineYIn: 2,
+            }
+          : {}),
+      } as TestPrintInput);
+      expect(plan.labelBandIn).toBeGreaterThan(0);
+      expect(tileCoverage(plan).insidePrintable).toBe(true);
+      const doc = await openPdf(pdf);
+      expect(doc.numPages).toBe(plan.pages);
+      const m = plan.marginIn * 72;
+      const printable: Box = { x0: m, y0: m, x1: plan.pageWidthIn * 72 - m, y1: plan.pageHeightIn * 72 - m };
+      const all = await pages(doc);
+      for (const [i, page] of all.entries()) {
+        const tile = plan.tiles[i]!;
+        const { filled, images } = await walk(page);
+        expect(images).toHaveLength(1);
+        const artBox = images[0]!.clip!;
+        // The art is where the plan put it, at true size (72 pt per inch, ISO 32000).
+        expect(artBox.x1 - artBox.x0).toBeCloseTo(tile.artWidth * 72, 3);
+        expect(artBox.y1 - artBox.y0).toBeCloseTo(tile.artHeight * 72, 3);
+
+        const texts = await textBoxes(page);
+        expect(texts.map((t) => t.str).join(" ")).toContain(tile.label);
+        for (const t of texts) {
+          expect(overlaps(t, artBox), `page ${tile.label}: "${t.str}" over the art`).toBe(false);
+          expect(inside(t, printable), `page ${tile.label}: "${t.str}" in the printable area`).toBe(true);
+        }
+        const bars = [...barsOfLength(filled, 72), ...barsOfLength(filled, (5 / 2.54) * 72)];
+        expect(bars).toHaveLength(2);
+        for (const bar of bars) expect(overlaps(bar, artBox), `page ${tile.label}: scale bar`).toBe(false);
+
+        const strips = sharedStrips(artBox, tile.joins, plan.overlapIn * 72);
+        for (const box of filled) {
+          if (!overlaps(box, artBox)) continue;
+          expect(
+            strips.some((s) => inside(box, s)),
+            `page ${tile.label}: a filled shape at ${JSON.stringify(box)} on the art is not a shared strip`,
+          ).toBe(true);
+        }
+      }
+    },
+  );
+
+  it("gives an art as big as a whole printable area a second page rather than printing over it", async () => {
+    // Letter portrait's printable area is 8 × 10.5 in (ANSI/ASME Y14.1, 0.25 in margins); once the band
+    // is taken, 10.5 in down needs ceil((10.5 − 0.5) / (10.5 − band − 0.5)) = 2 rows.
+    const { plan } = await renderTestPrintPdf({
+      title: TITLE,
+      art: { png: art },
+      artWidthIn: 8,
+      artHeightIn: 10.5,
+      paper: "letter",
+      orientation: "portrait",
+    });
+    expect(plan.artAreaHeightIn).toBeCloseTo(10.5 - plan.labelBandIn, 9);
+    expect([plan.columns, plan.rows]).toEqual([1, 2]);
+  });
+
+  // The raster check: art of one solid colour, rendered by pdf.js at 144 px per inch (scale 2 of
+  // 72 pt per inch, ISO 32000). Every pixel inside the art's rectangle must be the art's own colour,
+  // except in the shared strips, which are tinted on purpose and carry the round targets.
+  it.each([
+    { name: "Letter, 6 × 4 in, one page", paper: "letter" as PaperId, artWidthIn: 6, artHeightIn: 4 },
+    { name: "Letter, 11 × 14 in, 4 pages", paper: "letter" as PaperId, artWidthIn: 11, artHeightIn: 14 },
+    { name: "A4, 8 × 10.5 in, mirrored", paper: "a4" as PaperId, artWidthIn: 8, artHeightIn: 10.5, mirror: true },
+  ])("$name: every art pixel outside the shared strips is the art's colour", async (options) => {
+    const colour = [0, 160, 80];
+    const { pdf, plan } = await renderTestPrintPdf({ title: TITLE, art: { png: art }, ...options });
+    const doc = await openPdf(pdf);
+    const scale = 2;
+    const px = (inches: number) => inches * 72 * scale;
+    const ov = px(plan.overlapIn);
+    // Edges are anti-aliased: stay 2 px (1/72 in) inside the art and clear of the strips.
+    const edge = 2;
+    for (const [i, page] of (await pages(doc)).entries()) {
+      const tile = plan.tiles[i]!;
+      const img = await renderPage(page, scale);
+      const x0 = px(tile.pageX) + edge + (tile.joins.left ? ov : 0);
+      const x1 = px(tile.pageX + tile.artWidth) - edge - (tile.joins.right ? ov : 0);
+      const y0 = px(tile.pageY) + edge + (tile.joins.above ? ov : 0);
+      const y1 = px(tile.pageY + tile.artHeight) - edge - (tile.joins.below ? ov : 0);
+      let checked = 0;
+      const wrong: string[] = [];
+      for (let y = Math.ceil(y0); y < y1; y++) {
+        for (let x = Math.ceil(x0); x < x1; x++) {
+          checked += 1;
+          const p = pixel(img, x, y);
+          if (p.slice(0, 3).some((v, c) => Math.abs(v - colour[c]!) > 3) && wrong.length < 5)
+            wrong.push(`(${x}, ${y}) is ${p.join(",")}`);
+        }
+      }
+      expect(checked).toBeGreaterThan(1000);
+      expect(wrong, `page ${tile.label}`).toEqual([]);
+      // The labels are on the page all the same: dark pixels in the band below the art area.
+      let dark = 0;
+      for (let y = Math.ceil(px(plan.marginIn + plan.artAreaHeightIn)); y < px(plan.pageHeightIn - plan.marginIn); y++)
+        for (let x = 0; x < img.width; x++) if (pixel(img, x, y).slice(0, 3).every((v) => v < 60)) dark += 1;
+      expect(dark, `page ${tile.label}: labels in the band`).toBeGreaterThan(500);
+    }
+  });
+});
+
+describe("test print titles", () => {
+  let fonts: { regular: PDFFont; bold: PDFFont };
+  beforeAll(async () => {
+    const { PDFDocument, StandardFonts } = await import("pdf-lib");
+    const doc = await PDFDocument.create();
+    fonts = {
+      regular: await doc.embedFont(StandardFonts.Helvetica),
+      bold: await doc.embedFont(StandardFonts.HelveticaBold),
+    };
+  });
+  const widthOf = (t: string, size = 7.5) => fonts.regular.widthOfTextAtSize(t, size);
+
+  it.each([
+    { title: "Maple Street 5K volunteer tees · Full front · size XS · T1", width: 90 },
+    { title: "Maple Street 5K volunteer tees · Full front · size XS · T1", width: 150 },
+    { title: "Harbour Lane spring open day staff and volunteers · Left chest · size 3XL · T2", width: 60 },
+  ])("wraps $title at $width pt only between words, and no line starts with a separator", ({ title, width }) => {
+    const lines = wrapAtWords(title, fonts.regular, 7.5, width);
+    expect(lines.length).toBeGreaterThan(1);
+    expect(lines.join(" ")).toBe(title);
+    for (const line of lines) {
+      expect(widthOf(line)).toBeLessThanOrEqual(width);
+      expect(line).not.toMatch(/^·/);
+    }
+  });
+
+  it("cuts a word longer than a line with a hyphen, and only that word", () => {
+    const word = "Pneumonoultramicroscopicsilicovolcanoconiosis";
+    const title = `Crew ${word} tees · size M`;
+    const lines = wrapAtWords(title, fonts.regular, 7.5, 60);
+    expect(lines[0]).toBe("Crew");
+    expect(lines.filter((l) => l.endsWith("-")).length).toBeGreaterThan(1);
+    // Put back together: a piece ending in "-" runs on into the next line, any other line ends at a space.
+    const rebuilt = lines.map((l, i) => (i === lines.length - 1 ? l : l.endsWith("-") ? l.slice(0, -1) : `${l} `));
+    expect(rebuilt.join("")).toBe(title);
+    for (const line of lines) expect(widthOf(line)).toBeLessThanOrEqual(60);
+    // Only the long word was cut: every other word is whole on one line.
+    for (const w of ["Crew", "tees", "size", "M"]) expect(lines.some((l) => l.split(" ").includes(w))).toBe(true);
+  });
+
+  it(`stops after ${TITLE_MAX_LINES} lines with "..." after a whole word`, () => {
+    const title = Array.from({ length: 60 }, (_, i) => `word${i + 1}`).join(" ");
+    const lines = titleLines(title, fonts.regular, 7.5, 150);
+    expect(lines).toHaveLength(TITLE_MAX_LINES);
+    const shown = lines.join(" ");
+    expect(shown).toMatch(/word\d+\.\.\.$/);
+    const before = shown.replace(/\.\.\.$/, "");
+    expect(title.startsWith(before)).toBe(true);
+    expect(title[before.length]).toBe(" ");
+    for (const line of lines) expect(widthOf(line)).toBeLessThanOrEqual(150);
+  });
+
+  it("prints a long title whole, over several lines broken between words", async () => {
+    const title =
+      "Maple Street 5K volunteer tees for the spring harbour open day and the autumn river run · Full front · size XS · T1";
+    const { pdf } = await renderTestPrintPdf({
+      title,
+      art: { png: await solidPng("#00a050") },
+      artWidthIn: 6,
+      artHeightIn: 4,
+      paper: "a4",
+    });
+    const page = await (await openPdf(pdf)).getPage(1);
+    const runs = (await textBoxes(page)).map((t) => t.str);
+    expect(runs).not.toContain(title);
+    const titleRuns = runs.filter((r) => title.includes(r) && r.length > 10);
+    expect(titleRuns.length).toBeGreaterThan(1);
+    expect(titleRuns.join(" ")).toBe(title);
   });
 });

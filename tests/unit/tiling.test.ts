@@ -19,13 +19,14 @@ import { expectTiledArt } from "./oracles/tiling";
 
 /**
  * Where an art point lands on the taped sheet, measured from the sheet's top-left corner
- * (pages laid edge to edge at one pitch: printable − overlap). Right-reading plans must put
+ * (pages laid edge to edge at one pitch: art area − overlap, the art area being the printable
+ * area less the label band). Right-reading plans must put
  * every art point at its own art coordinates, whichever tile it is read from; mirrored plans
  * must put it at the reflection about the sheet's centre line.
  */
 function sheetPosition(plan: TilePlan, tile: Tile, x: number, y: number) {
-  const stepX = plan.printableWidthIn - plan.overlapIn;
-  const stepY = plan.printableHeightIn - plan.overlapIn;
+  const stepX = plan.pageWidthIn - 2 * plan.marginIn - plan.overlapIn;
+  const stepY = plan.pageHeightIn - 2 * plan.marginIn - plan.labelBandIn - plan.overlapIn;
   const within = plan.mirrored ? tile.artX + tile.artWidth - x : x - tile.artX;
   return {
     x: tile.column * stepX + (tile.pageX - plan.marginIn) + within,
@@ -34,7 +35,8 @@ function sheetPosition(plan: TilePlan, tile: Tile, x: number, y: number) {
 }
 
 function sheetWidth(plan: TilePlan): number {
-  return (plan.columns - 1) * (plan.printableWidthIn - plan.overlapIn) + plan.printableWidthIn;
+  const room = plan.pageWidthIn - 2 * plan.marginIn;
+  return (plan.columns - 1) * (room - plan.overlapIn) + room;
 }
 
 describe("PAPER_SIZES", () => {
@@ -251,6 +253,8 @@ describe("hand-worked plans on Letter, A4 and Tabloid", () => {
     orientation: "portrait" | "landscape";
     page: [number, number];
     printable: [number, number];
+    /** The printable area less the label band; the printable area itself when there is none. */
+    artArea?: [number, number];
     /** [art start, art size, page x] per column, in sheet order. */
     columns: Array<[number, number, number]>;
     /** [art start, art size] per row. */
@@ -407,15 +411,73 @@ describe("hand-worked plans on Letter, A4 and Tabloid", () => {
       ],
       pageY: 0.25,
     },
+    {
+      // A 1.5 in label band on Letter: portrait art area 8 × (10.5 − 1.5) = 8 × 9, step 7.5 × 8.5.
+      // Across ceil(10.5 / 7.5) = 2; down ceil(13.5 / 8.5) = ceil(1.59) = 2: 4 pages. Landscape art area
+      // 10.5 × (8 − 1.5) = 10.5 × 6.5, step 10 × 6: ceil(10.5 / 10) = 2 by ceil(13.5 / 6) = 3 = 6. Portrait.
+      name: "Letter, 11 × 14 in, 1.5 in label band",
+      options: { artWidthIn: 11, artHeightIn: 14, paper: "letter", labelBandIn: 1.5 },
+      orientation: "portrait",
+      page: [8.5, 11],
+      printable: [8, 10.5],
+      artArea: [8, 9],
+      columns: [
+        [0, 8, 0.25],
+        [7.5, 3.5, 0.25],
+      ],
+      rows: [
+        [0, 9], // the art stops 1.5 in above the printable area's lower edge
+        [8.5, 5.5], // starts 1 × 8.5; 14 − 8.5 = 5.5 left
+      ],
+      pageY: 0.25,
+    },
+    {
+      // Without a band, 10 × 7 in fits one landscape Letter page (10 ≤ 10.5, 7 ≤ 8, worked above). A 1.25 in
+      // band leaves a landscape art area of 10.5 × 6.75: ceil((7 − 0.5) / 6.25) = 2 rows = 2 pages; portrait
+      // 8 × 9.25: ceil((10 − 0.5) / 7.5) = 2 columns by 1 row = 2 pages. A tie: portrait.
+      name: "Letter, 10 × 7 in, 1.25 in label band, auto",
+      options: { artWidthIn: 10, artHeightIn: 7, paper: "letter", labelBandIn: 1.25 },
+      orientation: "portrait",
+      page: [8.5, 11],
+      printable: [8, 10.5],
+      artArea: [8, 9.25],
+      columns: [
+        [0, 8, 0.25],
+        [7.5, 2.5, 0.25], // 10 − 7.5 = 2.5 left
+      ],
+      rows: [[0, 7]],
+      pageY: 0.25,
+    },
+    {
+      // A4 with a 1 in band: portrait art area 7.767717 × 10.192913 needs 2 × ceil(10.5 / 9.692913) = 2 × 2 = 4;
+      // landscape art area 11.192913 × 6.767717 needs 1 (8 ≤ 11.19) by ceil(10.5 / 6.267717) = ceil(1.68) = 2
+      // = 2. Mirrored, the one column's 8 in slice sits against the right margin:
+      // 0.25 + (11.192913 − 8) = 3.442913.
+      name: "A4, 8 × 11 in, 1 in label band, mirrored",
+      options: { artWidthIn: 8, artHeightIn: 11, paper: "a4", labelBandIn: 1, mirror: true },
+      orientation: "landscape",
+      page: [11.692913, 8.267717], // 297 / 25.4, 210 / 25.4
+      printable: [11.192913, 7.767717],
+      artArea: [11.192913, 6.767717],
+      columns: [[0, 8, 3.442913]],
+      rows: [
+        [0, 6.767717],
+        [6.267717, 4.732283], // 11 − 6.267717 = 4.732283 left
+      ],
+      pageY: 0.25,
+    },
   ];
 
-  it.each(rows)("$name", ({ options, orientation, page, printable, columns, rows: down, pageY }) => {
+  it.each(rows)("$name", ({ options, orientation, page, printable, artArea, columns, rows: down, pageY }) => {
     const plan = planTiles(options);
     expect(plan.orientation).toBe(orientation);
     expect(plan.pageWidthIn).toBeCloseTo(page[0], 5);
     expect(plan.pageHeightIn).toBeCloseTo(page[1], 5);
     expect(plan.printableWidthIn).toBeCloseTo(printable[0], 5);
     expect(plan.printableHeightIn).toBeCloseTo(printable[1], 5);
+    expect(plan.artAreaWidthIn).toBeCloseTo((artArea ?? printable)[0], 5);
+    expect(plan.artAreaHeightIn).toBeCloseTo((artArea ?? printable)[1], 5);
+    expect(plan.labelBandIn).toBe(options.labelBandIn ?? 0);
     expect([plan.columns, plan.rows, plan.pages]).toEqual([
       columns.length,
       down.length,
@@ -442,6 +504,27 @@ describe("hand-worked plans on Letter, A4 and Tabloid", () => {
     expect(
       planTiles({ artWidthIn: 30, artHeightIn: 40, paper: "tabloid", orientation: "landscape" }).pages,
     ).toBe(8);
+  });
+});
+
+describe("the label band", () => {
+  it("keeps the art above it, and tileCoverage notices a tile pushed into it", () => {
+    // Letter portrait (ANSI/ASME Y14.1, 8.5 × 11 in), 0.25 in margins, 2 in band: art area 8 × (10.5 − 2) = 8 × 8.5.
+    const options = {
+      artWidthIn: 6,
+      artHeightIn: 8.5,
+      paper: "letter" as const,
+      orientation: "portrait" as const,
+      labelBandIn: 2,
+    };
+    const plan = planTiles(options);
+    expect(plan.pages).toBe(1);
+    expect(plan.artAreaHeightIn).toBe(8.5);
+    expect(tileCoverage(plan).insidePrintable).toBe(true);
+    const pushed = { ...plan, tiles: plan.tiles.map((t) => ({ ...t, pageY: t.pageY + 0.1 })) };
+    expect(tileCoverage(pushed).insidePrintable).toBe(false);
+    // 8.6 in down no longer fits: ceil((8.6 − 0.5) / (8.5 − 0.5)) = ceil(1.01) = 2 rows, by hand.
+    expect(planTiles({ ...options, artHeightIn: 8.6 }).rows).toBe(2);
   });
 });
 
@@ -510,6 +593,28 @@ describe("planTiles input errors", () => {
       message: /smaller than/,
     },
     {
+      name: "negative label band",
+      opts: { artWidthIn: 5, artHeightIn: 5, labelBandIn: -0.5 },
+      message: /label band/,
+    },
+    {
+      name: "NaN label band",
+      opts: { artWidthIn: 5, artHeightIn: 5, labelBandIn: NaN },
+      message: /label band/,
+    },
+    // Letter's short printable side is 8.5 − 2 × 0.25 = 8 in; an 8 in band leaves nothing for the art.
+    {
+      name: "label band as deep as the page",
+      opts: { artWidthIn: 5, artHeightIn: 5, labelBandIn: 8 },
+      message: /no room for art/,
+    },
+    // 8 − 7 = 1 in of art area across the short side: a 1 in overlap leaves no step.
+    {
+      name: "overlap as big as the room left above the band",
+      opts: { artWidthIn: 5, artHeightIn: 5, labelBandIn: 7, overlapIn: 1 },
+      message: /smaller than/,
+    },
+    {
       name: "too many pages",
       opts: { artWidthIn: 60, artHeightIn: 60, overlapIn: 7.9 },
       message: new RegExp(`more than the ${MAX_TILE_PAGES}`),
@@ -532,6 +637,10 @@ describe("planTiles properties", () => {
     paper: fc.constantFrom<PaperId>("letter", "a4", "tabloid", "a3"),
     marginIn: fc.double({ min: 0, max: 0.75, noNaN: true, noDefaultInfinity: true }),
     overlapIn: fc.oneof(fc.constant(0), fc.double({ min: 0, max: 2, noNaN: true, noDefaultInfinity: true })),
+    labelBandIn: fc.oneof(
+      fc.constant(0),
+      fc.double({ min: 0, max: 3, noNaN: true, noDefaultInfinity: true }),
+    ),
     orientation: fc.constantFrom("portrait" as const, "landscape" as const, "auto" as const),
     mirror: fc.boolean(),
   });
@@ -549,8 +658,12 @@ describe("planTiles properties", () => {
           }
           expect(t.artWidth).toBeGreaterThan(0);
           expect(t.artHeight).toBeGreaterThan(0);
-          expect(t.artWidth).toBeLessThanOrEqual(plan.printableWidthIn + 1e-9);
-          expect(t.artHeight).toBeLessThanOrEqual(plan.printableHeightIn + 1e-9);
+          expect(t.artWidth).toBeLessThanOrEqual(plan.artAreaWidthIn + 1e-9);
+          expect(t.artHeight).toBeLessThanOrEqual(plan.artAreaHeightIn + 1e-9);
+          // Nothing of the art in the label band (from the band's top down to the printable edge).
+          expect(t.pageY + t.artHeight).toBeLessThanOrEqual(
+            plan.marginIn + plan.printableHeightIn - opts.labelBandIn + 1e-9,
+          );
           expect(t.index).toBe(t.row * plan.columns + t.column);
           expect(t.label).toBe(tileLabel(t.row, t.column));
         }

@@ -19,17 +19,21 @@ import {
 import sharp, { type Metadata, type Sharp } from "sharp";
 import { planTiles, type PaperId, type Tile, type TileJoins, type TilePlan } from "@/lib/production/tiling";
 import { CM_PER_INCH, PDF_UNITS_PER_INCH, formatLength } from "@/lib/units";
-import { fitText, toWinAnsi, wrapText } from "./spec-sheet";
+import { toWinAnsi } from "./spec-sheet";
 
 /**
  * True-size tiled test prints as a PDF.
  *
  * Each page is the chosen paper in PDF points (72 per inch, ISO 32000). The tile's slice of
  * the art is drawn at true size (1 in of art = 72 pt) inside the page margins, clipped to
- * the tile, using the plan from `planTiles` (or its mirror for HTV and sublimation). On top:
- * shaded overlap strips with round targets that land on each other when the pages are
- * taped, registration marks at the corners of the printable area, the page's label and what
- * to tape it to, two scale bars (1 in and 5 cm) and a footer saying to print at 100%.
+ * the tile, using the plan from `planTiles` (or its mirror for HTV and sublimation). Over the
+ * art go only the guides that belong on it: the print area box, the collar line, and shaded
+ * overlap strips with round targets that land on each other when the pages are taped.
+ *
+ * Every word and the scale bars (1 in and 5 cm) go into the label band the plan keeps free
+ * of art below the art area, so the taped sheet shows the whole art uncovered: the page's
+ * label and what to tape it to, the notes, the title (wrapped between words) and the
+ * instruction to print at 100%.
  *
  * Everything is drawn inside the printable area: the margin is what office printers may not
  * reach, so nothing there can be relied on.
@@ -82,10 +86,9 @@ export const SCALE_BAR_HEIGHT_PT = 4;
 const PT = PDF_UNITS_PER_INCH;
 const INK = rgb(0, 0, 0);
 const MUTED = rgb(0.35, 0.35, 0.38);
-const BAND = rgb(0.25, 0.45, 0.85);
+const STRIP_COLOUR = rgb(0.25, 0.45, 0.85);
 const PRINT_AREA_COLOUR = rgb(0.1, 0.35, 0.85);
 const COLLAR_COLOUR = rgb(0.85, 0.15, 0.15);
-const WHITE = rgb(1, 1, 1);
 
 // ---------------------------------------------------------------------------------------
 // Images
@@ -359,7 +362,7 @@ function drawOverlapBands(
       y: Y(ctx, r.y + r.height),
       width: X(r.width),
       height: X(r.height),
-      color: BAND,
+      color: STRIP_COLOUR,
       opacity: 0.14,
     });
     // Targets on the strip's centre line, at art positions both neighbours share, so they land on each other.
@@ -374,14 +377,7 @@ function drawOverlapBands(
   return targets;
 }
 
-/** Page-inch insets that keep the panels off the shaded strips (our own layout). */
-function panelInsets(ctx: PageCtx): { left: number; top: number; bottom: number } {
-  const { plan, tile } = ctx;
-  const strip = (side: keyof TileJoins) => (tile.joins[side] && plan.overlapIn > 0 ? plan.overlapIn : 0);
-  // In a mirrored plan the page is flipped, but the joins already name sheet positions, as drawn.
-  return { left: 0.3 + strip("left"), top: 0.3 + strip("above"), bottom: strip("below") };
-}
-
+/** The print area box and the collar line, drawn over the tile's slice of the art (clipped to it). */
 function drawGuides(ctx: PageCtx, input: TestPrintInput): void {
   const { plan, tile, page } = ctx;
   const area = input.printArea;
@@ -400,6 +396,7 @@ function drawGuides(ctx: PageCtx, input: TestPrintInput): void {
         borderDashArray: [6, 4],
       });
     }
+    // The line alone: its name is in the label band's key, never written over the art.
     if (collar !== undefined && collar >= tile.artY && collar <= tile.artY + tile.artHeight) {
       const y = Y(ctx, artToPage(plan, tile).y(collar));
       page.drawLine({
@@ -409,137 +406,294 @@ function drawGuides(ctx: PageCtx, input: TestPrintInput): void {
         color: COLLAR_COLOUR,
         dashArray: [8, 3, 2, 3],
       });
-      page.drawText("COLLAR LINE", {
-        x: X(tile.pageX) + 4,
-        y: y + 3,
-        size: 6.5,
-        font: ctx.fonts.bold,
-        color: COLLAR_COLOUR,
-      });
     }
   });
 }
 
-function drawRegistrationMarks(ctx: PageCtx): void {
-  const { plan } = ctx;
-  const m = plan.marginIn;
-  const corners = [
-    [m, m],
-    [m + plan.printableWidthIn, m],
-    [m, m + plan.printableHeightIn],
-    [m + plan.printableWidthIn, m + plan.printableHeightIn],
-  ] as const;
-  for (const [x, y] of corners) target(ctx, x, y, 0.12, 0.2);
+// ---------------------------------------------------------------------------------------
+// The label band
+//
+// Everything a page says (its label, what to tape it to, the notes, the title, the print-at-100%
+// instruction and the scale bars) goes into the label band: a strip along the lower edge of the
+// printable area that the plan keeps free of art. How deep the band is follows from what it must
+// hold on the plan's widest-worded page; the plan is made with that band, so no label is ever
+// printed over the art.
+
+/** Space between the art area and the band's first line, points (our own choice). */
+const BAND_GAP_PT = 6;
+/** Space below the band's last line, points (our own choice). */
+const BAND_FOOT_PT = 2;
+/** Space between the band's columns, points (our own choice). */
+const COLUMN_GAP_PT = 14;
+/** Narrowest the band's text column may be before the band stacks its columns (our own choice). */
+const MIN_TEXT_COLUMN_PT = 150;
+/** Most lines a title takes; past that it ends with "..." after a whole word (our own choice). */
+export const TITLE_MAX_LINES = 4;
+/** Band depths are rounded up to 1/32 in, so plans come out in round numbers (our own choice). */
+const BAND_STEP_IN = 1 / 32;
+/** Line pitch as a multiple of the font size (common practice, no published source). */
+const LEADING = 1.25;
+/**
+ * Baseline below a line's top, as a multiple of the font size: Helvetica's ascender is 718/1000
+ * and its descender 207/1000 (Adobe's Helvetica AFM), so the glyphs stay inside the line's pitch.
+ */
+const BASELINE = 0.95;
+/** Tile label size, points (our own choice). */
+const LABEL_SIZE_PT = 22;
+/** The scale-bar block: heading line, then the 1 in and 5 cm bars one below the other (our own layout). */
+const SCALE_HEADING = "Check the scale: these bars must measure";
+const SCALE_HEADING_SIZE_PT = 7;
+const SCALE_FIRST_BAR_TOP_PT = 13;
+const SCALE_BAR_PITCH_PT = 24;
+/** A bar's end labels: baseline below the bar's lower edge, points (our own choice). */
+const SCALE_LABEL_DROP_PT = 12;
+const SCALE_LABEL_SIZE_PT = 6.5;
+const SCALE_BLOCK_HEIGHT_PT =
+  SCALE_FIRST_BAR_TOP_PT + SCALE_BAR_PITCH_PT + SCALE_BAR_HEIGHT_PT + SCALE_LABEL_DROP_PT + 3;
+/** Left of the bars inside their block, leaving room for the "0" set half over the bar's start. */
+const SCALE_BAR_INSET_PT = 3;
+
+const PRINT_AT_FULL_SIZE = "Print at 100% / Actual size - do not fit to page";
+
+/** Tokens that read as separators ("·", "|", "-", …): kept at the end of the line before them. */
+const SEPARATOR = /^[\u00b7|/:;,.\-]+$/;
+
+/**
+ * Breaks text into lines no wider than `maxWidth` points, only between words. A separator such
+ * as the "·" in "Job · Full front" stays with the word before it, so no line starts with one. A
+ * word wider than a whole line is cut, with a hyphen at the end of each piece but the last.
+ */
+export function wrapAtWords(text: string, font: PDFFont, size: number, maxWidth: number): string[] {
+  const width = (t: string) => font.widthOfTextAtSize(t, size);
+  const units: string[] = [];
+  for (const word of toWinAnsi(text).trim().split(" ").filter(Boolean)) {
+    if (units.length > 0 && SEPARATOR.test(word)) units[units.length - 1] += ` ${word}`;
+    else units.push(word);
+  }
+  const lines: string[] = [];
+  let line = "";
+  for (let unit of units) {
+    const candidate = line ? `${line} ${unit}` : unit;
+    if (width(candidate) <= maxWidth) {
+      line = candidate;
+      continue;
+    }
+    if (line) lines.push(line);
+    line = "";
+    while (width(unit) > maxWidth && unit.length > 1) {
+      const piece = (n: number) =>
+        unit.slice(0, n).endsWith("-") ? unit.slice(0, n) : `${unit.slice(0, n)}-`;
+      let cut = unit.length - 1;
+      while (cut > 1 && width(piece(cut)) > maxWidth) cut -= 1;
+      lines.push(piece(cut).trimStart());
+      unit = unit.slice(cut).trimStart();
+    }
+    line = unit;
+  }
+  if (line) lines.push(line);
+  return lines;
 }
 
-function panelBox(ctx: PageCtx, x: number, top: number, w: number, h: number): void {
-  ctx.page.drawRectangle({
-    x,
-    y: ctx.heightPt - top - h,
-    width: w,
-    height: h,
-    color: WHITE,
-    opacity: 0.88,
-    borderColor: MUTED,
-    borderWidth: 0.5,
-    borderOpacity: 0.9,
-  });
+/** The title in at most `maxLines` lines; a longer one ends with "..." after its last whole word that fits. */
+export function titleLines(
+  title: string,
+  font: PDFFont,
+  size: number,
+  maxWidth: number,
+  maxLines = TITLE_MAX_LINES,
+): string[] {
+  const lines = wrapAtWords(title, font, size, maxWidth);
+  if (lines.length <= maxLines) return lines;
+  const kept = lines.slice(0, maxLines);
+  const fits = (t: string) => font.widthOfTextAtSize(`${t}...`, size) <= maxWidth;
+  let last = kept[maxLines - 1]!.replace(/-$/, "");
+  while (!fits(last) && last.includes(" ")) last = last.slice(0, last.lastIndexOf(" "));
+  // Only a piece of a word cut with a hyphen has no space left to back up to.
+  while (!fits(last) && last.length > 1) last = last.slice(0, -1);
+  kept[maxLines - 1] = `${last}...`;
+  return kept;
 }
 
-function drawLabelPanel(ctx: PageCtx, input: TestPrintInput): void {
-  const { plan, tile, fonts } = ctx;
-  const inset = panelInsets(ctx);
-  const left = X(plan.marginIn + inset.left);
-  const top = X(plan.marginIn + inset.top);
-  const width = Math.min(X(3.9), X(plan.printableWidthIn - 0.6));
-  const inner = width - 16;
-  const lines: Array<{ text: string; size: number; bold?: boolean; color?: RGB }> = [];
-  const push = (text: string, size: number, opts: { bold?: boolean; color?: RGB } = {}) => {
-    for (const line of wrapText(text, opts.bold ? fonts.bold : fonts.regular, size, inner))
-      lines.push({ text: line, size, ...opts });
-  };
-  push(joinInstruction(tile.joins), 8.5, { bold: true });
-  if (plan.overlapIn > 0 && plan.pages > 1) {
-    push(
-      `Neighbouring pages share a ${formatLength(plan.overlapIn, "in")} shaded strip: lay one over the other so the round targets meet.`,
-      7,
+interface BandText {
+  text: string;
+  size: number;
+  font: "regular" | "bold";
+  color: RGB;
+  /** Left of the text, points from the band's left edge. */
+  x: number;
+  /** Top of the text's line, points below the band's top edge. */
+  top: number;
+}
+
+interface BandLayout {
+  /** Depth the band needs for all of it, points. */
+  heightPt: number;
+  texts: BandText[];
+  /** Top-left of the scale-bar block, points from the band's top-left corner. */
+  scale: { x: number; top: number };
+}
+
+type Fonts = { regular: PDFFont; bold: PDFFont };
+type Line = Omit<BandText, "x" | "top">;
+
+/** Lines one under another from `top`; returns where the next line would go. */
+function stack(lines: readonly Line[], x: number, top: number, into: BandText[]): number {
+  let y = top;
+  for (const line of lines) {
+    into.push({ ...line, x, top: y });
+    y += line.size * LEADING;
+  }
+  return y;
+}
+
+function widest(lines: readonly Line[], fonts: Fonts): number {
+  return Math.max(0, ...lines.map((l) => fonts[l.font].widthOfTextAtSize(l.text, l.size)));
+}
+
+function scaleBlockWidth(fonts: Fonts): number {
+  const endLabel = fonts.regular.widthOfTextAtSize("5 cm", SCALE_LABEL_SIZE_PT);
+  return Math.max(
+    fonts.bold.widthOfTextAtSize(SCALE_HEADING, SCALE_HEADING_SIZE_PT),
+    SCALE_BAR_INSET_PT + FIVE_CM_BAR_PT + endLabel / 2 + 1,
+  );
+}
+
+/** Where everything in one page's band goes; the same layout measures the band and draws it. */
+function layoutBand(
+  plan: TilePlan,
+  tile: Tile,
+  input: TestPrintInput,
+  title: string,
+  fonts: Fonts,
+): BandLayout {
+  const width = X(plan.printableWidthIn);
+  const scaleWidth = scaleBlockWidth(fonts);
+  if (width < scaleWidth) {
+    throw new RangeError(
+      `The printable area is ${plan.printableWidthIn.toFixed(2)} in across, too narrow for the 5 cm scale bar; use a smaller margin.`,
     );
   }
-  if (plan.mirrored) push("MIRRORED (wrong-reading) for HTV or sublimation.", 7.5, { bold: true });
-  if (input.printArea) push("Blue dashed box: print area.", 7, { color: PRINT_AREA_COLOUR });
+  const plain = (text: string, size: number, color: RGB = INK): Line => ({
+    text,
+    size,
+    font: "regular",
+    color,
+  });
+  const bold = (text: string, size: number, color: RGB = INK): Line => ({ text, size, font: "bold", color });
+
+  const nameLines: Line[] = [
+    bold(toWinAnsi(tile.label), LABEL_SIZE_PT),
+    plain(`Row ${tile.label.replace(/\d+$/, "")}, column ${tile.column + 1}`, 7, MUTED),
+    plain(`Page ${tile.index + 1} of ${plan.pages} (${plan.rows} x ${plan.columns})`, 7, MUTED),
+  ];
+  const nameWidth = widest(nameLines, fonts);
+
+  const threeColumns = width - nameWidth - scaleWidth - 2 * COLUMN_GAP_PT >= MIN_TEXT_COLUMN_PT;
+  const textWidth = threeColumns ? width - nameWidth - scaleWidth - 2 * COLUMN_GAP_PT : width;
+  const wrapped = (line: Line): Line[] =>
+    wrapAtWords(line.text, fonts[line.font], line.size, textWidth).map((text) => ({ ...line, text }));
+
+  const notes: Line[] = [...wrapped(bold(joinInstruction(tile.joins), 8.5))];
+  if (plan.overlapIn > 0 && plan.pages > 1) {
+    notes.push(
+      ...wrapped(
+        plain(
+          `Neighbouring pages share a ${formatLength(plan.overlapIn, "in")} shaded strip: lay one over the other so the round targets meet.`,
+          7,
+        ),
+      ),
+    );
+  }
+  if (plan.mirrored) notes.push(...wrapped(bold("MIRRORED (wrong-reading) for HTV or sublimation.", 7.5)));
+  if (input.printArea) notes.push(...wrapped(plain("Blue dashed box: print area.", 7, PRINT_AREA_COLOUR)));
   if (input.collarLineYIn !== undefined) {
-    push("Red dashed line: collar line.", 7, { color: COLLAR_COLOUR });
+    notes.push(...wrapped(plain("Red dashed line: collar line.", 7, COLLAR_COLOUR)));
     if (tile.row === 0 && input.collarLineYIn < 0) {
-      push(
-        `The collar line is ${formatLength(-input.collarLineYIn, "in")} above the top of the art (off this sheet).`,
-        7,
-        { color: COLLAR_COLOUR },
+      notes.push(
+        ...wrapped(
+          plain(
+            `The collar line is ${formatLength(-input.collarLineYIn, "in")} above the top of the art (off this sheet).`,
+            7,
+            COLLAR_COLOUR,
+          ),
+        ),
       );
     }
     if (tile.row === plan.rows - 1 && input.collarLineYIn > plan.artHeightIn) {
-      push(
-        `The collar line is ${formatLength(input.collarLineYIn - plan.artHeightIn, "in")} below the bottom of the art (off this sheet).`,
-        7,
-        { color: COLLAR_COLOUR },
+      notes.push(
+        ...wrapped(
+          plain(
+            `The collar line is ${formatLength(input.collarLineYIn - plan.artHeightIn, "in")} below the bottom of the art (off this sheet).`,
+            7,
+            COLLAR_COLOUR,
+          ),
+        ),
       );
     }
   }
-  const labelSize = 22;
-  const height = 8 + labelSize + 4 + lines.reduce((h, l) => h + l.size * 1.3, 0) + 6;
-  panelBox(ctx, left, top, width, height);
-  const labelText = toWinAnsi(tile.label);
-  ctx.page.drawText(labelText, {
-    x: left + 8,
-    y: ctx.heightPt - top - 6 - labelSize * 0.8,
-    size: labelSize,
-    font: fonts.bold,
-    color: INK,
-  });
-  const labelW = fonts.bold.widthOfTextAtSize(labelText, labelSize);
-  const where = fitText(
-    `Row ${tile.label.replace(/\d+$/, "")}, column ${tile.column + 1} - page ${tile.index + 1} of ${plan.pages} (${plan.rows} x ${plan.columns})`,
-    fonts.regular,
-    7.5,
-    Math.max(10, inner - labelW - 8),
-  );
-  ctx.page.drawText(where, {
-    x: left + 8 + labelW + 8,
-    y: ctx.heightPt - top - 6 - labelSize * 0.55,
-    size: 7.5,
-    font: fonts.regular,
-    color: MUTED,
-  });
-  let y = top + 8 + labelSize + 4;
-  for (const line of lines) {
-    y += line.size * 1.3;
-    ctx.page.drawText(line.text, {
-      x: left + 8,
-      y: ctx.heightPt - y + line.size * 0.25,
-      size: line.size,
-      font: line.bold ? fonts.bold : fonts.regular,
-      color: line.color ?? INK,
-    });
+  notes.push(...titleLines(title, fonts.regular, 7.5, textWidth).map((text) => plain(text, 7.5)));
+  notes.push(...wrapped(bold(PRINT_AT_FULL_SIZE, 7.5)));
+
+  const texts: BandText[] = [];
+  if (threeColumns) {
+    const nameBottom = stack(nameLines, 0, BAND_GAP_PT, texts);
+    const notesBottom = stack(notes, nameWidth + COLUMN_GAP_PT, BAND_GAP_PT, texts);
+    const scale = { x: width - scaleWidth, top: BAND_GAP_PT };
+    const bottom = Math.max(nameBottom, notesBottom, scale.top + SCALE_BLOCK_HEIGHT_PT);
+    return { heightPt: bottom + BAND_FOOT_PT, texts, scale };
   }
+  // Too narrow for three columns side by side: the name, then the notes, then the scale bars.
+  const nameBottom = stack(nameLines, 0, BAND_GAP_PT, texts);
+  const notesBottom = stack(notes, 0, nameBottom + 4, texts);
+  const scale = { x: 0, top: notesBottom + 6 };
+  return { heightPt: scale.top + SCALE_BLOCK_HEIGHT_PT + BAND_FOOT_PT, texts, scale };
 }
 
-/** The two scale bars, bottom-left of the printable area; both are single filled rectangles of exact length. */
-function drawScalePanel(ctx: PageCtx): void {
-  const { plan, fonts, page } = ctx;
-  const width = FIVE_CM_BAR_PT + 46;
-  const height = 70;
-  const inset = panelInsets(ctx);
-  const left = X(plan.marginIn + inset.left);
-  const top = X(plan.marginIn + plan.printableHeightIn - inset.bottom) - 0.32 * PT - height - 6;
-  panelBox(ctx, left, top, width, height);
-  page.drawText("Check the scale: these bars must measure", {
-    x: left + 8,
-    y: ctx.heightPt - top - 12,
-    size: 7,
+/** Band depth a plan's pages need, inches, rounded up to BAND_STEP_IN. */
+function bandDepthFor(plan: TilePlan, input: TestPrintInput, title: string, fonts: Fonts): number {
+  let deepest = 0;
+  for (const tile of plan.tiles)
+    deepest = Math.max(deepest, layoutBand(plan, tile, input, title, fonts).heightPt);
+  return Math.ceil(deepest / PT / BAND_STEP_IN - 1e-9) * BAND_STEP_IN;
+}
+
+/**
+ * The tile plan with a label band deep enough for every page's labels. A deeper band can change
+ * the plan (more pages, longer tile names, the other orientation), which can ask for a deeper
+ * band again; the band only ever grows, so this settles in a few rounds.
+ */
+function planWithLabelBand(input: TestPrintInput, title: string, fonts: Fonts): TilePlan {
+  let band = 0;
+  for (let round = 0; round < 12; round++) {
+    const plan = planTiles({
+      artWidthIn: input.artWidthIn,
+      artHeightIn: input.artHeightIn,
+      paper: input.paper,
+      marginIn: input.marginIn,
+      overlapIn: input.overlapIn,
+      orientation: input.orientation,
+      mirror: input.mirror,
+      labelBandIn: band,
+    });
+    const need = bandDepthFor(plan, input, title, fonts);
+    if (need <= band) return plan;
+    band = need;
+  }
+  throw new Error("The test print's labels did not settle on a band depth.");
+}
+
+/** The 1 in and 5 cm scale bars; each is a single filled rectangle of exact length. */
+function drawScaleBlock(ctx: PageCtx, left: number, top: number): void {
+  const { fonts, page } = ctx;
+  page.drawText(SCALE_HEADING, {
+    x: left,
+    y: ctx.heightPt - top - SCALE_HEADING_SIZE_PT * BASELINE,
+    size: SCALE_HEADING_SIZE_PT,
     font: fonts.bold,
     color: INK,
   });
   const bar = (barTop: number, length: number, step: number, endLabel: string) => {
-    const x0 = left + 8;
+    const x0 = left + SCALE_BAR_INSET_PT;
     const yBar = ctx.heightPt - barTop - SCALE_BAR_HEIGHT_PT;
     page.drawRectangle({ x: x0, y: yBar, width: length, height: SCALE_BAR_HEIGHT_PT, color: INK });
     for (let t = 0; t <= length + 1e-6; t += step) {
@@ -551,48 +705,43 @@ function drawScalePanel(ctx: PageCtx): void {
         color: INK,
       });
     }
-    page.drawText("0", { x: x0 - 1.8, y: yBar - 12, size: 6.5, font: fonts.regular, color: INK });
-    const w = fonts.regular.widthOfTextAtSize(endLabel, 6.5);
+    const labelY = yBar - SCALE_LABEL_DROP_PT;
+    page.drawText("0", {
+      x: x0 - 1.8,
+      y: labelY,
+      size: SCALE_LABEL_SIZE_PT,
+      font: fonts.regular,
+      color: INK,
+    });
+    const w = fonts.regular.widthOfTextAtSize(endLabel, SCALE_LABEL_SIZE_PT);
     page.drawText(endLabel, {
       x: x0 + length - w / 2,
-      y: yBar - 12,
-      size: 6.5,
+      y: labelY,
+      size: SCALE_LABEL_SIZE_PT,
       font: fonts.regular,
       color: INK,
     });
   };
-  bar(top + 20, ONE_INCH_BAR_PT, ONE_INCH_BAR_PT / 4, "1 in");
-  bar(top + 44, FIVE_CM_BAR_PT, FIVE_CM_BAR_PT / 5, "5 cm");
+  bar(top + SCALE_FIRST_BAR_TOP_PT, ONE_INCH_BAR_PT, ONE_INCH_BAR_PT / 4, "1 in");
+  bar(top + SCALE_FIRST_BAR_TOP_PT + SCALE_BAR_PITCH_PT, FIVE_CM_BAR_PT, FIVE_CM_BAR_PT / 5, "5 cm");
 }
 
-function drawFooter(ctx: PageCtx, title: string): void {
-  const { plan, tile, fonts, page } = ctx;
-  const left = X(plan.marginIn + 0.05);
-  const width = X(plan.printableWidthIn - 0.1);
-  const top = X(plan.marginIn + plan.printableHeightIn - panelInsets(ctx).bottom) - 0.3 * PT;
-  panelBox(ctx, left, top, width, 0.25 * PT);
-  const instruction = "Print at 100% / Actual size - do not fit to page";
-  const pageText = `Page ${tile.index + 1} of ${plan.pages} (${tile.label})`;
-  const size = 7.5;
-  const fixedW =
-    fonts.bold.widthOfTextAtSize(instruction, size) +
-    fonts.regular.widthOfTextAtSize(`${pageText}  |  `, size);
-  const titleText = fitText(
-    title,
-    fonts.regular,
-    size,
-    Math.max(20, width - 16 - fixedW - fonts.regular.widthOfTextAtSize("  |  ", size)),
-  );
-  const first = `${titleText}  |  ${pageText}  |  `;
-  const y = ctx.heightPt - top - 0.25 * PT + 6;
-  page.drawText(first, { x: left + 8, y, size, font: fonts.regular, color: INK });
-  page.drawText(instruction, {
-    x: left + 8 + fonts.regular.widthOfTextAtSize(first, size),
-    y,
-    size,
-    font: fonts.bold,
-    color: INK,
-  });
+/** Draws the page's label band below the art area. */
+function drawLabelBand(ctx: PageCtx, input: TestPrintInput, title: string): void {
+  const { plan, tile, fonts } = ctx;
+  const band = layoutBand(plan, tile, input, title, fonts);
+  const left = X(plan.marginIn);
+  const top = X(plan.marginIn + plan.artAreaHeightIn);
+  for (const t of band.texts) {
+    ctx.page.drawText(t.text, {
+      x: left + t.x,
+      y: ctx.heightPt - (top + t.top + t.size * BASELINE),
+      size: t.size,
+      font: fonts[t.font],
+      color: t.color,
+    });
+  }
+  drawScaleBlock(ctx, left + band.scale.x, top + band.scale.top);
 }
 
 // ---------------------------------------------------------------------------------------
@@ -607,15 +756,6 @@ function requireGuide(value: number | undefined, what: string): void {
  * `planTiles`) and Error for art that cannot be read.
  */
 export async function renderTestPrintPdf(input: TestPrintInput): Promise<TestPrintResult> {
-  const plan = planTiles({
-    artWidthIn: input.artWidthIn,
-    artHeightIn: input.artHeightIn,
-    paper: input.paper,
-    marginIn: input.marginIn,
-    overlapIn: input.overlapIn,
-    orientation: input.orientation,
-    mirror: input.mirror,
-  });
   if (input.printArea) {
     const a = input.printArea;
     requireGuide(a.widthIn, "The print area width");
@@ -634,6 +774,7 @@ export async function renderTestPrintPdf(input: TestPrintInput): Promise<TestPri
     regular: await doc.embedFont(StandardFonts.Helvetica),
     bold: await doc.embedFont(StandardFonts.HelveticaBold),
   };
+  const plan = planWithLabelBand(input, title, fonts);
   const art = await embedArt(doc, input.art, plan.artWidthIn, plan.artHeightIn);
   const byLabel = new Map(plan.tiles.map((t) => [t.label, t]));
   const widthPt = plan.pageWidthIn * PT;
@@ -662,12 +803,8 @@ export async function renderTestPrintPdf(input: TestPrintInput): Promise<TestPri
     );
     drawGuides(ctx, input);
     const targets = drawOverlapBands(ctx, byLabel);
-    drawLabelPanel(ctx, input);
-    drawScalePanel(ctx);
-    drawFooter(ctx, title);
-    // Marks last, so no panel ever hides one.
-    for (const t of targets) target(ctx, t.x, t.y, t.radius, t.radius * 1.6, BAND);
-    drawRegistrationMarks(ctx);
+    for (const t of targets) target(ctx, t.x, t.y, t.radius, t.radius * 1.6, STRIP_COLOUR);
+    drawLabelBand(ctx, input, title);
   }
   return { pdf: await doc.save(), plan };
 }

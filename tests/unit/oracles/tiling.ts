@@ -5,8 +5,9 @@
  * A plan is a grid: every tile in a column shows the same slice of the art across, every tile in a
  * row the same slice down. So the art is covered exactly when, along each axis, the slices (in art
  * order) start at 0, end at the art's edge and leave no gap between neighbours; here neighbours must
- * share exactly the overlap strip. Each slice fits the printable area, and no fewer pages could do:
- * c − 1 pages that share the overlap reach at most (c − 1) × printable − (c − 2) × overlap.
+ * share exactly the overlap strip. Each slice fits the art area (the printable area less the label
+ * band kept along its lower edge), and no fewer pages could do: c − 1 pages that share the overlap
+ * reach at most (c − 1) × room − (c − 2) × overlap, where room is the art area's length.
  */
 import { expect } from "vitest";
 import type { Tile, TilePlan } from "@/lib/production/tiling";
@@ -38,13 +39,7 @@ function slicesOf(plan: TilePlan, axis: "x" | "y"): Slice[] {
   });
 }
 
-function expectAxis(
-  slices: readonly Slice[],
-  length: number,
-  printable: number,
-  overlap: number,
-  what: string,
-) {
+function expectAxis(slices: readonly Slice[], length: number, room: number, overlap: number, what: string) {
   const first = slices[0]!;
   const last = slices[slices.length - 1]!;
   expect(Math.abs(first.start), `${what}: first slice starts at the art's edge`).toBeLessThanOrEqual(
@@ -56,7 +51,7 @@ function expectAxis(
   ).toBeLessThanOrEqual(TOLERANCE_IN);
   for (const s of slices) {
     expect(s.size, `${what}: slice size`).toBeGreaterThan(0);
-    expect(s.size, `${what}: slice fits the printable area`).toBeLessThanOrEqual(printable + TOLERANCE_IN);
+    expect(s.size, `${what}: slice fits the art area`).toBeLessThanOrEqual(room + TOLERANCE_IN);
   }
   for (let i = 1; i < slices.length; i++) {
     const shared = slices[i - 1]!.start + slices[i - 1]!.size - slices[i]!.start;
@@ -67,7 +62,7 @@ function expectAxis(
   }
   if (slices.length > 1) {
     const fewer = slices.length - 1;
-    const reach = fewer * printable - (fewer - 1) * overlap;
+    const reach = fewer * room - (fewer - 1) * overlap;
     expect(reach, `${what}: ${fewer} page(s) would not reach across ${length} in`).toBeLessThan(length);
   }
 }
@@ -75,7 +70,8 @@ function expectAxis(
 /**
  * Checks a plan: a full grid of uniquely placed tiles whose slices cover the art with exactly the
  * overlap between neighbours, in as few pages as possible along each axis, each drawn inside its
- * page's printable area (against the right margin when a mirrored slice is narrower than the page).
+ * page's art area (against the right margin when a mirrored slice is narrower than the page) and
+ * never in the label band.
  */
 export function expectTiledArt(plan: TilePlan): void {
   expect(plan.tiles).toHaveLength(plan.columns * plan.rows);
@@ -86,20 +82,30 @@ export function expectTiledArt(plan: TilePlan): void {
   const across = slicesOf(plan, "x");
   const down = slicesOf(plan, "y");
   // Right-reading, column 1 holds the art's left edge; mirrored, it holds the right edge.
-  const inArtOrder = plan.mirrored ? [...across].reverse() : across;
-  expectAxis(inArtOrder, plan.artWidthIn, plan.printableWidthIn, plan.overlapIn, "across");
-  expectAxis(down, plan.artHeightIn, plan.printableHeightIn, plan.overlapIn, "down");
-
   const m = plan.marginIn;
-  for (const t of plan.tiles) expectOnPage(plan, t, m);
-}
-
-function expectOnPage(plan: TilePlan, t: Tile, m: number) {
-  const x = plan.mirrored ? m + plan.printableWidthIn - t.artWidth : m;
-  expect(Math.abs(t.pageX - x), `${t.label}: page x`).toBeLessThanOrEqual(TOLERANCE_IN);
-  expect(Math.abs(t.pageY - m), `${t.label}: page y`).toBeLessThanOrEqual(TOLERANCE_IN);
-  expect(t.pageX + t.artWidth).toBeLessThanOrEqual(m + plan.printableWidthIn + TOLERANCE_IN);
-  expect(t.pageY + t.artHeight).toBeLessThanOrEqual(m + plan.printableHeightIn + TOLERANCE_IN);
+  // The art area, worked out here: the page less its margins, less the label band below.
+  const roomAcross = plan.pageWidthIn - 2 * m;
+  const roomDown = plan.pageHeightIn - 2 * m - plan.labelBandIn;
+  expect(plan.labelBandIn).toBeGreaterThanOrEqual(0);
   expect(plan.printableWidthIn).toBeCloseTo(plan.pageWidthIn - 2 * m, 9);
   expect(plan.printableHeightIn).toBeCloseTo(plan.pageHeightIn - 2 * m, 9);
+  expect(plan.artAreaWidthIn).toBeCloseTo(roomAcross, 9);
+  expect(plan.artAreaHeightIn).toBeCloseTo(roomDown, 9);
+
+  const inArtOrder = plan.mirrored ? [...across].reverse() : across;
+  expectAxis(inArtOrder, plan.artWidthIn, roomAcross, plan.overlapIn, "across");
+  expectAxis(down, plan.artHeightIn, roomDown, plan.overlapIn, "down");
+
+  for (const t of plan.tiles) expectOnPage(t, m, roomAcross, roomDown, plan.mirrored);
+}
+
+function expectOnPage(t: Tile, m: number, roomAcross: number, roomDown: number, mirrored: boolean) {
+  const x = mirrored ? m + roomAcross - t.artWidth : m;
+  expect(Math.abs(t.pageX - x), `${t.label}: page x`).toBeLessThanOrEqual(TOLERANCE_IN);
+  expect(Math.abs(t.pageY - m), `${t.label}: page y`).toBeLessThanOrEqual(TOLERANCE_IN);
+  expect(t.pageX + t.artWidth).toBeLessThanOrEqual(m + roomAcross + TOLERANCE_IN);
+  // Clear of the label band: the art ends where the band begins, or above it.
+  expect(t.pageY + t.artHeight, `${t.label}: clear of the label band`).toBeLessThanOrEqual(
+    m + roomDown + TOLERANCE_IN,
+  );
 }
