@@ -71,9 +71,7 @@ describe("snapArtSize", () => {
           proportional: true,
         });
         expect(out.widthIn / out.heightIn).toBeCloseTo(w / h, 9);
-        expect(
-          onStep(Math.max(out.widthIn, out.heightIn) === out.widthIn && w >= h ? out.widthIn : out.heightIn),
-        ).toBe(true);
+        expect(onStep(w >= h ? out.widthIn : out.heightIn)).toBe(true);
         expect(Math.min(out.widthIn, out.heightIn)).toBeGreaterThanOrEqual(MIN_HANDLE_SIDE_IN - 1e-9);
         // Within half a step of what was asked on the long side, unless the floor lifted it.
         const asked = w >= h ? w * k : h * k;
