@@ -193,6 +193,12 @@ export function usualSpot(
   };
 }
 
+export interface PlacedSize {
+  placement: Placement;
+  /** "in-place": resized where it was; "usual-spot": moved to the location's usual spot to fit. */
+  where: "in-place" | "usual-spot";
+}
+
 export interface PlaceSizeInput {
   placement: Placement;
   size: { widthIn: number; heightIn: number };
@@ -208,7 +214,7 @@ export interface PlaceSizeInput {
  * warning), or else on the location's usual spot, where a size inside the print area always fits.
  * Null when the size has no room (under 1/8 in) or the garment has no such location.
  */
-export function placeSuggestedSize(input: PlaceSizeInput): Placement | null {
+export function placeSuggestedSize(input: PlaceSizeInput): PlacedSize | null {
   const { placement, size } = input;
   if (!(size.widthIn > 0 && size.heightIn > 0)) return null;
   let spec: LocationSpec;
@@ -244,6 +250,6 @@ export function placeSuggestedSize(input: PlaceSizeInput): Placement | null {
       ? placement.belowCollarIn
       : placement.belowCollarIn + placement.heightIn / 2 - size.heightIn / 2;
   const inPlace = { ...placement, widthIn: size.widthIn, heightIn: size.heightIn, belowCollarIn };
-  if (fits(inPlace)) return inPlace;
-  return { ...placement, ...usualSpot(spec, size) };
+  if (fits(inPlace)) return { placement: inPlace, where: "in-place" };
+  return { placement: { ...placement, ...usualSpot(spec, size) }, where: "usual-spot" };
 }

@@ -114,7 +114,7 @@ describe("suggested sizes pass the editor's own checks", () => {
             }
             reach.reached(`a ${name} size to place`);
             expect(placed, name).not.toBeNull();
-            const p = placed!;
+            const p = placed!.placement;
             // Rounded down to 1/8 in on the long side; the short side keeps the art's proportions.
             const long = ratio >= 1 ? p.widthIn : p.heightIn;
             expect(Math.abs(long * 8 - Math.round(long * 8)), name).toBeLessThan(1e-9);
@@ -142,8 +142,14 @@ describe("suggested sizes pass the editor's own checks", () => {
                 `${name} ${blank.id} ${sizeRow.size} ${location} ${shownIn}`,
               ).toEqual([]);
             }
-            const kept =
-              p.offsetFromCenterIn === before.offsetFromCenterIn && p.rotationDeg === before.rotationDeg;
+            // In place keeps the print's offset and turn; the usual spot straightens it to the location's axis.
+            const kept = placed!.where === "in-place";
+            if (kept)
+              expect([p.offsetFromCenterIn, p.rotationDeg]).toEqual([
+                before.offsetFromCenterIn,
+                before.rotationDeg,
+              ]);
+            else expect(p.rotationDeg).toBe(spec.axisRotationDeg);
             reach.reached(`${name}: ${kept ? "kept where it was" : "moved to the usual spot"}`);
           }
         },
@@ -195,7 +201,7 @@ describe("the usual spot holds any size inside the print area", () => {
           group: row.group,
           measurements: row.measurements,
           sizeLabel: row.size,
-        })!;
+        })!.placement;
         expect(p.rotationDeg).toBe(spec.axisRotationDeg);
         const warnings = checkPlacement({
           placement: p,
