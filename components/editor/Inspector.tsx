@@ -73,7 +73,7 @@ export function Inspector(props: Props) {
   const pendingReveal = useRef<string | null>(null);
   const revealWarnings = () => {
     const box = warningsBox.current;
-    box?.scrollIntoView?.({ block: "nearest", behavior: "smooth" });
+    box?.scrollIntoView?.({ block: "nearest" });
     box?.focus({ preventScroll: true });
   };
   const showWarningsOf = (id: string) => {
@@ -325,7 +325,24 @@ function ArtAdvice(props: {
   unit: LengthUnit;
   onApply: (patch: PlacementPatch) => void;
 }) {
-  const { placement, artwork } = props;
+  const { placement, artwork, blank, sizeRow, unit, editable } = props;
+  // Sizing runs the checks a few times; keep it to real changes (the inspector re-renders during a drag).
+  const sizing = useMemo(() => {
+    if (!artwork || !editable) return null;
+    const aspect = artwork.inkWidthPx / artwork.inkHeightPx;
+    let spec;
+    try {
+      spec = locationSpec({ location: placement.location, category: blank.category, group: sizeRow.group, measurements: sizeRow.measurements });
+    } catch {
+      return null;
+    }
+    const advice = suggestSize({ shape: artwork.shape ?? "square", aspect, group: sizeRow.group, maxWidthIn: spec.maxWidth, maxHeightIn: spec.maxHeight, unit });
+    const fill = fillPrintArea({ aspect, maxWidthIn: spec.maxWidth, maxHeightIn: spec.maxHeight, unit });
+    // Each button puts its size where it passes the checks: in place if it fits there, else on the usual spot.
+    const place = (size: { widthIn: number; heightIn: number }) =>
+      placeSuggestedSize({ placement, size, category: blank.category, group: sizeRow.group, measurements: sizeRow.measurements, sizeLabel: sizeRow.size });
+    return { advice, suggestedAt: place(advice), filled: place(fill)?.placement ?? null };
+  }, [artwork, editable, placement, blank.category, sizeRow, unit]);
   if (!artwork) return null;
   const quality = assessQuality({
     isVector: artwork.isVector,
@@ -335,23 +352,11 @@ function ArtAdvice(props: {
     heightIn: placement.heightIn,
     method: props.method,
   });
-  const aspect = artwork.inkWidthPx / artwork.inkHeightPx;
-  let spec;
-  try {
-    spec = locationSpec({ location: placement.location, category: props.blank.category, group: props.sizeRow.group, measurements: props.sizeRow.measurements });
-  } catch {
-    spec = null;
-  }
   const shape = artwork.shape ?? "square";
-  const unit = props.unit;
-  const advice = spec ? suggestSize({ shape, aspect, group: props.sizeRow.group, maxWidthIn: spec.maxWidth, maxHeightIn: spec.maxHeight, unit }) : null;
-  const fill = spec ? fillPrintArea({ aspect, maxWidthIn: spec.maxWidth, maxHeightIn: spec.maxHeight, unit }) : null;
-  // Each button puts its size where it passes the checks: in place if it fits there, else on the usual spot.
-  const place = (size: { widthIn: number; heightIn: number }) =>
-    placeSuggestedSize({ placement, size, category: props.blank.category, group: props.sizeRow.group, measurements: props.sizeRow.measurements, sizeLabel: props.sizeRow.size });
-  const suggestedAt = advice ? place(advice) : null;
+  const advice = sizing?.advice ?? null;
+  const suggestedAt = sizing?.suggestedAt ?? null;
   const suggested = suggestedAt?.placement ?? null;
-  const filled = fill ? (place(fill)?.placement ?? null) : null;
+  const filled = sizing?.filled ?? null;
   const patchOf = (p: Placement): PlacementPatch => ({ widthIn: p.widthIn, heightIn: p.heightIn, offsetFromCenterIn: p.offsetFromCenterIn, belowCollarIn: p.belowCollarIn, rotationDeg: p.rotationDeg });
   const sizeText = (p: Placement) => `${formatLength(p.widthIn, unit, { withUnit: false })} × ${formatLength(p.heightIn, unit)}`;
   return (
