@@ -1,16 +1,20 @@
 "use client";
 
 import type Konva from "konva";
-import { memo, useEffect, useMemo, useRef } from "react";
+import { memo, useEffect, useMemo, useRef, useState } from "react";
 import { Group, Image as KonvaImage, Layer, Line, Rect, Stage, Text, Transformer } from "react-konva";
 import type { LocationSpec } from "@/lib/garments/locations";
 import type { Point } from "@/lib/garments/types";
 import type { Silhouette } from "@/lib/garments/silhouette";
+import type { WarningFlag } from "@/lib/placement/checks";
 import type { Placement } from "@/lib/placement/model";
+import { MIN_HANDLE_SIDE_IN, snapArtSize } from "@/lib/editor/snap";
 import { rulerTicks, rulerTicksCm, scaleOf, snapArtPosition, toStage, type View } from "@/lib/editor/view";
 import type { LengthUnit } from "@/lib/units";
 import { formatLength } from "@/lib/units";
 import { inkOn, shade } from "./colour";
+import { printMarks } from "./marks";
+import { snapHandleBox } from "./transform-snap";
 
 export type ArtImage = { id: string; image: HTMLImageElement | null };
 
@@ -41,6 +45,8 @@ type Props = {
   onGarmentClick?: (point: Point) => void;
   /** A simple body figure drawn behind the garment (worn view). */
   figure?: Point[][];
+  /** The editor's warnings per placement id (code and severity): prints that do not fit get an outline and a tag. */
+  flags?: Record<string, WarningFlag[]>;
 };
 
 export const RULER_PX = 26;
@@ -64,6 +70,12 @@ export default function ProofStage(props: Props) {
   const nodes = useRef<Record<string, Konva.Image | null>>({});
   const panning = useRef<{ x: number; y: number } | null>(null);
   const travelled = useRef(0);
+  // The print Konva owns during a drag or resize; its mark comes back when the gesture ends.
+  const [moving, setMoving] = useState<string | null>(null);
+  const marks = useMemo(
+    () => (props.flags ? printMarks({ placements: props.placements, flags: props.flags, view, skip: moving, minY: RULER_PX + 2 }) : []),
+    [props.flags, props.placements, view, moving],
+  );
 
   useEffect(() => {
     const tr = transformer.current;
@@ -75,26 +87,45 @@ export default function ProofStage(props: Props) {
 
 
 
-  function commitNode(id: string, node: Konva.Image) {
-    const scaleX = node.scaleX();
-    const scaleY = node.scaleY();
-    const widthPx = node.width() * scaleX;
-    const heightPx = node.height() * scaleY;
+  /** A drag moved the art: its position was snapped on the way (dragBoundFunc); its size is unchanged. */
+  function commitDrag(p: Placement, node: Konva.Image) {
+    setMoving(null);
+    props.onCommit(p.id, {
+      offsetFromCenterIn: (node.x() - view.originX) / s,
+      belowCollarIn: (node.y() - view.originY) / s - p.heightIn / 2,
+    });
+  }
+
+  /**
+   * A resize or turn ended. Konva changed scaleX/scaleY: fold them into width and height. A resize
+   * snaps its size to 1/8 in (as boundBoxFunc did on the way) and then its position, as drags do;
+   * a turn alone keeps size and position as they were.
+   */
+  function commitTransform(p: Placement, node: Konva.Image) {
+    setMoving(null);
+    const asked = { widthIn: (node.width() * node.scaleX()) / s, heightIn: (node.height() * node.scaleY()) / s };
+    const size = snapArtSize({ before: { widthIn: p.widthIn, heightIn: p.heightIn }, after: asked, proportional: props.keepAspect });
+    const resized = size.widthIn !== p.widthIn || size.heightIn !== p.heightIn;
+    const centreXIn = (node.x() - view.originX) / s;
+    const centreYIn = (node.y() - view.originY) / s;
+    const at = resized
+      ? snapArtPosition({ centreXIn, topIn: centreYIn - size.heightIn / 2, snapPx: SNAP_PX, scale: s, snapToCentre: true })
+      : { offsetFromCenterIn: centreXIn, belowCollarIn: centreYIn - size.heightIn / 2 };
+    const widthPx = size.widthIn * s;
+    const heightPx = size.heightIn * s;
     node.scaleX(1);
     node.scaleY(1);
     node.width(widthPx);
     node.height(heightPx);
     node.offsetX(widthPx / 2);
     node.offsetY(heightPx / 2);
-    const widthIn = widthPx / s;
-    const heightIn = heightPx / s;
-    const centreX = (node.x() - view.originX) / s;
-    const centreY = (node.y() - view.originY) / s;
-    props.onCommit(id, {
-      widthIn,
-      heightIn,
-      offsetFromCenterIn: centreX,
-      belowCollarIn: centreY - heightIn / 2,
+    node.x(view.originX + at.offsetFromCenterIn * s);
+    node.y(view.originY + (at.belowCollarIn + size.heightIn / 2) * s);
+    props.onCommit(p.id, {
+      widthIn: size.widthIn,
+      heightIn: size.heightIn,
+      offsetFromCenterIn: at.offsetFromCenterIn,
+      belowCollarIn: at.belowCollarIn,
       rotationDeg: Math.round(node.rotation() * 100) / 100,
     });
   }
@@ -180,6 +211,8 @@ export default function ProofStage(props: Props) {
                   y: view.originY + (snapped.belowCollarIn + p.heightIn / 2) * s,
                 };
               }}
+              onDragStart={() => setMoving(p.id)}
+              onTransformStart={() => setMoving(p.id)}
               onDragMove={(e) => {
                 const node = e.target;
                 props.onLiveChange?.(p.id, {
@@ -191,8 +224,8 @@ export default function ProofStage(props: Props) {
                 const node = e.target as Konva.Image;
                 props.onLiveChange?.(p.id, { widthIn: (node.width() * node.scaleX()) / s, heightIn: (node.height() * node.scaleY()) / s });
               }}
-              onDragEnd={(e) => commitNode(p.id, e.target as Konva.Image)}
-              onTransformEnd={(e) => commitNode(p.id, e.target as Konva.Image)}
+              onDragEnd={(e) => commitDrag(p, e.target as Konva.Image)}
+              onTransformEnd={(e) => commitTransform(p, e.target as Konva.Image)}
             />
           );
         })}
@@ -207,17 +240,27 @@ export default function ProofStage(props: Props) {
           anchorStroke="#2f6f66"
           borderStroke="#2f6f66"
           anchorCornerRadius={2}
-          boundBoxFunc={(oldBox, newBox) => {
-            const minPx = 0.25 * s;
-            if (Math.abs(newBox.width) < minPx || Math.abs(newBox.height) < minPx) {
-              // Clamp proportionally rather than returning the old box, which would stick.
-              const k = Math.max(minPx / Math.abs(newBox.width || minPx), minPx / Math.abs(newBox.height || minPx));
-              return { ...newBox, width: newBox.width * k, height: newBox.height * k };
-            }
-            return newBox;
-          }}
+          boundBoxFunc={(oldBox, newBox) =>
+            // Sides snap to 1/8 in while the handle moves, never under the smallest side, keeping the
+            // pivot corner still; the box is always rebuilt from the pointer, so it never sticks.
+            snapHandleBox({ oldBox, newBox, scale: s, proportional: props.keepAspect, minIn: MIN_HANDLE_SIDE_IN })
+          }
         />
       </Layer>
+
+      {marks.length ? (
+        <Layer listening={false} name="fit-marks">
+          {marks.map((m) => (
+            <Group key={`mark-${m.id}`} name="fit-mark">
+              {/* A light halo under the dashes keeps the outline readable on dark and red garments alike. */}
+              <Line points={m.points} closed stroke="#fdfdfb" strokeWidth={4} opacity={0.85} />
+              <Line points={m.points} closed stroke={m.error ? "#873425" : "#a8412f"} strokeWidth={2} dash={[7, 4]} />
+              <Rect x={m.tag.x} y={m.tag.y} width={m.tag.width} height={m.tag.height} cornerRadius={4} fill={m.error ? "#873425" : "#a8412f"} stroke="#fdfdfb" strokeWidth={1} />
+              <Text x={m.tag.x + 6} y={m.tag.y + 4} text={m.text} fontSize={11} fontStyle="bold" fill="#fdfdfb" />
+            </Group>
+          ))}
+        </Layer>
+      ) : null}
 
       {props.callouts || props.pins?.length ? (
         <Layer listening={false}>

@@ -157,6 +157,46 @@ export function formatLength(value: number, unit: LengthUnit, opts: FormatLength
   return withUnit ? `${text} ${unit}` : text;
 }
 
+/**
+ * A length as the user reads it: a whole number of the unit's display steps, rounded exactly as
+ * formatLength rounds (inches to the nearest 1/8 in, centimetres to 0.1 cm). Two lengths with the
+ * same steps read the same on screen.
+ */
+export function shownSteps(valueIn: number, unit: LengthUnit): number {
+  if (!Number.isFinite(valueIn)) return valueIn;
+  if (unit === "cm") {
+    const cm = valueIn * CM_PER_INCH;
+    if (!Number.isFinite(cm)) return cm;
+    // formatLength writes cm with toFixed(1); read its digits back so the two can never disagree.
+    const steps = Math.round(Number(cm.toFixed(1)) * 10);
+    return steps === 0 ? 0 : steps;
+  }
+  const steps = Math.round(Math.abs(valueIn) / EIGHTH_IN);
+  return valueIn < 0 && steps !== 0 ? -steps : steps;
+}
+
+/**
+ * True when `valueIn` is past (above) `limitIn` as both are shown in `unit`: equal readings are never
+ * past, so a warning built on this always shows two different numbers.
+ */
+export function pastLimit(valueIn: number, limitIn: number, unit: LengthUnit): boolean {
+  return shownSteps(valueIn, unit) > shownSteps(limitIn, unit);
+}
+
+/** True when `valueIn` falls short of (below) `limitIn` as both are shown in `unit`. */
+export function shortOf(valueIn: number, limitIn: number, unit: LengthUnit): boolean {
+  return shownSteps(valueIn, unit) < shownSteps(limitIn, unit);
+}
+
+/** Rounds a length in inches down to the display step of inches (1/8 in); only float noise (under 1e-9 of a step) rounds up. */
+export function floorToEighth(valueIn: number): number {
+  if (!Number.isFinite(valueIn)) return valueIn;
+  // A value a hair under a step (binary noise such as 9.999999999) still counts as that step.
+  const steps = Math.floor(valueIn / EIGHTH_IN + 1e-9);
+  const out = steps * EIGHTH_IN;
+  return out === 0 ? 0 : out;
+}
+
 export type ParseLengthResult = { ok: true; inches: number } | { ok: false; message: string };
 
 export interface ParseLengthOptions {

@@ -1,17 +1,18 @@
 "use client";
 
-import { useMemo, useState, type ReactNode } from "react";
-import { fillPrintArea, SHAPE_LABELS, suggestSize } from "@/lib/artwork/advice";
+import { useEffect, useMemo, useRef, useState, type ReactNode } from "react";
+import { fillPrintArea, placeSuggestedSize, SHAPE_LABELS, suggestSize } from "@/lib/artwork/advice";
 import { assessQuality, GRADE_LABELS, type QualityGrade } from "@/lib/artwork/quality";
 import { LOCATION_LABELS, locationSpec, sideOf, type PrintLocation } from "@/lib/garments/locations";
 import type { DecorationMethod } from "@/lib/jobs";
 import type { GarmentSide } from "@/lib/garments/types";
 import type { ProofDoc, PlacementPatch } from "@/lib/editor/document";
-import { checkPlacement, type PlacementWarning } from "@/lib/placement/checks";
+import { shortLabels, type PlacementWarning } from "@/lib/placement/checks";
 import type { Placement } from "@/lib/placement/model";
 import { formatLength, type LengthUnit } from "@/lib/units";
 import { LengthField } from "./LengthField";
 import type { EditorArtwork, EditorBlank } from "./ProofEditor";
+import { placementWarnings } from "./warnings";
 
 type Props = {
   blank: EditorBlank;
@@ -38,6 +39,8 @@ type Props = {
   onRemove: (id: string) => void;
   onAdd: (artworkId: string, location: PrintLocation) => void;
   uploadSlot?: ReactNode;
+  /** Warnings per placement id at the size shown, when the editor has computed them already (the canvas marks the same ones). */
+  warningsById?: Record<string, PlacementWarning[]>;
 };
 
 const GRADE_TONE: Record<QualityGrade, string> = {
@@ -58,21 +61,32 @@ export function Inspector(props: Props) {
   const row = blank.sizeChart.find((r) => r.size === doc.size) ?? blank.sizeChart[0]!;
   const previous = props.previousSize ? blank.sizeChart.find((r) => r.size === props.previousSize) : undefined;
 
-  const warningsById = useMemo(() => {
-    const out: Record<string, PlacementWarning[]> = {};
-    for (const p of doc.placements) {
-      out[p.id] = checkPlacement({
-        placement: p,
-        category: blank.category,
-        group: row.group,
-        measurements: row.measurements,
-        size: row.size,
-        unit,
-        previousSize: previous ? { size: previous.size, group: previous.group, measurements: previous.measurements } : undefined,
-      });
-    }
-    return out;
-  }, [doc.placements, blank.category, row, unit, previous]);
+  const given = props.warningsById;
+  const computed = useMemo(
+    () => (given ? null : placementWarnings({ placements: doc.placements, category: blank.category, row, previous, unit })),
+    [given, doc.placements, blank.category, row, unit, previous],
+  );
+  const warningsById = given ?? computed ?? {};
+
+  // "Show warnings" in the list selects the print, then brings its warnings into view and focus.
+  const warningsBox = useRef<HTMLDivElement>(null);
+  const pendingReveal = useRef<string | null>(null);
+  const revealWarnings = () => {
+    const box = warningsBox.current;
+    box?.scrollIntoView?.({ block: "nearest" });
+    box?.focus({ preventScroll: true });
+  };
+  const showWarningsOf = (id: string) => {
+    if (selected?.id === id) return revealWarnings();
+    pendingReveal.current = id;
+    props.onSelect(id);
+  };
+  const selectedId = selected?.id;
+  useEffect(() => {
+    if (!pendingReveal.current || pendingReveal.current !== selectedId) return;
+    pendingReveal.current = null;
+    revealWarnings();
+  }, [selectedId]);
 
   const artName = (id: string | null) => props.artworks.find((a) => a.id === id)?.name ?? "No art";
   const [newArt, setNewArt] = useState(props.artworks[0]?.id ?? "");
@@ -134,14 +148,16 @@ export function Inspector(props: Props) {
         </h2>
         <ul className="mt-2 space-y-1">
           {doc.placements.map((p) => {
-            const count = (warningsById[p.id] ?? []).filter((w) => w.severity !== "info").length;
+            const shown = (warningsById[p.id] ?? []).filter((w) => w.severity !== "info");
+            const count = shown.length;
+            const errors = shown.some((w) => w.severity === "error");
             return (
-              <li key={p.id}>
+              <li key={p.id} className={`rounded-lg ${selected?.id === p.id ? "bg-patina-100 text-patina-900" : ""}`}>
                 <button
                   type="button"
                   onClick={() => props.onSelect(p.id)}
                   aria-current={selected?.id === p.id ? "true" : undefined}
-                  className={`flex w-full items-center justify-between gap-2 rounded-lg px-3 py-2 text-left text-sm ${selected?.id === p.id ? "bg-patina-100 text-patina-900" : "hover:bg-paper-200"}`}
+                  className={`flex w-full items-center justify-between gap-2 rounded-lg px-3 py-2 text-left text-sm ${selected?.id === p.id ? "" : "hover:bg-paper-200"}`}
                 >
                   <span className="min-w-0">
                     <span className="block font-medium">{LOCATION_LABELS[p.location]}</span>
@@ -149,8 +165,18 @@ export function Inspector(props: Props) {
                       {artName(p.artworkId)} · {sideOf(p.location)}
                     </span>
                   </span>
-                  {count ? <span className="rounded-full bg-ochre-100 px-2 text-xs font-medium text-ochre-800">{count}</span> : <span className="text-xs text-patina-700">fits</span>}
+                  {count ? null : <span className="text-xs text-patina-700">fits</span>}
                 </button>
+                {count ? (
+                  <button
+                    type="button"
+                    data-testid="print-warning-summary"
+                    onClick={() => showWarningsOf(p.id)}
+                    className={`mx-3 mb-2 -mt-1 block rounded-md px-2 py-0.5 text-left text-xs font-medium underline-offset-2 hover:underline ${errors ? "bg-brick-100 text-brick-800" : "bg-ochre-100 text-ochre-800"}`}
+                  >
+                    {count} {count === 1 ? "warning" : "warnings"}: {shortLabels(shown).join(", ")}
+                  </button>
+                ) : null}
               </li>
             );
           })}
@@ -256,9 +282,10 @@ export function Inspector(props: Props) {
             sizeRow={row}
             method={props.method}
             editable={props.editable}
-            onApply={(size) => props.onPatch(selected.id, size)}
+            unit={unit}
+            onApply={(patch) => props.onPatch(selected.id, patch)}
           />
-          <div className="mt-4 space-y-2" aria-live="polite">
+          <div ref={warningsBox} tabIndex={-1} role="group" aria-label={`Checks for the ${LOCATION_LABELS[selected.location].toLowerCase()} on size ${row.size}`} className="mt-4 space-y-2 rounded-lg focus-visible:outline focus-visible:outline-2 focus-visible:outline-patina-500" aria-live="polite" data-testid="print-warnings">
             {(warningsById[selected.id] ?? []).length === 0 ? (
               <p className="rounded-lg border border-patina-200 bg-patina-100 px-3 py-2 text-sm text-patina-800">Fits this size: clear of the seams and within the print area.</p>
             ) : (
@@ -295,9 +322,27 @@ function ArtAdvice(props: {
   sizeRow: EditorBlank["sizeChart"][number];
   method: DecorationMethod;
   editable: boolean;
-  onApply: (size: { widthIn: number; heightIn: number }) => void;
+  unit: LengthUnit;
+  onApply: (patch: PlacementPatch) => void;
 }) {
-  const { placement, artwork } = props;
+  const { placement, artwork, blank, sizeRow, unit, editable } = props;
+  // Sizing runs the checks a few times; keep it to real changes (the inspector re-renders during a drag).
+  const sizing = useMemo(() => {
+    if (!artwork || !editable) return null;
+    const aspect = artwork.inkWidthPx / artwork.inkHeightPx;
+    let spec;
+    try {
+      spec = locationSpec({ location: placement.location, category: blank.category, group: sizeRow.group, measurements: sizeRow.measurements });
+    } catch {
+      return null;
+    }
+    const advice = suggestSize({ shape: artwork.shape ?? "square", aspect, group: sizeRow.group, maxWidthIn: spec.maxWidth, maxHeightIn: spec.maxHeight, unit });
+    const fill = fillPrintArea({ aspect, maxWidthIn: spec.maxWidth, maxHeightIn: spec.maxHeight, unit });
+    // Each button puts its size where it passes the checks: in place if it fits there, else on the usual spot.
+    const place = (size: { widthIn: number; heightIn: number }) =>
+      placeSuggestedSize({ placement, size, category: blank.category, group: sizeRow.group, measurements: sizeRow.measurements, sizeLabel: sizeRow.size });
+    return { advice, suggestedAt: place(advice), filled: place(fill)?.placement ?? null };
+  }, [artwork, editable, placement, blank.category, sizeRow, unit]);
   if (!artwork) return null;
   const quality = assessQuality({
     isVector: artwork.isVector,
@@ -307,16 +352,13 @@ function ArtAdvice(props: {
     heightIn: placement.heightIn,
     method: props.method,
   });
-  const aspect = artwork.inkWidthPx / artwork.inkHeightPx;
-  let spec;
-  try {
-    spec = locationSpec({ location: placement.location, category: props.blank.category, group: props.sizeRow.group, measurements: props.sizeRow.measurements });
-  } catch {
-    spec = null;
-  }
   const shape = artwork.shape ?? "square";
-  const advice = spec ? suggestSize({ shape, aspect, group: props.sizeRow.group, maxWidthIn: spec.maxWidth, maxHeightIn: spec.maxHeight }) : null;
-  const fill = spec ? fillPrintArea({ aspect, maxWidthIn: spec.maxWidth, maxHeightIn: spec.maxHeight }) : null;
+  const advice = sizing?.advice ?? null;
+  const suggestedAt = sizing?.suggestedAt ?? null;
+  const suggested = suggestedAt?.placement ?? null;
+  const filled = sizing?.filled ?? null;
+  const patchOf = (p: Placement): PlacementPatch => ({ widthIn: p.widthIn, heightIn: p.heightIn, offsetFromCenterIn: p.offsetFromCenterIn, belowCollarIn: p.belowCollarIn, rotationDeg: p.rotationDeg });
+  const sizeText = (p: Placement) => `${formatLength(p.widthIn, unit, { withUnit: false })} × ${formatLength(p.heightIn, unit)}`;
   return (
     <div className="mt-4 space-y-3 rounded-lg border border-paper-300 bg-chalk p-3" data-testid="art-quality">
       <div className="flex items-center justify-between gap-2">
@@ -337,17 +379,24 @@ function ArtAdvice(props: {
           About {artwork.colourCount} colour{artwork.colourCount === 1 ? "" : "s"} · {SHAPE_LABELS[shape].toLowerCase()} art
         </p>
       ) : null}
-      {advice && fill && props.editable ? (
+      {advice && (suggested || filled) && props.editable ? (
         <div className="space-y-2 border-t border-paper-200 pt-2">
           <div className="flex flex-wrap gap-2">
-            <button type="button" className="btn-quiet px-2.5 py-1 text-xs" onClick={() => props.onApply({ widthIn: advice.widthIn, heightIn: advice.heightIn })}>
-              Suggested size ({advice.widthIn.toFixed(2)} in wide)
-            </button>
-            <button type="button" className="btn-quiet px-2.5 py-1 text-xs" onClick={() => props.onApply({ widthIn: fill.widthIn, heightIn: fill.heightIn })}>
-              Fill print area
-            </button>
+            {suggested ? (
+              <button type="button" className="btn-quiet px-2.5 py-1 text-xs" onClick={() => props.onApply(patchOf(suggested))}>
+                Suggested size ({sizeText(suggested)})
+              </button>
+            ) : null}
+            {filled ? (
+              <button type="button" className="btn-quiet px-2.5 py-1 text-xs" title={sizeText(filled)} onClick={() => props.onApply(patchOf(filled))}>
+                Fill print area
+              </button>
+            ) : null}
           </div>
-          <p className="text-xs text-ink-500">{advice.rule}</p>
+          <p className="text-xs text-ink-500">
+            {advice.rule}
+            {suggestedAt?.where === "usual-spot" ? " At this size the print moves to its usual spot, where it fits." : ""}
+          </p>
         </div>
       ) : null}
     </div>

@@ -8,6 +8,7 @@ import { buildSilhouette } from "@/lib/garments/silhouette";
 import type { GarmentCategory, GarmentSide, SizeGroup, GarmentMeasurements } from "@/lib/garments/types";
 import { centredOrigin, fitZoom, scaleOf, type View } from "@/lib/editor/view";
 import { bodyFigure } from "@/lib/review/figure";
+import type { WarningFlag } from "@/lib/placement/checks";
 import type { Placement } from "@/lib/placement/model";
 import type { LengthUnit } from "@/lib/units";
 
@@ -41,6 +42,8 @@ type Props = {
   pins?: Array<{ id: string; n: number; xIn: number; yIn: number; resolved: boolean; active?: boolean }>;
   onGarmentClick?: (point: { x: number; y: number }) => void;
   worn?: boolean;
+  /** The editor's warnings per placement id; prints that do not fit are marked on the canvas. */
+  flags?: Record<string, WarningFlag[]>;
 };
 
 function useImages(art: ArtSource[]) {
@@ -170,6 +173,7 @@ export function ProofCanvas(props: Props) {
           pins={props.pins}
           onGarmentClick={props.onGarmentClick}
           figure={figure}
+          flags={props.flags}
           onPan={(dx, dy) => {
             const scale = scaleOf(view);
             setPan((p) => {

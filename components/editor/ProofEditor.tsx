@@ -25,6 +25,7 @@ import { SaveIndicator } from "./SaveIndicator";
 import { SharePanel } from "./SharePanel";
 import { createEditorStore, EditorContext, useEditor, type EditorStore } from "./store";
 import { useAutosave } from "./useAutosave";
+import { placementWarnings } from "./warnings";
 
 export type EditorBlank = {
   id: string;
@@ -90,6 +91,12 @@ function EditorBody(props: Props & { store: EditorStore }) {
   // What the inspector shows is the document at the size being looked at; the saved size stays the proof's own.
   const viewDoc = useMemo(() => (doc.size === viewSize ? doc : { ...doc, size: viewSize }), [doc, viewSize]);
   const info = CATEGORY_INFO[blank.category];
+  // One set of checks at the size looked at: the inspector lists them, the canvas marks the prints.
+  const previousRow = previousSize ? blank.sizeChart.find((r) => r.size === previousSize) : undefined;
+  const warningsById = useMemo(
+    () => placementWarnings({ placements: doc.placements, category: blank.category, row: sizeRow, previous: previousRow, unit }),
+    [doc.placements, blank.category, sizeRow, previousRow, unit],
+  );
 
   const save = useCallback(
     (input: { baseVersion: number; doc: ProofDoc; saveKey: string }) => saveProofAction({ shopSlug: props.shopSlug, proofId: props.proof.id, ...input }),
@@ -274,6 +281,7 @@ function EditorBody(props: Props & { store: EditorStore }) {
             onSelect={onSelect}
             onCommit={onCommit}
             onLiveChange={(id, patch) => setLive({ id, patch })}
+            flags={warningsById}
           />
           <p className="pointer-events-none absolute bottom-2 left-10 rounded bg-chalk/90 px-2 py-1 text-xs text-ink-600">
             {blank.name} · {info.label} · size {viewSize} · {side} · {calibration.calibrated ? `${calibration.pxPerInch.toFixed(1)} px/in calibrated` : "96 px/in (not calibrated)"}
@@ -293,6 +301,7 @@ function EditorBody(props: Props & { store: EditorStore }) {
             method={props.job.method}
             locations={locationsFor(blank.category).map((l) => ({ value: l, label: LOCATION_LABELS[l] }))}
             previousSize={previousSize}
+            warningsById={warningsById}
             calibrated={calibration.calibrated}
             onCalibrate={() => setCalibrating(true)}
             onSelect={(id) => {

@@ -29,11 +29,15 @@ import {
   degToRad,
   formatLength,
   normalizeDegrees,
+  pastLimit,
+  shortOf,
+  shownSteps,
   type LengthUnit,
 } from "@/lib/units";
 import { placementBounds, placementCorners, placementSchema, type Placement } from "./model";
 
 export { SIDE_SEAM_CLEARANCE_IN } from "@/lib/garments/locations";
+export { pastLimit, shortOf, shownSteps } from "@/lib/units";
 
 /** Below this turn, art looks accidentally crooked rather than deliberately angled (Chalkline default). */
 export const SLIGHT_TILT_DEG = 2;
@@ -77,6 +81,45 @@ export const FIT_CODES: ReadonlySet<PlacementWarningCode> = new Set<PlacementWar
   "pocket-clearance",
   "outside-print-area",
 ]);
+
+/** A warning's code and weight, all the canvas needs to mark a print. */
+export type WarningFlag = Pick<PlacementWarning, "code" | "severity">;
+
+/** Short words for each warning, for tags on the canvas and the list of prints (our own wording). */
+const SHORT_LABELS: Readonly<Record<PlacementWarningCode, string | { error: string; other: string }>> = {
+  "invalid-placement": "Not valid",
+  "location-not-offered": "No such location",
+  "too-wide": "Too wide",
+  "too-tall": "Too tall",
+  "seam-clearance": { error: "Over seam", other: "Near seam" },
+  "off-garment": "Off garment",
+  "collar-clearance": { error: "Into collar", other: "Near collar" },
+  "hem-clearance": { error: "Past hem", other: "Near hem" },
+  "pocket-clearance": { error: "On pocket", other: "Near pocket" },
+  "outside-print-area": "Outside area",
+  "top-too-high": "Sits high",
+  "top-too-low": "Sits low",
+  "slightly-off-center": "Off center",
+  "slight-tilt": "Slight tilt",
+  "size-switch": "Size change",
+};
+
+export function shortLabel(flag: WarningFlag): string {
+  const label = SHORT_LABELS[flag.code];
+  return typeof label === "string" ? label : flag.severity === "error" ? label.error : label.other;
+}
+
+/** The short labels of a list of warnings, in its order, each once. */
+export function shortLabels(flags: readonly WarningFlag[]): string[] {
+  return [...new Set(flags.map(shortLabel))];
+}
+
+/** The warnings that say the art does not fit (errors and warnings about fit, no hints). */
+export function fitProblems(warnings: readonly PlacementWarning[]): PlacementWarning[];
+export function fitProblems(warnings: readonly WarningFlag[]): WarningFlag[];
+export function fitProblems(warnings: readonly WarningFlag[]): WarningFlag[] {
+  return warnings.filter((w) => FIT_CODES.has(w.code) && w.severity !== "info");
+}
 
 /** Short reason phrases for the size-switch summary. */
 const FIT_REASONS: Readonly<Partial<Record<PlacementWarningCode, string>>> = {
@@ -182,10 +225,6 @@ export function checkAcrossSizes(args: {
   });
 }
 
-function fitProblems(warnings: readonly PlacementWarning[]): PlacementWarning[] {
-  return warnings.filter((w) => FIT_CODES.has(w.code) && w.severity !== "info");
-}
-
 function sortWarnings(warnings: PlacementWarning[]): PlacementWarning[] {
   return warnings
     .map((w, i) => ({ w, i }))
@@ -238,10 +277,19 @@ function fmt(ctx: Context, inches: number): string {
   return formatLength(inches, ctx.unit);
 }
 
-/** Formats a measured value so it never reads the same as the limit it falls short of. */
-function fmtAgainst(ctx: Context, value: number, limit: number): string {
-  const text = fmt(ctx, value);
-  return text === fmt(ctx, limit) ? formatLength(value, ctx.unit, { decimal: true, digits: 2 }) : text;
+// Every limit is judged at the precision the message shows it (1/8 in, or 0.1 cm): a value that
+// reads the same as its limit is within it, so a warning never shows two equal numbers.
+function past(ctx: Context, value: number, limit: number): boolean {
+  return pastLimit(value, limit, ctx.unit);
+}
+
+function short(ctx: Context, value: number, limit: number): boolean {
+  return shortOf(value, limit, ctx.unit);
+}
+
+/** A distance that reads as below zero: the art has crossed the line it was measured from. */
+function readsNegative(ctx: Context, value: number): boolean {
+  return shownSteps(value, ctx.unit) < 0;
 }
 
 function where(ctx: Context): string {
@@ -251,19 +299,19 @@ function where(ctx: Context): string {
 function sizeLimits(ctx: Context): PlacementWarning[] {
   const { p, spec } = ctx;
   const out: PlacementWarning[] = [];
-  if (p.widthIn > spec.maxWidth + EPSILON_IN) {
+  if (past(ctx, p.widthIn, spec.maxWidth)) {
     out.push({
       code: "too-wide",
       severity: "warning",
-      message: `The art is ${fmtAgainst(ctx, p.widthIn, spec.maxWidth)} wide; a ${where(ctx)} takes at most ${fmt(ctx, spec.maxWidth)}.`,
+      message: `The art is ${fmt(ctx, p.widthIn)} wide; a ${where(ctx)} takes at most ${fmt(ctx, spec.maxWidth)}.`,
       details: { widthIn: p.widthIn, maxWidthIn: spec.maxWidth },
     });
   }
-  if (p.heightIn > spec.maxHeight + EPSILON_IN) {
+  if (past(ctx, p.heightIn, spec.maxHeight)) {
     out.push({
       code: "too-tall",
       severity: "warning",
-      message: `The art is ${fmtAgainst(ctx, p.heightIn, spec.maxHeight)} tall; a ${where(ctx)} takes at most ${fmt(ctx, spec.maxHeight)}.`,
+      message: `The art is ${fmt(ctx, p.heightIn)} tall; a ${where(ctx)} takes at most ${fmt(ctx, spec.maxHeight)}.`,
       details: { heightIn: p.heightIn, maxHeightIn: spec.maxHeight },
     });
   }
@@ -335,15 +383,15 @@ function seamClearance(ctx: Context, out: PlacementWarning[]): boolean {
     return false;
   }
   const need = spec.sideSeamClearance;
-  if (min < need - EPSILON_IN) {
+  if (short(ctx, min, need)) {
     const seam = edgeName(silhouette, minY);
-    const message =
-      min >= 0
-        ? `Only ${fmtAgainst(ctx, min, need)} between the art and the ${seam} on size ${ctx.size}; keep at least ${fmt(ctx, need)}.`
-        : `The art crosses the ${seam} by ${fmt(ctx, -min)} on size ${ctx.size} (clearance ${fmt(ctx, min)}); keep at least ${fmt(ctx, need)} inside it.`;
+    const crosses = readsNegative(ctx, min);
+    const message = !crosses
+      ? `Only ${fmt(ctx, min)} between the art and the ${seam} on size ${ctx.size}; keep at least ${fmt(ctx, need)}.`
+      : `The art crosses the ${seam} by ${fmt(ctx, -min)} on size ${ctx.size} (clearance ${fmt(ctx, min)}); keep at least ${fmt(ctx, need)} inside it.`;
     out.push({
       code: "seam-clearance",
-      severity: min < 0 ? "error" : "warning",
+      severity: crosses ? "error" : "warning",
       message,
       details: { clearanceIn: min, minClearanceIn: need, atYIn: minY, seam },
     });
@@ -373,8 +421,8 @@ function collarClearance(ctx: Context): PlacementWarning[] {
     if (!span || neckY === null) continue;
     min = Math.min(min, span.minY - neckY);
   }
-  if (!Number.isFinite(min) || min >= COLLAR_CLEARANCE_IN - EPSILON_IN) return [];
-  if (min < 0) {
+  if (!Number.isFinite(min) || !short(ctx, min, COLLAR_CLEARANCE_IN)) return [];
+  if (readsNegative(ctx, min)) {
     return [
       {
         code: "collar-clearance",
@@ -388,7 +436,7 @@ function collarClearance(ctx: Context): PlacementWarning[] {
     {
       code: "collar-clearance",
       severity: "warning",
-      message: `The top of the art is only ${fmtAgainst(ctx, min, COLLAR_CLEARANCE_IN)} below the collar seam; keep at least ${fmt(ctx, COLLAR_CLEARANCE_IN)}.`,
+      message: `The top of the art is only ${fmt(ctx, min)} below the collar seam; keep at least ${fmt(ctx, COLLAR_CLEARANCE_IN)}.`,
       details: { clearanceIn: min, minClearanceIn: COLLAR_CLEARANCE_IN },
     },
   ];
@@ -403,7 +451,7 @@ function lowerBoundaryName(silhouette: Silhouette): string {
 function hemClearance(ctx: Context): PlacementWarning[] {
   const { silhouette, corners } = ctx;
   const artBottom = Math.max(...corners.map((c) => c.y));
-  if (artBottom > silhouette.hemY + EPSILON_IN) {
+  if (past(ctx, artBottom - silhouette.hemY, 0)) {
     return [
       {
         code: "hem-clearance",
@@ -419,15 +467,15 @@ function hemClearance(ctx: Context): PlacementWarning[] {
   }
   const boundary = lowerBoundaryName(silhouette);
   const clearance = silhouette.lowerBoundaryY - artBottom;
-  if (clearance >= HEM_CLEARANCE_IN - EPSILON_IN) return [];
-  const message =
-    clearance >= 0
-      ? `The art ends ${fmtAgainst(ctx, clearance, HEM_CLEARANCE_IN)} above the ${boundary} on size ${ctx.size}; keep at least ${fmt(ctx, HEM_CLEARANCE_IN)}.`
-      : `The art runs ${fmt(ctx, -clearance)} onto the ${boundary} on size ${ctx.size}; keep at least ${fmt(ctx, HEM_CLEARANCE_IN)} above it.`;
+  if (!short(ctx, clearance, HEM_CLEARANCE_IN)) return [];
+  const onto = readsNegative(ctx, clearance);
+  const message = !onto
+    ? `The art ends ${fmt(ctx, clearance)} above the ${boundary} on size ${ctx.size}; keep at least ${fmt(ctx, HEM_CLEARANCE_IN)}.`
+    : `The art runs ${fmt(ctx, -clearance)} onto the ${boundary} on size ${ctx.size}; keep at least ${fmt(ctx, HEM_CLEARANCE_IN)} above it.`;
   return [
     {
       code: "hem-clearance",
-      severity: clearance < 0 ? "error" : "warning",
+      severity: onto ? "error" : "warning",
       message,
       details: { clearanceIn: clearance, minClearanceIn: HEM_CLEARANCE_IN, boundary },
     },
@@ -445,15 +493,15 @@ function pocketClearance(ctx: Context): PlacementWarning[] {
   if (artRight <= -pocketHalf || artLeft >= pocketHalf) return [];
   const artBottom = Math.max(...corners.map((c) => c.y));
   const clearance = pocketTop - artBottom;
-  if (clearance >= POCKET_CLEARANCE_IN - EPSILON_IN) return [];
-  const message =
-    clearance >= 0
-      ? `The art ends ${fmtAgainst(ctx, clearance, POCKET_CLEARANCE_IN)} above the pouch pocket on size ${ctx.size}; keep at least ${fmt(ctx, POCKET_CLEARANCE_IN)}.`
-      : `The art runs ${fmt(ctx, -clearance)} onto the pouch pocket on size ${ctx.size}; keep at least ${fmt(ctx, POCKET_CLEARANCE_IN)} above it.`;
+  if (!short(ctx, clearance, POCKET_CLEARANCE_IN)) return [];
+  const onto = readsNegative(ctx, clearance);
+  const message = !onto
+    ? `The art ends ${fmt(ctx, clearance)} above the pouch pocket on size ${ctx.size}; keep at least ${fmt(ctx, POCKET_CLEARANCE_IN)}.`
+    : `The art runs ${fmt(ctx, -clearance)} onto the pouch pocket on size ${ctx.size}; keep at least ${fmt(ctx, POCKET_CLEARANCE_IN)} above it.`;
   return [
     {
       code: "pocket-clearance",
-      severity: clearance < 0 ? "error" : "warning",
+      severity: onto ? "error" : "warning",
       message,
       details: { clearanceIn: clearance, minClearanceIn: POCKET_CLEARANCE_IN, pocketTopIn: pocketTop },
     },
@@ -465,7 +513,7 @@ function usualTop(ctx: Context): PlacementWarning[] {
   const top = placementBounds(p).y;
   const usual = spec.defaultBelowCollar;
   const label = spec.label.toLowerCase();
-  if (top < usual - TOP_TOLERANCE_IN - EPSILON_IN) {
+  if (short(ctx, top, usual - TOP_TOLERANCE_IN)) {
     return [
       {
         code: "top-too-high",
@@ -475,7 +523,7 @@ function usualTop(ctx: Context): PlacementWarning[] {
       },
     ];
   }
-  if (top > usual + TOP_TOLERANCE_IN + EPSILON_IN) {
+  if (past(ctx, top, usual + TOP_TOLERANCE_IN)) {
     return [
       {
         code: "top-too-low",
@@ -504,7 +552,7 @@ function outsideArea(ctx: Context): PlacementWarning[] {
     const ly = -dx * sin + dy * cos;
     over = Math.max(over, Math.abs(lx) - area.width / 2, Math.abs(ly) - area.height / 2);
   }
-  if (over <= EPSILON_IN) return [];
+  if (!past(ctx, over, 0)) return [];
   return [
     {
       code: "outside-print-area",

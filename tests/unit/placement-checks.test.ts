@@ -26,6 +26,11 @@ const COLLAR_CLEARANCE_IN = 0.5;
 const HEM_CLEARANCE_IN = 1;
 /** Keep hoodie front art this far above the pouch pocket. */
 const POCKET_CLEARANCE_IN = 1;
+/**
+ * Limits are judged at the precision a message shows them: inches to the nearest 1/8 in, centimetres
+ * to 0.1 cm (Chalkline's own formatLength). So 11.3 in reads 11 1/4 in and is within 11 1/4 in.
+ */
+const EIGHTH_IN = 0.125;
 // Margins of the product's own (Chalkline defaults, no published source):
 /** How far the top of the art may stray from a location's usual top before the check says so. */
 const TOP_TOLERANCE_IN = 1.5;
@@ -121,8 +126,14 @@ describe("each threshold at its edge (values written above, with their sources)"
       flagged: false,
     },
     {
-      name: "full front 11.26 in wide",
-      patch: { widthIn: ADULT_FULL_FRONT_MAX.widthIn + 0.01 },
+      name: "full front 11.3 in wide, which reads 11 1/4 in",
+      patch: { widthIn: ADULT_FULL_FRONT_MAX.widthIn + 0.05 },
+      code: "too-wide",
+      flagged: false,
+    },
+    {
+      name: "full front 11.32 in wide, which reads 11 3/8 in",
+      patch: { widthIn: ADULT_FULL_FRONT_MAX.widthIn + 0.07 },
       code: "too-wide",
       flagged: true,
       details: { maxWidthIn: ADULT_FULL_FRONT_MAX.widthIn },
@@ -134,8 +145,14 @@ describe("each threshold at its edge (values written above, with their sources)"
       flagged: false,
     },
     {
-      name: "full front 14.01 in tall",
-      patch: { heightIn: ADULT_FULL_FRONT_MAX.heightIn + 0.01 },
+      name: "full front 14.06 in tall, which reads 14 in",
+      patch: { heightIn: ADULT_FULL_FRONT_MAX.heightIn + 0.06 },
+      code: "too-tall",
+      flagged: false,
+    },
+    {
+      name: "full front 14.07 in tall, which reads 14 1/8 in",
+      patch: { heightIn: ADULT_FULL_FRONT_MAX.heightIn + 0.07 },
       code: "too-tall",
       flagged: true,
       details: { maxHeightIn: ADULT_FULL_FRONT_MAX.heightIn },
@@ -147,15 +164,25 @@ describe("each threshold at its edge (values written above, with their sources)"
       flagged: false,
     },
     {
-      name: "art 1.99 in inside the side seams",
+      name: "art 1.95 in inside the side seams, which reads 2 in",
       patch: {
-        widthIn: chest - 2 * (SIDE_SEAM_CLEARANCE_IN - 0.01),
+        widthIn: chest - 2 * (SIDE_SEAM_CLEARANCE_IN - 0.05),
+        heightIn: 4,
+        belowCollarIn: belowUnderarm,
+      },
+      code: "seam-clearance",
+      flagged: false,
+    },
+    {
+      name: "art 1.9 in inside the side seams, which reads 1 7/8 in",
+      patch: {
+        widthIn: chest - 2 * (SIDE_SEAM_CLEARANCE_IN - 0.1),
         heightIn: 4,
         belowCollarIn: belowUnderarm,
       },
       code: "seam-clearance",
       flagged: true,
-      details: { minClearanceIn: SIDE_SEAM_CLEARANCE_IN, clearanceIn: SIDE_SEAM_CLEARANCE_IN - 0.01 },
+      details: { minClearanceIn: SIDE_SEAM_CLEARANCE_IN, clearanceIn: SIDE_SEAM_CLEARANCE_IN - 0.1 },
     },
     {
       name: "art top exactly 1/2 in below the collar seam",
@@ -164,11 +191,17 @@ describe("each threshold at its edge (values written above, with their sources)"
       flagged: false,
     },
     {
-      name: "art top 0.45 in below the collar seam",
+      name: "art top 0.45 in below the collar seam, which reads 1/2 in",
       patch: { widthIn: 4, heightIn: 4, belowCollarIn: COLLAR_CLEARANCE_IN - 0.05 },
       code: "collar-clearance",
+      flagged: false,
+    },
+    {
+      name: "art top 0.4 in below the collar seam, which reads 3/8 in",
+      patch: { widthIn: 4, heightIn: 4, belowCollarIn: COLLAR_CLEARANCE_IN - 0.1 },
+      code: "collar-clearance",
       flagged: true,
-      details: { minClearanceIn: COLLAR_CLEARANCE_IN, clearanceIn: COLLAR_CLEARANCE_IN - 0.05 },
+      details: { minClearanceIn: COLLAR_CLEARANCE_IN, clearanceIn: COLLAR_CLEARANCE_IN - 0.1 },
     },
     {
       name: "art ending exactly 1 in above the hem",
@@ -177,11 +210,29 @@ describe("each threshold at its edge (values written above, with their sources)"
       flagged: false,
     },
     {
-      name: "art ending 0.95 in above the hem",
+      name: "art ending 0.95 in above the hem, which reads 1 in",
       patch: { widthIn: 8, heightIn: 6, belowCollarIn: sil.hemY - 6 - (HEM_CLEARANCE_IN - 0.05) },
       code: "hem-clearance",
+      flagged: false,
+    },
+    {
+      name: "art ending 0.9 in above the hem, which reads 7/8 in",
+      patch: { widthIn: 8, heightIn: 6, belowCollarIn: sil.hemY - 6 - (HEM_CLEARANCE_IN - 0.1) },
+      code: "hem-clearance",
       flagged: true,
-      details: { minClearanceIn: HEM_CLEARANCE_IN, clearanceIn: HEM_CLEARANCE_IN - 0.05 },
+      details: { minClearanceIn: HEM_CLEARANCE_IN, clearanceIn: HEM_CLEARANCE_IN - 0.1 },
+    },
+    {
+      name: "top 1.55 in above the usual 3 in, which reads 1 1/2 in",
+      patch: { heightIn: 8, belowCollarIn: FULL_FRONT_TOP_IN - TOP_TOLERANCE_IN - 0.05 },
+      code: "top-too-high",
+      flagged: false,
+    },
+    {
+      name: "top 1.6 in above the usual 3 in, which reads 1 3/8 in below the collar",
+      patch: { heightIn: 8, belowCollarIn: FULL_FRONT_TOP_IN - TOP_TOLERANCE_IN - 0.1 },
+      code: "top-too-high",
+      flagged: true,
     },
     {
       name: "top exactly 1.5 in above the usual 3 in",
@@ -218,14 +269,16 @@ describe("each threshold at its edge (values written above, with their sources)"
       expect(found[key] as number, key).toBeCloseTo(value, 9);
   });
 
-  it("hoodie M: art ending exactly 1 in above the pouch pocket passes; 0.95 in is too close", () => {
+  it("hoodie M: art ending 1 in or 0.95 in (reads 1 in) above the pouch pocket passes; 0.9 in is too close", () => {
     const hoodie = garment("campfire-pullover-hoodie", "M");
     const pocketTop = buildSilhouette(hoodie.category, hoodie.measurements, "front").pocketTopY!;
     const ends = (gap: number) => art({ heightIn: pocketTop - FULL_FRONT_TOP_IN - gap });
     expect(codes(check(ends(POCKET_CLEARANCE_IN), hoodie))).not.toContain("pocket-clearance");
-    const close = find(check(ends(POCKET_CLEARANCE_IN - 0.05), hoodie), "pocket-clearance");
+    expect(codes(check(ends(POCKET_CLEARANCE_IN - 0.05), hoodie))).not.toContain("pocket-clearance");
+    const close = find(check(ends(POCKET_CLEARANCE_IN - 0.1), hoodie), "pocket-clearance");
     expect(close.details?.minClearanceIn).toBe(POCKET_CLEARANCE_IN);
-    expect(close.details?.clearanceIn as number).toBeCloseTo(POCKET_CLEARANCE_IN - 0.05, 9);
+    expect(close.details?.clearanceIn as number).toBeCloseTo(POCKET_CLEARANCE_IN - 0.1, 9);
+    expect(close.message).toContain("ends 7/8 in above the pouch pocket");
   });
 });
 
@@ -303,9 +356,35 @@ describe("size limits", () => {
     expect(warnings[0]!.message).toBe("The art is 15 in tall; a full front on size M takes at most 14 in.");
   });
 
-  it("never reads the same number as the limit it breaks", () => {
-    const warnings = check(art({ widthIn: 11.3 }));
-    expect(find(warnings, "too-wide").message).toContain("11.3 in wide");
+  it("judges a limit at the precision it shows: 11.3 in reads 11 1/4 in and passes; in cm it reads 28.7 against 28.6", () => {
+    // 11.3 in = 28.702 cm and 11.25 in = 28.575 cm, each shown to 0.1 cm (NIST SP 811: 1 in = 2.54 cm).
+    expect(codes(check(art({ widthIn: 11.3 })))).not.toContain("too-wide");
+    const cm = find(check(art({ widthIn: 11.3 }), TEE_M, { unit: "cm" }), "too-wide");
+    expect(cm.message).toBe("The art is 28.7 cm wide; a full front on size M takes at most 28.6 cm.");
+    const inches = find(check(art({ widthIn: ADULT_FULL_FRONT_MAX.widthIn + EIGHTH_IN })), "too-wide");
+    expect(inches.message).toBe("The art is 11 3/8 in wide; a full front on size M takes at most 11 1/4 in.");
+  });
+
+  it.each(["in", "cm"] as const)("no warning ever shows the same number twice (%s)", (unit) => {
+    // Sweep width and clearances across their limits in steps finer than the display.
+    const sil = buildSilhouette(TEE_M.category, TEE_M.measurements, "front");
+    const belowUnderarm = sil.chestLineY + 1;
+    const chest = (TEE_M.measurements as ApparelMeasurements).chestWidth;
+    for (let k = -40; k <= 40; k++) {
+      const d = k / 200;
+      for (const placement of [
+        art({ widthIn: ADULT_FULL_FRONT_MAX.widthIn + d }),
+        art({ heightIn: ADULT_FULL_FRONT_MAX.heightIn + d }),
+        art({ widthIn: chest - 2 * (SIDE_SEAM_CLEARANCE_IN + d), heightIn: 4, belowCollarIn: belowUnderarm }),
+        art({ widthIn: 4, heightIn: 4, belowCollarIn: COLLAR_CLEARANCE_IN + d }),
+        art({ widthIn: 8, heightIn: 6, belowCollarIn: sil.hemY - 6 - (HEM_CLEARANCE_IN + d) }),
+      ]) {
+        for (const w of check(placement, TEE_M, { unit })) {
+          const numbers = w.message.match(/-?\d+(?:[ .]\d+)?(?:\/\d+)? (?:in|cm)/g) ?? [];
+          if (numbers.length >= 2) expect(new Set(numbers).size, w.message).toBe(numbers.length);
+        }
+      }
+    }
   });
 
   it("3XL takes art that S cannot", () => {
