@@ -264,7 +264,7 @@ export default function ProofStage(props: Props) {
 
       {props.callouts || props.pins?.length ? (
         <Layer listening={false}>
-          {props.callouts ? props.placements.map((p) => <Callouts key={`co-${p.id}`} placement={p} view={view} unit={props.unit} />) : null}
+          {props.callouts ? props.placements.map((p) => <Callouts key={`co-${p.id}`} placement={p} view={view} unit={props.unit} topFrom={silhouette.category === "tote" ? "top edge" : "collar"} />) : null}
           {(props.pins ?? []).map((pin) => {
             const at = toStage(view, { x: pin.xIn, y: pin.yIn });
             return (
@@ -423,7 +423,7 @@ function Rulers({ width, height, view, unit }: { width: number; height: number; 
 }
 
 /** Width, height, distance below the collar and offset from center, drawn on the garment. */
-function Callouts({ placement: p, view, unit }: { placement: Placement; view: View; unit: LengthUnit }) {
+function Callouts({ placement: p, view, unit, topFrom }: { placement: Placement; view: View; unit: LengthUnit; topFrom: string }) {
   const s = scaleOf(view);
   const topLeft = toStage(view, { x: p.offsetFromCenterIn - p.widthIn / 2, y: p.belowCollarIn });
   const w = p.widthIn * s;
@@ -456,7 +456,7 @@ function Callouts({ placement: p, view, unit }: { placement: Placement; view: Vi
         <>
           <Line points={[topLeft.x - 12, collarY, topLeft.x - 12, topLeft.y]} stroke={ink} strokeWidth={1.5} dash={[4, 3]} />
           <Line points={[topLeft.x - 17, collarY, topLeft.x - 7, collarY]} stroke={ink} strokeWidth={1.5} />
-          {label(`${formatLength(p.belowCollarIn, unit)} below collar`, topLeft.x - 16, collarY + (topLeft.y - collarY) / 2, "right")}
+          {label(`${formatLength(p.belowCollarIn, unit)} below ${topFrom}`, topLeft.x - 16, collarY + (topLeft.y - collarY) / 2, "right")}
         </>
       ) : null}
       {Math.abs(offset) >= 1 / 16 ? (

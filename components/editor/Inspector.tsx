@@ -250,7 +250,7 @@ export function Inspector(props: Props) {
               hint={selected.offsetFromCenterIn === 0 ? "Centered" : selected.offsetFromCenterIn > 0 ? "Toward viewer's right" : "Toward viewer's left"}
               onCommit={(v) => props.onPatch(selected.id, { offsetFromCenterIn: v })}
             />
-            <LengthField label="Below collar" valueIn={selected.belowCollarIn} unit={unit} allowNegative disabled={!props.editable} hint="Top of the print" onCommit={(v) => props.onPatch(selected.id, { belowCollarIn: v })} />
+            <LengthField label={blank.category === "tote" ? "Below top edge" : "Below collar"} valueIn={selected.belowCollarIn} unit={unit} allowNegative disabled={!props.editable} hint="Top of the print" onCommit={(v) => props.onPatch(selected.id, { belowCollarIn: v })} />
             <div>
               <label htmlFor="rotation" className="mb-1 block text-xs font-medium text-ink-600">
                 Rotation
