@@ -136,7 +136,7 @@ describe("accessibility of the main pages (axe, WCAG 2.2 AA)", () => {
     await page.goto(`/shops/${demo.slug}/jobs`);
     await page.getByRole("link", { name: /Spring season team tees/ }).click();
     await page.getByRole("link", { name: "Production" }).click();
-    await page.getByTestId("grading-summary").first().waitFor();
+    await page.getByTestId("plan-now").first().waitFor();
     await audit(page, "production");
   });
 });

@@ -159,7 +159,7 @@ describe("pages under the policy", () => {
     await page.goto(`/shops/${demo.slug}/jobs`);
     await page.getByRole("link", { name: /Spring season team tees/ }).click();
     await page.getByRole("link", { name: "Production" }).click();
-    await page.getByTestId("grading-summary").first().waitFor();
+    await page.getByTestId("plan-now").first().waitFor();
     const clientContext = await newContext(browser, { viewport: { width: 1280, height: 900 } });
     const clientViolations = await watchCsp(clientContext);
     const clientPage = await clientContext.newPage();
