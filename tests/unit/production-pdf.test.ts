@@ -5,8 +5,10 @@ import { beforeAll, describe, expect, it } from "vitest";
 import {
   DEFAULT_GANG_PPI,
   MAX_SHEET_PIXELS,
-  SINGLE_PASS_MAX_PIXELS,
+  STRIP_PIXELS,
   renderGangSheet,
+  renderGangSheetPdf,
+  renderGangSheetPngs,
   type RenderGangSheetInput,
 } from "@/app/_server/production/gang-sheet";
 import {
@@ -718,14 +720,14 @@ describe("renderGangSheet", () => {
     expect(isBlue(pixel(img, 72, 2.25 * 72))).toBe(true);
   });
 
-  it("draws big sheets in strips with the same pixels, and reports progress up to 1", async () => {
+  it("writes the same pixels whatever the strip height, composites touching pieces, and reports progress up to 1", async () => {
     const busy: RenderGangSheetInput = {
       ...sheet,
       sheet: {
         lengthIn: 3,
         placements: [
           ...sheet.sheet.placements,
-          // Two pieces that overlap (drawn by sharp's compositing in strip mode) and a half-transparent one.
+          // Two pieces that overlap (composited by sharp) and a half-transparent one.
           { itemId: "red", x: 1.7, y: 0.2, widthIn: 0.6, heightIn: 0.6, rotated: false },
           { itemId: "vector", x: 2, y: 0.5, widthIn: 0.8, heightIn: 0.4, rotated: true },
           { itemId: "glass", x: 1.6, y: 1.2, widthIn: 0.7, heightIn: 1.1, rotated: false },
@@ -733,14 +735,9 @@ describe("renderGangSheet", () => {
       },
       art: { ...sheet.art, glass: { png: await solidPng("#33cc6680", 16, 16) } },
     };
-    const whole = await renderGangSheet(busy);
+    const whole = await renderGangSheet({ ...busy, stripPixels: 1200 * 900 });
     const steps: number[] = [];
-    const strips = await renderGangSheet({
-      ...busy,
-      singlePassMaxPixels: 0,
-      stripPixels: 1200 * 70,
-      onProgress: (f) => steps.push(f),
-    });
+    const strips = await renderGangSheet({ ...busy, stripPixels: 1200 * 70, onProgress: (f) => steps.push(f) });
     expect([strips.widthPx, strips.heightPx]).toEqual([1200, 900]);
     expect(physOf(strips.png)).toEqual({ x: 11811, y: 11811, unit: 1 });
     const a = await rawOf(whole.png);
@@ -756,14 +753,66 @@ describe("renderGangSheet", () => {
     }
     expect(worst).toBeLessThanOrEqual(1);
     expect(mismatchedOpaque).toBe(0);
+    // The overlap: the later piece (vector, blue) is on top where both lie, as sharp composites in order.
+    expect(isBlue(pixel(b, 2.1 * 300, 0.6 * 300))).toBe(true);
     expect(pixel(b, (1.6 + 0.35) * 300, (1.2 + 0.5) * 300)[3]).toBeCloseTo(128, -1);
     expect(steps.length).toBeGreaterThan(5);
     expect(steps.at(-1)).toBe(1);
     for (let i = 1; i < steps.length; i++) expect(steps[i]!).toBeGreaterThanOrEqual(steps[i - 1]!);
   });
 
-  it("guards memory: strips above 400 megapixels, refusal above the hard cap, before any drawing", async () => {
-    expect(SINGLE_PASS_MAX_PIXELS).toBeLessThanOrEqual(400_000_000);
+  it("draws every sheet of an order: a PDF page per sheet at its own length, and a PNG per sheet", async () => {
+    const order = {
+      rollWidthIn: 4,
+      ppi: 100,
+      art: sheet.art,
+      sheets: [
+        { lengthIn: 3, placements: [{ itemId: "red", x: 0.5, y: 0.5, widthIn: 1, heightIn: 1, rotated: false }, { itemId: "red", x: 2, y: 0.5, widthIn: 1, heightIn: 1, rotated: false }] },
+        { lengthIn: 2, placements: [{ itemId: "vector", x: 0, y: 0, widthIn: 2, heightIn: 1, rotated: false }] },
+        { lengthIn: 1.5, placements: [{ itemId: "red", x: 3, y: 0.5, widthIn: 1, heightIn: 1, rotated: false }, { itemId: "halves", x: 0, y: 0, widthIn: 2, heightIn: 1, rotated: false }] },
+      ],
+    };
+    const pdfSteps: number[] = [];
+    const doc = await openPdf(await renderGangSheetPdf({ ...order, onProgress: (f) => pdfSteps.push(f) }));
+    expect(doc.numPages).toBe(3);
+    const drawn: number[] = [];
+    for (let n = 1; n <= 3; n += 1) {
+      const page = await doc.getPage(n);
+      // 4 in × the sheet's length at 72 pt per inch (ISO 32000).
+      expect(page.view).toEqual([0, 0, 288, order.sheets[n - 1]!.lengthIn * 72]);
+      drawn.push((await walk(page)).images.length);
+    }
+    // Every piece on every sheet is drawn: the pieces add up to the order.
+    expect(drawn).toEqual([2, 1, 2]);
+    expect(pdfSteps.at(-1)).toBe(1);
+
+    const pngs = await renderGangSheetPngs(order);
+    expect(pngs).toHaveLength(3);
+    const sizes = await Promise.all(pngs.map(async (png) => { const m = await sharp(png).metadata(); return [m.width, m.height]; }));
+    expect(sizes).toEqual([[400, 300], [400, 200], [400, 150]]);
+    for (const png of pngs) expect(physOf(png)).toEqual({ x: 3937, y: 3937, unit: 1 }); // 100 / 0.0254, rounded
+    const third = await rawOf(pngs[2]!);
+    expect(pixel(third, 350, 100)).toEqual([255, 0, 0, 255]);
+    expect(isRed(pixel(third, 50, 50))).toBe(true);
+    expect(isBlue(pixel(third, 150, 50))).toBe(true);
+    expect(pixel(third, 250, 20)[3]).toBe(0);
+  });
+
+  it("names the sheet when a later sheet has a placement off it", async () => {
+    await expect(
+      renderGangSheetPngs({
+        rollWidthIn: 4,
+        art: sheet.art,
+        sheets: [
+          { lengthIn: 2, placements: [] },
+          { lengthIn: 2, placements: [{ itemId: "red", x: 3.5, y: 0, widthIn: 1, heightIn: 1, rotated: false }] },
+        ],
+      }),
+    ).rejects.toThrow(/Placement 1 \(red\) on sheet 2 runs off the 4 x 2 in sheet/);
+  });
+
+  it("guards memory: strips of a few megapixels, refusal above the hard cap, before any drawing", async () => {
+    expect(STRIP_PIXELS).toBeLessThanOrEqual(4_000_000);
     const steps: number[] = [];
     // 24 × 2,000 in at 300 ppi = 4.32 gigapixels.
     await expect(

@@ -1,28 +1,28 @@
 import "server-only";
 import { once } from "node:events";
+import { availableParallelism } from "node:os";
 import { crc32, createDeflate } from "node:zlib";
-import { PDFDocument, PDFName, PDFNumber, type PDFRef } from "pdf-lib";
+import { PDFDocument, PDFName, PDFNumber, type PDFPage, type PDFRef } from "pdf-lib";
 import sharp, { type Metadata, type OverlayOptions, type Sharp } from "sharp";
 import { PDF_UNITS_PER_INCH } from "@/lib/units";
-import { drawClippedImage, embedRgbaPixels } from "./test-print";
+import { drawClippedImage, embedRgbaPixelsAsync } from "./test-print";
 
 /**
- * Print-ready gang sheet files: the packed sheet composited from the ORIGINAL art at print
- * resolution, as a transparent PNG (pHYs = ppi, W3C PNG specification) and as a PDF of the
- * same sheet at true size (one page, roll width × sheet length at 72 pt per inch, ISO 32000).
+ * Print-ready gang sheet files: every packed sheet composited from the ORIGINAL art at print
+ * resolution, as one transparent PNG per sheet (pHYs = ppi, W3C PNG specification) and as one
+ * PDF with a page per sheet at true size (roll width × sheet length at 72 pt per inch, ISO 32000).
  *
  * Coordinates are inches from the sheet's top-left, x across the roll, y down its length,
  * as `packGangSheet` lays them out. A placement's width × height is as laid on the sheet;
  * `rotated` means the piece's own art is turned 90° clockwise to get there.
  *
- * Memory: each distinct piece (item, pixel size, turn) is decoded once as RGBA. Sheets up to
- * SINGLE_PASS_MAX_PIXELS go through one sharp composite, which libvips streams to the PNG
- * encoder. Bigger sheets are drawn in horizontal strips fed to a streaming PNG encoder, with
- * piece rasters dropped once the strips have passed them: in a strip where no pieces touch
- * (the packer keeps a gap between them) each piece's rows are copied as they are, otherwise
- * sharp composites the strip. The two paths agree exactly on opaque and fully transparent
- * pixels; sharp's compositing may move a half-transparent pixel by 1/255. Sheets over
- * MAX_SHEET_PIXELS are refused.
+ * Speed and memory: each distinct piece (item, pixel size, turn) is drawn once as RGBA for the
+ * whole order and shared by every sheet; in the PDF it is one image drawn on every page that
+ * holds it. PNG sheets are written in horizontal strips straight into zlib (filter type None,
+ * a fast level), several sheets at once on the thread pool, so no sheet is ever held whole as
+ * pixels. In a strip where no pieces touch (the packer keeps a gap between them) each piece's
+ * rows are copied as they are; otherwise sharp composites the strip. A piece's raster is
+ * dropped once every sheet that uses it is written. Sheets over MAX_SHEET_PIXELS are refused.
  */
 
 export type GangArt = { png: Buffer } | { svg: string };
@@ -36,8 +36,13 @@ export interface GangSheetPlacementInput {
   rotated: boolean;
 }
 
-export interface RenderGangSheetInput {
-  sheet: { lengthIn: number; placements: GangSheetPlacementInput[] };
+export interface GangSheetLayout {
+  lengthIn: number;
+  placements: GangSheetPlacementInput[];
+}
+
+export interface RenderGangSheetsInput {
+  sheets: GangSheetLayout[];
   rollWidthIn: number;
   /** Print resolution, pixels per inch; default DEFAULT_GANG_PPI. */
   ppi?: number;
@@ -45,10 +50,13 @@ export interface RenderGangSheetInput {
   art: Record<string, GangArt>;
   /** Called with 0…1 as the work goes on, ending with 1. */
   onProgress?: (fraction: number) => void;
-  /** Sheets with more pixels than this are drawn in strips; default SINGLE_PASS_MAX_PIXELS (a tuning knob for tests). */
-  singlePassMaxPixels?: number;
-  /** Pixels per strip in strip mode; default STRIP_PIXELS (a tuning knob for tests). */
+  /** Pixels per strip when writing PNG sheets; default STRIP_PIXELS (a tuning knob for tests). */
   stripPixels?: number;
+}
+
+/** One sheet, both files: kept for callers and tests that want a single sheet. */
+export interface RenderGangSheetInput extends Omit<RenderGangSheetsInput, "sheets"> {
+  sheet: GangSheetLayout;
 }
 
 export interface RenderGangSheetResult {
@@ -62,12 +70,14 @@ export interface RenderGangSheetResult {
 export const DEFAULT_GANG_PPI = 300;
 /** Highest ppi we render at (our own bound; DTF printers do not resolve more). */
 export const MAX_GANG_PPI = 1200;
-/** Above this the sheet is drawn in strips (our own bound, 400 megapixels = 1.6 GB of RGBA if held whole). */
-export const SINGLE_PASS_MAX_PIXELS = 400_000_000;
 /** Largest sheet we render at all (our own bound; keeps the PNG under Node's 4 GB buffer limit even for noise). */
 export const MAX_SHEET_PIXELS = 900_000_000;
-/** Pixels per strip in strip mode (our own bound, 128 MB of RGBA). */
-export const STRIP_PIXELS = 32_000_000;
+/** Pixels per strip when writing a PNG (our own bound, 8 MB of RGBA: small enough to stay in cache-friendly chunks). */
+export const STRIP_PIXELS = 2_000_000;
+/** zlib level for PNG sheets: 3 is as fast as 1 on flat art and smaller (measured in `npm run bench`). */
+const PNG_ZLIB_LEVEL = 3;
+/** zlib level for the PDF's images (each distinct piece once, so a better ratio costs little). */
+const PDF_ZLIB_LEVEL = 6;
 /** Largest source raster we decode (our own bound, the same as the upload pixel cap times two). */
 const MAX_SOURCE_PIXELS = 200_000_000;
 /** ISO 32000-1 Annex C: page sides beyond 14,400 default units need UserUnit. */
@@ -171,7 +181,189 @@ function intersects(a: PixelRect, b: PixelRect): boolean {
 }
 
 // ---------------------------------------------------------------------------------------
-// Streaming PNG encoder (strip mode): W3C PNG, 8-bit RGBA, filter type 1 (Sub) on every row.
+// Sheets checked and laid out in pixels
+
+interface SheetPixels {
+  number: number;
+  lengthIn: number;
+  widthPx: number;
+  heightPx: number;
+  jobs: Job[];
+}
+
+interface Prepared {
+  ppi: number;
+  rollWidthIn: number;
+  sheets: SheetPixels[];
+}
+
+function prepare(input: RenderGangSheetsInput): Prepared {
+  const ppi = input.ppi ?? DEFAULT_GANG_PPI;
+  requirePositive(ppi, "The resolution (ppi)");
+  if (ppi > MAX_GANG_PPI)
+    throw new RangeError(`The resolution must be at most ${MAX_GANG_PPI} ppi (got ${ppi}).`);
+  requirePositive(input.rollWidthIn, "The roll width");
+  if (input.sheets.length === 0) throw new RangeError("There are no sheets to draw.");
+  const several = input.sheets.length > 1;
+  const sheets = input.sheets.map((sheet, s): SheetPixels => {
+    const where = several ? ` on sheet ${s + 1}` : "";
+    requirePositive(sheet.lengthIn, `The length of sheet ${s + 1}`);
+    const widthPx = Math.round(input.rollWidthIn * ppi);
+    const heightPx = Math.round(sheet.lengthIn * ppi);
+    if (widthPx < 1 || heightPx < 1)
+      throw new RangeError("The sheet is smaller than one pixel at this resolution.");
+    const total = widthPx * heightPx;
+    if (total > MAX_SHEET_PIXELS) {
+      throw new RangeError(
+        `${several ? `Sheet ${s + 1}` : "This sheet"} would be ${widthPx.toLocaleString("en-US")} x ${heightPx.toLocaleString("en-US")} px (${Math.round(total / 1e6)} megapixels), over the ${MAX_SHEET_PIXELS / 1e6} megapixel limit. Split it into shorter sheets or lower the resolution.`,
+      );
+    }
+    const jobs = sheet.placements.map((p, index): Job => {
+      const name = `Placement ${index + 1} (${p.itemId})${where}`;
+      requirePositive(p.widthIn, `The width of placement ${index + 1} (${p.itemId})${where}`);
+      requirePositive(p.heightIn, `The height of placement ${index + 1} (${p.itemId})${where}`);
+      if (!Number.isFinite(p.x) || !Number.isFinite(p.y)) throw new RangeError(`${name} has no position.`);
+      if (
+        p.x < -EDGE_EPS ||
+        p.y < -EDGE_EPS ||
+        p.x + p.widthIn > input.rollWidthIn + EDGE_EPS ||
+        p.y + p.heightIn > sheet.lengthIn + EDGE_EPS
+      ) {
+        throw new RangeError(`${name} runs off the ${input.rollWidthIn} x ${sheet.lengthIn} in sheet.`);
+      }
+      if (!Object.hasOwn(input.art, p.itemId)) throw new Error(`No art was supplied for item "${p.itemId}".`);
+      const rect = pixelRect(p, ppi, widthPx, heightPx);
+      return {
+        index,
+        key: `${p.itemId}\u0000${rect.width}x${rect.height}\u0000${p.rotated ? 1 : 0}`,
+        itemId: p.itemId,
+        rotated: p.rotated,
+        rect,
+        inches: p,
+      };
+    });
+    return { number: s + 1, lengthIn: sheet.lengthIn, widthPx, heightPx, jobs };
+  });
+  return { ppi, rollWidthIn: input.rollWidthIn, sheets };
+}
+
+/**
+ * Distinct piece rasters for the whole order: each drawn once, on first use, and dropped when
+ * the last sheet that holds it says it is done with it.
+ */
+class PieceStore {
+  private readonly pending = new Map<string, Promise<Buffer>>();
+  private readonly users = new Map<string, number>();
+
+  constructor(
+    private readonly art: Record<string, GangArt>,
+    sheets: SheetPixels[],
+  ) {
+    for (const sheet of sheets)
+      for (const key of new Set(sheet.jobs.map((j) => j.key))) this.users.set(key, (this.users.get(key) ?? 0) + 1);
+  }
+
+  get(job: Job): Promise<Buffer> {
+    let raster = this.pending.get(job.key);
+    if (!raster) {
+      raster = pieceRaster(this.art[job.itemId]!, job);
+      this.pending.set(job.key, raster);
+    }
+    return raster;
+  }
+
+  /** The sheet no longer needs its pieces. */
+  release(sheet: SheetPixels): void {
+    for (const key of new Set(sheet.jobs.map((j) => j.key))) {
+      const left = (this.users.get(key) ?? 1) - 1;
+      this.users.set(key, left);
+      if (left <= 0) this.pending.delete(key);
+    }
+  }
+}
+
+/** Runs `work` over `items` with at most `limit` at once, in order of start. */
+async function eachLimited<T>(items: readonly T[], limit: number, work: (item: T, index: number) => Promise<void>): Promise<void> {
+  let next = 0;
+  const runners = Array.from({ length: Math.max(1, Math.min(limit, items.length)) }, async () => {
+    while (next < items.length) {
+      const i = next;
+      next += 1;
+      await work(items[i]!, i);
+    }
+  });
+  await Promise.all(runners);
+}
+
+/** Sheets or pieces worked on at once: the thread pool does the heavy part, so two per core. */
+const PARALLEL = Math.max(2, Math.min(8, 2 * availableParallelism()));
+
+function progressReporter(onProgress: ((f: number) => void) | undefined) {
+  let last = 0;
+  return (f: number) => {
+    const value = Math.min(1, Math.max(last, f));
+    last = value;
+    onProgress?.(value);
+  };
+}
+
+// ---------------------------------------------------------------------------------------
+// PDF: a page per sheet
+
+/**
+ * The whole order as one PDF: a page per sheet at true size, in order. Each distinct piece is
+ * one image, drawn on every page where it lies.
+ */
+export async function renderGangSheetPdf(input: RenderGangSheetsInput): Promise<Uint8Array> {
+  const prepared = prepare(input);
+  const progress = progressReporter(input.onProgress);
+  progress(0);
+  const doc = await PDFDocument.create();
+  doc.setCreator("Chalkline");
+  doc.setProducer("Chalkline");
+  const count = prepared.sheets.length;
+  doc.setTitle(`Gang sheet${count > 1 ? `s, ${count} sheets` : ""} on a ${prepared.rollWidthIn} in roll`);
+
+  // Every distinct piece, drawn and compressed once, several at a time on the thread pool.
+  const distinct = new Map<string, Job>();
+  for (const sheet of prepared.sheets) for (const job of sheet.jobs) if (!distinct.has(job.key)) distinct.set(job.key, job);
+  const pieces = [...distinct.values()];
+  const weight = pieces.reduce((n, j) => n + j.rect.width * j.rect.height, 0) || 1;
+  const refs = new Map<string, PDFRef>();
+  let done = 0;
+  await eachLimited(pieces, PARALLEL, async (job) => {
+    const raster = await pieceRaster(input.art[job.itemId]!, job);
+    refs.set(job.key, await embedRgbaPixelsAsync(doc, raster, job.rect.width, job.rect.height, PDF_ZLIB_LEVEL));
+    done += job.rect.width * job.rect.height;
+    progress((0.85 * done) / weight);
+  });
+
+  for (const sheet of prepared.sheets) {
+    const trueW = prepared.rollWidthIn * PDF_UNITS_PER_INCH;
+    const trueH = sheet.lengthIn * PDF_UNITS_PER_INCH;
+    const userUnit = Math.max(1, Math.ceil(Math.max(trueW, trueH) / MAX_PAGE_UNITS));
+    const page: PDFPage = doc.addPage([trueW / userUnit, trueH / userUnit]);
+    if (userUnit > 1) page.node.set(PDFName.of("UserUnit"), PDFNumber.of(userUnit));
+    const unit = PDF_UNITS_PER_INCH / userUnit;
+    const pageH = trueH / userUnit;
+    for (const job of sheet.jobs) {
+      const { x, y, widthIn, heightIn } = job.inches;
+      drawClippedImage(
+        page,
+        refs.get(job.key)!,
+        { a: widthIn * unit, d: heightIn * unit, e: x * unit, f: pageH - (y + heightIn) * unit },
+        { x: x * unit, y: pageH - (y + heightIn) * unit, width: widthIn * unit, height: heightIn * unit },
+      );
+    }
+  }
+  progress(0.9);
+  const pdf = await doc.save({ useObjectStreams: false });
+  progress(1);
+  return pdf;
+}
+
+// ---------------------------------------------------------------------------------------
+// PNG: a file per sheet, written in strips
 
 function chunk(type: string, data: Buffer): Buffer {
   const head = Buffer.alloc(8);
@@ -182,8 +374,9 @@ function chunk(type: string, data: Buffer): Buffer {
   return Buffer.concat([head, data, crc]);
 }
 
+/** W3C PNG, 8-bit RGBA, filter type 0 (None) on every row, zlib on the thread pool. */
 class StripPngEncoder {
-  private readonly deflate = createDeflate({ level: 6, chunkSize: 1 << 20 });
+  private readonly deflate = createDeflate({ level: PNG_ZLIB_LEVEL, chunkSize: 1 << 20 });
   private readonly compressed: Buffer[] = [];
 
   constructor(
@@ -194,19 +387,9 @@ class StripPngEncoder {
     this.deflate.on("data", (b: Buffer) => this.compressed.push(b));
   }
 
-  /** Adds whole rows of RGBA pixels, top to bottom. */
-  async write(rgba: Buffer, rows: number): Promise<void> {
-    const stride = this.width * 4;
-    const out = Buffer.allocUnsafe(rows * (stride + 1));
-    for (let r = 0; r < rows; r += 1) {
-      // Sub filter: each byte minus the same byte of the pixel to its left, mod 256.
-      const src = r * stride;
-      const dst = r * (stride + 1);
-      out[dst] = 1;
-      for (let i = 0; i < 4; i += 1) out[dst + 1 + i] = rgba[src + i]!;
-      for (let i = 4; i < stride; i += 1) out[dst + 1 + i] = (rgba[src + i]! - rgba[src + i - 4]!) & 255;
-    }
-    if (!this.deflate.write(out)) await once(this.deflate, "drain");
+  /** Adds rows already laid out as PNG scanlines: a filter byte (0) then width × 4 bytes each. */
+  async write(scanlines: Buffer): Promise<void> {
+    if (!this.deflate.write(scanlines)) await once(this.deflate, "drain");
   }
 
   async finish(): Promise<Buffer> {
@@ -239,183 +422,98 @@ class StripPngEncoder {
   }
 }
 
-// ---------------------------------------------------------------------------------------
-
-/**
- * Renders a packed gang sheet at print resolution. Throws RangeError for bad sizes, a
- * placement off the sheet, or a sheet over MAX_SHEET_PIXELS, and Error for missing or
- * unreadable art.
- */
-export async function renderGangSheet(input: RenderGangSheetInput): Promise<RenderGangSheetResult> {
-  const ppi = input.ppi ?? DEFAULT_GANG_PPI;
-  requirePositive(ppi, "The resolution (ppi)");
-  if (ppi > MAX_GANG_PPI)
-    throw new RangeError(`The resolution must be at most ${MAX_GANG_PPI} ppi (got ${ppi}).`);
-  requirePositive(input.rollWidthIn, "The roll width");
-  requirePositive(input.sheet.lengthIn, "The sheet length");
-  const widthPx = Math.round(input.rollWidthIn * ppi);
-  const heightPx = Math.round(input.sheet.lengthIn * ppi);
-  if (widthPx < 1 || heightPx < 1)
-    throw new RangeError("The sheet is smaller than one pixel at this resolution.");
-  const total = widthPx * heightPx;
-  if (total > MAX_SHEET_PIXELS) {
-    throw new RangeError(
-      `This sheet would be ${widthPx.toLocaleString("en-US")} x ${heightPx.toLocaleString("en-US")} px (${Math.round(total / 1e6)} megapixels), over the ${MAX_SHEET_PIXELS / 1e6} megapixel limit. Split it into shorter sheets or lower the resolution.`,
-    );
-  }
-
-  const jobs: Job[] = input.sheet.placements.map((p, index) => {
-    requirePositive(p.widthIn, `The width of placement ${index + 1} (${p.itemId})`);
-    requirePositive(p.heightIn, `The height of placement ${index + 1} (${p.itemId})`);
-    if (!Number.isFinite(p.x) || !Number.isFinite(p.y))
-      throw new RangeError(`Placement ${index + 1} (${p.itemId}) has no position.`);
-    if (
-      p.x < -EDGE_EPS ||
-      p.y < -EDGE_EPS ||
-      p.x + p.widthIn > input.rollWidthIn + EDGE_EPS ||
-      p.y + p.heightIn > input.sheet.lengthIn + EDGE_EPS
-    ) {
-      throw new RangeError(
-        `Placement ${index + 1} (${p.itemId}) runs off the ${input.rollWidthIn} x ${input.sheet.lengthIn} in sheet.`,
-      );
+async function sheetPng(sheet: SheetPixels, ppi: number, store: PieceStore, stripPixels: number, onRows: (rows: number) => void): Promise<Buffer> {
+  const { widthPx, heightPx, jobs } = sheet;
+  const stride = widthPx * 4;
+  const line = stride + 1;
+  const encoder = new StripPngEncoder(widthPx, heightPx, ppi);
+  const stripRows = Math.max(1, Math.floor(stripPixels / widthPx));
+  // Pieces that touch another are composited by sharp; the rest are copied row by row.
+  const touching = new Set<Job>();
+  for (let i = 0; i < jobs.length; i += 1)
+    for (let j = i + 1; j < jobs.length; j += 1)
+      if (intersects(jobs[i]!.rect, jobs[j]!.rect)) {
+        touching.add(jobs[i]!);
+        touching.add(jobs[j]!);
+      }
+  const byTop = [...jobs].sort((a, b) => a.rect.top - b.rect.top);
+  let first = 0;
+  for (let y0 = 0; y0 < heightPx; y0 += stripRows) {
+    const rows = Math.min(stripRows, heightPx - y0);
+    const y1 = y0 + rows;
+    while (first < byTop.length && byTop[first]!.rect.top + byTop[first]!.rect.height <= y0) first += 1;
+    const here: Job[] = [];
+    for (let k = first; k < byTop.length && byTop[k]!.rect.top < y1; k += 1) {
+      const job = byTop[k]!;
+      if (job.rect.top + job.rect.height > y0) here.push(job);
     }
-    if (!Object.hasOwn(input.art, p.itemId)) throw new Error(`No art was supplied for item "${p.itemId}".`);
-    const rect = pixelRect(p, ppi, widthPx, heightPx);
-    return {
-      index,
-      key: `${p.itemId}\u0000${rect.width}x${rect.height}\u0000${p.rotated ? 1 : 0}`,
-      itemId: p.itemId,
-      rotated: p.rotated,
-      rect,
-      inches: p,
-    };
-  });
-
-  const progress = (f: number) => input.onProgress?.(Math.min(1, Math.max(0, f)));
-  progress(0);
-
-  // The PDF: one page at true size, each distinct piece embedded once and drawn where it lies.
-  const doc = await PDFDocument.create();
-  doc.setCreator("Chalkline");
-  doc.setProducer("Chalkline");
-  doc.setTitle(`Gang sheet ${input.rollWidthIn} x ${Number(input.sheet.lengthIn.toFixed(3))} in`);
-  const trueW = input.rollWidthIn * PDF_UNITS_PER_INCH;
-  const trueH = input.sheet.lengthIn * PDF_UNITS_PER_INCH;
-  const userUnit = Math.max(1, Math.ceil(Math.max(trueW, trueH) / MAX_PAGE_UNITS));
-  const page = doc.addPage([trueW / userUnit, trueH / userUnit]);
-  if (userUnit > 1) page.node.set(PDFName.of("UserUnit"), PDFNumber.of(userUnit));
-  const unit = PDF_UNITS_PER_INCH / userUnit;
-  const pageH = trueH / userUnit;
-  const drawInPdf = (job: Job, ref: PDFRef) => {
-    const { x, y, widthIn, heightIn } = job.inches;
-    drawClippedImage(
-      page,
-      ref,
-      { a: widthIn * unit, d: heightIn * unit, e: x * unit, f: pageH - (y + heightIn) * unit },
-      { x: x * unit, y: pageH - (y + heightIn) * unit, width: widthIn * unit, height: heightIn * unit },
+    // A fresh buffer each strip: zlib may still be reading the last one.
+    const scanlines = Buffer.alloc(rows * line);
+    const parts = await Promise.all(
+      here.map(async (job) => ({ job, raster: await store.get(job), r0: Math.max(y0, job.rect.top), r1: Math.min(y1, job.rect.top + job.rect.height) })),
     );
-  };
-
-  const refs = new Map<string, PDFRef>();
-  const rasters = new Map<string, Buffer>();
-  const singlePass = total <= (input.singlePassMaxPixels ?? SINGLE_PASS_MAX_PIXELS);
-  let png: Buffer;
-
-  if (singlePass) {
-    const distinct = new Map<string, Job>();
-    for (const job of jobs) if (!distinct.has(job.key)) distinct.set(job.key, job);
-    let done = 0;
-    for (const [key, job] of distinct) {
-      const raster = await pieceRaster(input.art[job.itemId]!, job);
-      rasters.set(key, raster);
-      refs.set(key, embedRgbaPixels(doc, raster, job.rect.width, job.rect.height));
-      done += 1;
-      progress((0.6 * done) / distinct.size);
-    }
-    png = await sharp({
-      create: { width: widthPx, height: heightPx, channels: 4, background: { r: 0, g: 0, b: 0, alpha: 0 } },
-      limitInputPixels: false,
-    })
-      .composite(
-        jobs.map((job) => ({
-          input: rasters.get(job.key)!,
-          raw: { width: job.rect.width, height: job.rect.height, channels: 4 as const },
+    if (parts.some((p) => touching.has(p.job))) {
+      const overlays: OverlayOptions[] = parts.map(({ job, raster, r0, r1 }) => {
+        const pieceStride = job.rect.width * 4;
+        return {
+          input: raster.subarray((r0 - job.rect.top) * pieceStride, (r1 - job.rect.top) * pieceStride),
+          raw: { width: job.rect.width, height: r1 - r0, channels: 4 },
           left: job.rect.left,
-          top: job.rect.top,
-        })),
-      )
-      .png({ compressionLevel: 6 })
-      .withMetadata({ density: ppi })
-      .toBuffer();
-    rasters.clear();
-    progress(0.9);
-  } else {
-    const encoder = new StripPngEncoder(widthPx, heightPx, ppi);
-    const stripRows = Math.max(1, Math.floor((input.stripPixels ?? STRIP_PIXELS) / widthPx));
-    // Last strip each distinct piece is needed in, so its raster can be dropped after it.
-    const lastRow = new Map<string, number>();
-    for (const job of jobs)
-      lastRow.set(job.key, Math.max(lastRow.get(job.key) ?? 0, job.rect.top + job.rect.height));
-    for (let y0 = 0; y0 < heightPx; y0 += stripRows) {
-      const rows = Math.min(stripRows, heightPx - y0);
-      const y1 = y0 + rows;
-      const here = jobs.filter((j) => j.rect.top < y1 && j.rect.top + j.rect.height > y0);
-      const parts: Array<{ job: Job; raster: Buffer; r0: number; r1: number }> = [];
-      for (const job of here) {
-        let raster = rasters.get(job.key);
-        if (!raster) {
-          raster = await pieceRaster(input.art[job.itemId]!, job);
-          rasters.set(job.key, raster);
-          refs.set(job.key, embedRgbaPixels(doc, raster, job.rect.width, job.rect.height));
+          top: r0 - y0,
+        };
+      });
+      const strip = await sharp({
+        create: { width: widthPx, height: rows, channels: 4, background: { r: 0, g: 0, b: 0, alpha: 0 } },
+        limitInputPixels: false,
+      })
+        .composite(overlays)
+        .raw()
+        .toBuffer();
+      for (let r = 0; r < rows; r += 1) strip.copy(scanlines, r * line + 1, r * stride, (r + 1) * stride);
+    } else {
+      // Pieces that do not touch, over a transparent sheet: the result is each piece's own pixels.
+      for (const { job, raster, r0, r1 } of parts) {
+        const pieceStride = job.rect.width * 4;
+        for (let r = r0; r < r1; r += 1) {
+          const from = (r - job.rect.top) * pieceStride;
+          raster.copy(scanlines, (r - y0) * line + 1 + job.rect.left * 4, from, from + pieceStride);
         }
-        parts.push({
-          job,
-          raster,
-          r0: Math.max(y0, job.rect.top),
-          r1: Math.min(y1, job.rect.top + job.rect.height),
-        });
       }
-      const overlapping = parts.some((p, i) =>
-        parts.some((q, j) => j > i && intersects(p.job.rect, q.job.rect)),
-      );
-      let strip: Buffer;
-      if (!overlapping) {
-        // Pieces that do not touch, over a transparent sheet: the result is each piece's own pixels, so copy rows.
-        strip = Buffer.alloc(widthPx * rows * 4);
-        for (const { job, raster, r0, r1 } of parts) {
-          const stride = job.rect.width * 4;
-          for (let r = r0; r < r1; r += 1) {
-            const from = (r - job.rect.top) * stride;
-            raster.copy(strip, ((r - y0) * widthPx + job.rect.left) * 4, from, from + stride);
-          }
-        }
-      } else {
-        const overlays: OverlayOptions[] = parts.map(({ job, raster, r0, r1 }) => {
-          const stride = job.rect.width * 4;
-          return {
-            input: raster.subarray((r0 - job.rect.top) * stride, (r1 - job.rect.top) * stride),
-            raw: { width: job.rect.width, height: r1 - r0, channels: 4 },
-            left: job.rect.left,
-            top: r0 - y0,
-          };
-        });
-        strip = await sharp({
-          create: { width: widthPx, height: rows, channels: 4, background: { r: 0, g: 0, b: 0, alpha: 0 } },
-          limitInputPixels: false,
-        })
-          .composite(overlays)
-          .raw()
-          .toBuffer();
-      }
-      await encoder.write(strip, rows);
-      for (const [key, last] of lastRow) if (last <= y1) rasters.delete(key);
-      progress((0.9 * y1) / heightPx);
     }
-    png = await encoder.finish();
+    await encoder.write(scanlines);
+    onRows(rows);
   }
+  return encoder.finish();
+}
 
-  for (const job of jobs) drawInPdf(job, refs.get(job.key)!);
-  const pdf = await doc.save();
+/** One PNG per sheet, in order, several sheets at once. */
+export async function renderGangSheetPngs(input: RenderGangSheetsInput): Promise<Buffer[]> {
+  const prepared = prepare(input);
+  const progress = progressReporter(input.onProgress);
+  progress(0);
+  const store = new PieceStore(input.art, prepared.sheets);
+  const totalRows = prepared.sheets.reduce((n, s) => n + s.heightPx, 0);
+  let rowsDone = 0;
+  const out: Buffer[] = new Array(prepared.sheets.length);
+  await eachLimited(prepared.sheets, PARALLEL, async (sheet, i) => {
+    out[i] = await sheetPng(sheet, prepared.ppi, store, input.stripPixels ?? STRIP_PIXELS, (rows) => {
+      rowsDone += rows;
+      progress((0.98 * rowsDone) / totalRows);
+    });
+    store.release(sheet);
+  });
   progress(1);
-  return { png, pdf, widthPx, heightPx };
+  return out;
+}
+
+/** One sheet as both files (the PNG and a one-page PDF). */
+export async function renderGangSheet(input: RenderGangSheetInput): Promise<RenderGangSheetResult> {
+  const { sheet, onProgress, ...rest } = input;
+  const prepared = prepare({ ...rest, sheets: [sheet] });
+  const both = { ...rest, sheets: [sheet] };
+  const [pngs, pdf] = [
+    await renderGangSheetPngs({ ...both, onProgress: (f) => onProgress?.(f * 0.7) }),
+    await renderGangSheetPdf({ ...both, onProgress: (f) => onProgress?.(0.7 + f * 0.3) }),
+  ];
+  return { png: pngs[0]!, pdf, widthPx: prepared.sheets[0]!.widthPx, heightPx: prepared.sheets[0]!.heightPx };
 }

@@ -1,5 +1,6 @@
 import "server-only";
-import { deflateSync } from "node:zlib";
+import { promisify } from "node:util";
+import { deflate, deflateSync } from "node:zlib";
 import {
   PDFDocument,
   StandardFonts,
@@ -93,12 +94,8 @@ const COLLAR_COLOUR = rgb(0.85, 0.15, 0.15);
 // ---------------------------------------------------------------------------------------
 // Images
 
-/**
- * Puts 8-bit RGBA pixels (straight alpha, sRGB) into the PDF as an image XObject, colour in
- * one Flate stream and alpha as a soft mask (left out when every pixel is opaque). Deflate is
- * Node's own zlib, so print-size rasters embed quickly.
- */
-export function embedRgbaPixels(doc: PDFDocument, rgba: Uint8Array, width: number, height: number): PDFRef {
+/** Splits 8-bit RGBA into RGB and alpha planes; alpha is null when every pixel is opaque. */
+function splitRgba(rgba: Uint8Array, width: number, height: number): { colour: Buffer; alpha: Buffer | null } {
   const n = width * height;
   if (
     !Number.isInteger(width) ||
@@ -120,6 +117,11 @@ export function embedRgbaPixels(doc: PDFDocument, rgba: Uint8Array, width: numbe
     alpha[i] = a;
     if (a !== 255) opaque = false;
   }
+  return { colour, alpha: opaque ? null : alpha };
+}
+
+/** Registers Flate-compressed RGB (and alpha as its soft mask) as an image XObject. */
+function registerImage(doc: PDFDocument, width: number, height: number, colour: Buffer, alpha: Buffer | null): PDFRef {
   const ctx = doc.context;
   const base = {
     Type: "XObject",
@@ -129,12 +131,30 @@ export function embedRgbaPixels(doc: PDFDocument, rgba: Uint8Array, width: numbe
     BitsPerComponent: 8,
     Filter: "FlateDecode",
   };
-  const smask = opaque
-    ? undefined
-    : ctx.register(ctx.stream(deflateSync(alpha), { ...base, ColorSpace: "DeviceGray" }));
-  return ctx.register(
-    ctx.stream(deflateSync(colour), { ...base, ColorSpace: "DeviceRGB", ...(smask ? { SMask: smask } : {}) }),
-  );
+  const smask = alpha ? ctx.register(ctx.stream(alpha, { ...base, ColorSpace: "DeviceGray" })) : undefined;
+  return ctx.register(ctx.stream(colour, { ...base, ColorSpace: "DeviceRGB", ...(smask ? { SMask: smask } : {}) }));
+}
+
+/**
+ * Puts 8-bit RGBA pixels (straight alpha, sRGB) into the PDF as an image XObject, colour in
+ * one Flate stream and alpha as a soft mask (ISO 32000 §11.6.5.3; left out when every pixel is
+ * opaque). Deflate is Node's own zlib, so print-size rasters embed quickly.
+ */
+export function embedRgbaPixels(doc: PDFDocument, rgba: Uint8Array, width: number, height: number): PDFRef {
+  const { colour, alpha } = splitRgba(rgba, width, height);
+  return registerImage(doc, width, height, deflateSync(colour), alpha ? deflateSync(alpha) : null);
+}
+
+const deflateAsync = promisify(deflate);
+
+/**
+ * As embedRgbaPixels, with the compression on libuv's thread pool, so several images (and the
+ * event loop) go on at once. `level` is zlib's 1–9 (default 6).
+ */
+export async function embedRgbaPixelsAsync(doc: PDFDocument, rgba: Uint8Array, width: number, height: number, level = 6): Promise<PDFRef> {
+  const { colour, alpha } = splitRgba(rgba, width, height);
+  const [c, a] = await Promise.all([deflateAsync(colour, { level }), alpha ? deflateAsync(alpha, { level }) : Promise.resolve(null)]);
+  return registerImage(doc, width, height, c, a);
 }
 
 /** Draws an image XObject with the matrix [a 0 0 d e f], clipped to a rectangle (all in points, PDF y up). */
