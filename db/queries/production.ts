@@ -1,7 +1,7 @@
 import "server-only";
 import { and, asc, desc, eq, sql } from "drizzle-orm";
 import { db } from "../client";
-import { exportJobs, jobGradings, jobSizes, jobs, type ExportJob } from "../schema";
+import { exportFiles, exportJobs, jobGradings, jobSizes, jobs, type ExportJob, type ExportSummaryFacts } from "../schema";
 
 export async function listJobSizes({ jobId }: { jobId: string }) {
   return db.select().from(jobSizes).where(eq(jobSizes.jobId, jobId)).orderBy(asc(jobSizes.sortOrder));
@@ -38,6 +38,8 @@ const exportColumns = {
   message: exportJobs.message,
   fileName: exportJobs.fileName,
   mime: exportJobs.mime,
+  fileCount: exportJobs.fileCount,
+  summary: exportJobs.summary,
   attempts: exportJobs.attempts,
   createdAt: exportJobs.createdAt,
   finishedAt: exportJobs.finishedAt,
@@ -64,21 +66,65 @@ export async function listExports({ shopId, jobId }: { shopId: string; jobId: st
   return db.select(exportColumns).from(exportJobs).where(and(eq(exportJobs.shopId, shopId), eq(exportJobs.jobId, jobId))).orderBy(desc(exportJobs.createdAt)).limit(20);
 }
 
-export async function exportFile({ shopId, exportId }: { shopId: string; exportId: string }) {
+/** File `n` (1-based) of a finished export in the shop, or undefined when there is none. */
+export async function exportFile({ shopId, exportId, n = 1 }: { shopId: string; exportId: string; n?: number }) {
   const [row] = await db
-    .select({ result: exportJobs.result, fileName: exportJobs.fileName, mime: exportJobs.mime, state: exportJobs.state })
+    .select({ result: n === 1 ? exportJobs.result : sql<Buffer | null>`null`, fileName: exportJobs.fileName, mime: exportJobs.mime, state: exportJobs.state, fileCount: exportJobs.fileCount })
     .from(exportJobs)
     .where(and(eq(exportJobs.id, exportId), eq(exportJobs.shopId, shopId)))
     .limit(1);
-  return row;
+  if (!row || n === 1) return row;
+  if (n > row.fileCount) return undefined;
+  const [file] = await db
+    .select({ result: exportFiles.content, fileName: exportFiles.fileName, mime: exportFiles.mime })
+    .from(exportFiles)
+    .where(and(eq(exportFiles.exportId, exportId), eq(exportFiles.position, n)))
+    .limit(1);
+  return file ? { ...file, state: row.state, fileCount: row.fileCount } : undefined;
 }
 
-export async function markExport(exportId: string, patch: Partial<Pick<ExportJob, "state" | "progress" | "message" | "fileName" | "mime" | "result" | "finishedAt">> & { bumpAttempts?: boolean }) {
+/** Names and sizes of every file of an export, in order (file 1 first). */
+export async function listExportFiles({ shopId, exportId }: { shopId: string; exportId: string }) {
+  const [first] = await db
+    .select({ fileName: exportJobs.fileName, bytes: sql<number | null>`octet_length(${exportJobs.result})`, state: exportJobs.state })
+    .from(exportJobs)
+    .where(and(eq(exportJobs.id, exportId), eq(exportJobs.shopId, shopId)))
+    .limit(1);
+  if (!first || first.state !== "done" || !first.fileName) return [];
+  const more = await db
+    .select({ n: exportFiles.position, fileName: exportFiles.fileName, bytes: exportFiles.bytes })
+    .from(exportFiles)
+    .where(eq(exportFiles.exportId, exportId))
+    .orderBy(asc(exportFiles.position));
+  return [{ n: 1, fileName: first.fileName, bytes: Number(first.bytes ?? 0) }, ...more];
+}
+
+type ExportPatch = Partial<Pick<ExportJob, "state" | "progress" | "message" | "fileName" | "mime" | "result" | "finishedAt">> & { bumpAttempts?: boolean };
+
+export async function markExport(exportId: string, patch: ExportPatch) {
   const { bumpAttempts, ...rest } = patch;
   await db
     .update(exportJobs)
     .set({ ...rest, ...(bumpAttempts ? { attempts: sql`${exportJobs.attempts} + 1` } : {}) })
     .where(eq(exportJobs.id, exportId));
+}
+
+/**
+ * Finishes an export with all its files in one transaction: file 1 on the export row, the rest
+ * in export_files (any left from an earlier try are replaced), so a reader sees all or none.
+ */
+export async function finishExport(exportId: string, files: Array<{ fileName: string; mime: string; bytes: Buffer }>, summary: ExportSummaryFacts | null = null) {
+  const [first, ...more] = files;
+  if (!first) throw new Error("An export must make at least one file.");
+  await db.transaction(async (tx) => {
+    await tx.delete(exportFiles).where(eq(exportFiles.exportId, exportId));
+    if (more.length > 0)
+      await tx.insert(exportFiles).values(more.map((f, i) => ({ exportId, position: i + 2, fileName: f.fileName, mime: f.mime, bytes: f.bytes.length, content: f.bytes })));
+    await tx
+      .update(exportJobs)
+      .set({ state: "done", progress: 1, fileName: first.fileName, mime: first.mime, result: first.bytes, fileCount: files.length, summary, finishedAt: new Date(), message: null })
+      .where(eq(exportJobs.id, exportId));
+  });
 }
 
 export async function loadExportForWork({ exportId }: { exportId: string }) {

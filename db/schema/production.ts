@@ -37,6 +37,8 @@ export const jobGradings = pgTable(
   (t) => [primaryKey({ columns: [t.jobId, t.placementId] })],
 );
 
+export type ExportSummaryFacts = { rollWidthIn: number; pieces: number; sheetLengthsIn: number[]; totalLengthIn: number; efficiency: number };
+
 /** Heavy exports run by the job worker; the UI follows progress and downloads the result. */
 export const exportJobs = pgTable(
   "export_jobs",
@@ -56,6 +58,10 @@ export const exportJobs = pgTable(
     fileName: text("file_name"),
     mime: text("mime"),
     result: bytea("result"),
+    /** How many files the export made: 1, or one per sheet for a PNG gang sheet (files 2… in export_files). */
+    fileCount: integer("file_count").notNull().default(1),
+    /** What a gang sheet export packed, as made: sheet lengths, pieces, film used and cover. */
+    summary: jsonb("summary").$type<ExportSummaryFacts>(),
     attempts: integer("attempts").notNull().default(0),
     requestedBy: text("requested_by").references(() => users.id, { onDelete: "set null" }),
     createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
@@ -65,3 +71,22 @@ export const exportJobs = pgTable(
 );
 
 export type ExportJob = typeof exportJobs.$inferSelect;
+
+/**
+ * The further files of an export that makes several (a PNG gang sheet gives one file per sheet).
+ * File 1 stays in `export_jobs.result`; files 2… are here, numbered as the page shows them.
+ */
+export const exportFiles = pgTable(
+  "export_files",
+  {
+    exportId: text("export_id")
+      .notNull()
+      .references(() => exportJobs.id, { onDelete: "cascade" }),
+    position: integer("position").notNull(),
+    fileName: text("file_name").notNull(),
+    mime: text("mime").notNull(),
+    bytes: integer("bytes").notNull(),
+    content: bytea("content").notNull(),
+  },
+  (t) => [primaryKey({ columns: [t.exportId, t.position] })],
+);

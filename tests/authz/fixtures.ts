@@ -12,7 +12,7 @@ import { duplicateBlank, findBlank } from "@/db/queries/blanks";
 import { createClient } from "@/db/queries/clients";
 import { createJob, type JobInput } from "@/db/queries/jobs";
 import { acceptQuote, sendQuote } from "@/db/queries/orders";
-import { createExport, markExport } from "@/db/queries/production";
+import { createExport, finishExport } from "@/db/queries/production";
 import { getProofDocument } from "@/db/queries/proofs";
 import { addComment, createShareLink, revokeShareLink, sendRevision } from "@/db/queries/review";
 import { acceptInvitation, createInvitation, createShopWithOwner } from "@/db/queries/shops";
@@ -140,9 +140,11 @@ export async function acceptedQuote(shopId: string, jobId: string, title: string
   return quote;
 }
 
+/** A finished two-sheet PNG gang sheet: file 1 on the export row, file 2 beside it, as the worker leaves them. */
 export async function finishedExport(shopId: string, jobId: string, userId: string): Promise<string> {
-  const id = await createExport({ shopId, jobId, kind: "spec-sheet", params: {}, requestedBy: userId });
-  await markExport(id, { state: "done", progress: 1, fileName: "matrix-spec.pdf", mime: "application/pdf", result: Buffer.from("%PDF-1.4\n% authz matrix\n"), finishedAt: new Date() });
+  const id = await createExport({ shopId, jobId, kind: "gang-sheet-png", params: {}, requestedBy: userId });
+  const png = Buffer.from("iVBORw0KGgoAAAANSUhEUgAAAAEAAAABCAYAAAAfFcSJAAAADUlEQVR42mNk+M9QDwADhgGAWjR9awAAAABJRU5ErkJggg==", "base64");
+  await finishExport(id, [1, 2].map((n) => ({ fileName: `matrix-gang-sheet-${n}-of-2.png`, mime: "image/png", bytes: png })));
   return id;
 }
 

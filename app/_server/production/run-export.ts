@@ -1,6 +1,7 @@
 import "server-only";
 import { findShopById } from "@/db/queries/shops";
-import { loadExportForWork, markExport } from "@/db/queries/production";
+import { finishExport, loadExportForWork, markExport } from "@/db/queries/production";
+import type { ExportSummaryFacts } from "@/db/schema";
 import { listJobDecisions, proofContext } from "@/db/queries/review";
 import { formatShopDate, formatShopDateTime } from "@/lib/dates";
 import { LOCATION_LABELS, locationSpec } from "@/lib/garments/locations";
@@ -10,7 +11,7 @@ import { gangItems, planForSize, usesGangSheets } from "@/lib/production/print-p
 import type { PaperId } from "@/lib/production/tiling";
 import { formatLength } from "@/lib/units";
 import { productionArt } from "./art-source";
-import { renderGangSheet } from "./gang-sheet";
+import { renderGangSheetPdf, renderGangSheetPngs } from "./gang-sheet";
 import { loadJobPrints } from "./plans";
 import { renderSpecSheetPdf, specSheetLocation } from "./spec-sheet";
 import { renderTestPrintPdf } from "./test-print";
@@ -97,53 +98,74 @@ async function testPrint(shopId: string, jobId: string, params: Record<string, u
   return { fileName: `${slugify(doc.job.title)}-test-print-${slugify(row.size)}-${String(params.paper)}${params.mirror ? "-mirrored" : ""}.pdf`, mime: "application/pdf", bytes: Buffer.from(pdf) };
 }
 
-async function gangSheet(shopId: string, jobId: string, kind: "gang-sheet-png" | "gang-sheet-pdf", params: Record<string, unknown>, progress: (f: number) => Promise<void>): Promise<Done> {
+async function gangSheet(shopId: string, jobId: string, kind: "gang-sheet-png" | "gang-sheet-pdf", params: Record<string, unknown>, progress: (f: number) => Promise<void>): Promise<{ files: Done[]; summary: ExportSummaryFacts }> {
   const { job, prints } = await loadPrints(shopId, jobId);
   if (!usesGangSheets(job.method as DecorationMethod)) throw new Error(`A ${DECORATION_LABELS[job.method as DecorationMethod].toLowerCase()} job prints without transfers, so it has no gang sheet.`);
   const items = gangItems(prints.filter((p) => p.artwork).map((p) => ({ plan: p.plan, artworkId: p.artwork!.id })));
   if (items.length === 0) throw new Error("No transfers to pack: add quantities to the size run and art to the proof.");
   // Spares are already in each item's quantity (the plan counts them per size).
   const pieces = expandTransfers(items, 0);
-  const packed = packGangSheet({ pieces, rollWidthIn: Number(params.rollWidthIn), gapIn: Number(params.gapIn), allowRotation: Boolean(params.allowRotation), maxSheetLengthIn: Number(params.maxSheetLengthIn) });
-  await progress(0.15);
-  const sheet = packed.sheets[0]!;
+  const rollWidthIn = Number(params.rollWidthIn);
+  const packed = packGangSheet({ pieces, rollWidthIn, gapIn: Number(params.gapIn), allowRotation: Boolean(params.allowRotation), maxSheetLengthIn: Number(params.maxSheetLengthIn) });
+  await progress(0.05);
+  // The ink of each artwork, once, however many sizes and sheets it is on.
+  const byArtwork = new Map<string, Promise<{ png: Buffer }>>();
   const art: Record<string, { png: Buffer }> = {};
-  for (const key of new Set(sheet.placements.map((p) => p.itemId))) {
-    const item = items.find((i) => i.id === key)!;
+  for (const item of items) {
     const a = prints.find((p) => p.artwork?.id === item.artworkId)?.artwork;
-    if (a) art[key] = await productionArt(a);
+    if (!a) continue;
+    if (!byArtwork.has(a.id)) byArtwork.set(a.id, productionArt(a));
+    art[item.id] = await byArtwork.get(a.id)!;
   }
-  await progress(0.3);
-  const rendered = await renderGangSheet({ sheet, rollWidthIn: Number(params.rollWidthIn), art, onProgress: (f) => void progress(0.3 + f * 0.65) });
-  const name = `${slugify(job.title)}-gang-sheet-1-of-${packed.sheets.length}`;
-  return kind === "gang-sheet-png"
-    ? { fileName: `${name}.png`, mime: "image/png", bytes: rendered.png }
-    : { fileName: `${name}.pdf`, mime: "application/pdf", bytes: Buffer.from(rendered.pdf) };
+  await progress(0.15);
+  const input = { sheets: packed.sheets, rollWidthIn, art, onProgress: (f: number) => void progress(0.15 + f * 0.83) };
+  const base = `${slugify(job.title)}-gang-sheet`;
+  const count = packed.sheets.length;
+  const summary: ExportSummaryFacts = { rollWidthIn, pieces: pieces.length, sheetLengthsIn: packed.sheets.map((sh) => sh.lengthIn), totalLengthIn: packed.totalLengthIn, efficiency: packed.efficiency };
+  if (kind === "gang-sheet-pdf") {
+    const pdf = await renderGangSheetPdf(input);
+    return { files: [{ fileName: count > 1 ? `${base}s-${count}-sheets.pdf` : `${base}.pdf`, mime: "application/pdf", bytes: Buffer.from(pdf) }], summary };
+  }
+  const pngs = await renderGangSheetPngs(input);
+  return { files: pngs.map((png, i) => ({ fileName: `${base}-${i + 1}-of-${count}.png`, mime: "image/png", bytes: png })), summary };
 }
+
+/** Least time between two progress writes, and most: the bar moves at least once a second while work goes on. */
+const PROGRESS_MIN_MS = 250;
 
 /** Runs one export and records its progress and result. A failure says why and can be retried. */
 export async function runExport(exportId: string): Promise<void> {
   const row = await loadExportForWork({ exportId });
   if (!row) return;
   await markExport(exportId, { state: "running", progress: 0.02, message: null, bumpAttempts: true });
+  // Progress is written when it has moved 2 %, or at all after PROGRESS_MIN_MS: small steps of a
+  // long sheet still reach the page, and quick bursts do not flood the database.
+  // Writes go one after another, so a slower write never puts the bar back.
   let last = 0;
-  const progress = async (f: number) => {
+  let lastAt = Date.now();
+  let writes: Promise<void> = Promise.resolve();
+  const progress = (f: number): Promise<void> => {
     const value = Math.max(0, Math.min(0.99, f));
-    if (value - last < 0.02) return;
+    const now = Date.now();
+    if (value <= last || (value - last < 0.02 && now - lastAt < PROGRESS_MIN_MS)) return writes;
     last = value;
-    await markExport(exportId, { progress: value });
+    lastAt = now;
+    writes = writes.then(() => markExport(exportId, { progress: value })).catch((error: unknown) => console.error(`[export ${exportId}] progress`, error));
+    return writes;
   };
   try {
     const done =
       row.kind === "spec-sheet"
-        ? await specSheet(row.shopId, row.jobId!, progress)
+        ? { files: [await specSheet(row.shopId, row.jobId!, progress)], summary: null }
         : row.kind === "test-print"
-          ? await testPrint(row.shopId, row.jobId!, row.params, progress)
+          ? { files: [await testPrint(row.shopId, row.jobId!, row.params, progress)], summary: null }
           : await gangSheet(row.shopId, row.jobId!, row.kind, row.params, progress);
-    await markExport(exportId, { state: "done", progress: 1, fileName: done.fileName, mime: done.mime, result: done.bytes, finishedAt: new Date(), message: null });
+    await writes;
+    await finishExport(exportId, done.files, done.summary);
   } catch (error) {
     const message = error instanceof Error ? error.message : String(error);
     console.error(`[export ${exportId}]`, message);
+    await writes;
     await markExport(exportId, { state: "failed", message: `The export failed: ${message}`, finishedAt: new Date() });
   }
 }

@@ -1,6 +1,6 @@
 import { NextResponse } from "next/server";
 import { exportAccess } from "@/app/_server/exports";
-import { findExport } from "@/db/queries/production";
+import { findExport, listExportFiles } from "@/db/queries/production";
 
 export const dynamic = "force-dynamic";
 
@@ -10,8 +10,10 @@ export async function GET(_request: Request, { params }: { params: Promise<{ id:
   if (!access.ok) return access.response;
   const row = await findExport({ shopId: access.shopId, exportId: access.exportId });
   if (!row) return NextResponse.json({ error: "Not found." }, { status: 404 });
+  // Every file the export made, each with its own download address.
+  const files = row.state === "done" ? (await listExportFiles({ shopId: access.shopId, exportId: access.exportId })).map((f) => ({ ...f, href: `/api/exports/${row.id}/file${f.n === 1 ? "" : `?n=${f.n}`}` })) : [];
   return NextResponse.json(
-    { id: row.id, kind: row.kind, state: row.state, progress: row.progress, message: row.message, fileName: row.fileName, attempts: row.attempts },
+    { id: row.id, kind: row.kind, state: row.state, progress: row.progress, message: row.message, fileName: row.fileName, attempts: row.attempts, files, summary: row.state === "done" ? row.summary : null },
     { headers: { "Cache-Control": "no-store" } },
   );
 }

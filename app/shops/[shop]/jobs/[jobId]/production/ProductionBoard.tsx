@@ -1,6 +1,5 @@
 "use client";
 
-import { useQuery } from "@tanstack/react-query";
 import { useRouter } from "next/navigation";
 import { useDeferredValue, useMemo, useState } from "react";
 import { buildSilhouette } from "@/lib/garments/silhouette";
@@ -13,6 +12,7 @@ import { expandTransfers, packGangSheet, ROLL_WIDTHS_IN } from "@/lib/production
 import { gangItems, planSizeText, printPlan, toolsFor, type PrintPlan } from "@/lib/production/print-plan";
 import { PAPER_SIZES, type PaperId } from "@/lib/production/tiling";
 import { formatLength } from "@/lib/units";
+import { ExportItem } from "@/components/production/ExportItem";
 import { requestExportAction, retryExportAction, saveGradingAction, saveSizeRunAction } from "./actions";
 
 type ChartRow = { size: string; group: SizeGroup; measurements: GarmentMeasurements };
@@ -41,7 +41,6 @@ type Props = {
   exports: ExportRow[];
 };
 
-const KIND_LABELS: Record<string, string> = { "spec-sheet": "Spec sheet (PDF)", "test-print": "Test print (PDF)", "gang-sheet-png": "Gang sheet (PNG, 300 ppi)", "gang-sheet-pdf": "Gang sheet (PDF)" };
 
 const TOOL_WORDS = {
   screens: { many: "Screen sizes", one: "screen", lead: "Each screen size is a set of screens (one per ink colour) and a film positive." },
@@ -197,7 +196,7 @@ export function ProductionBoard(props: Props) {
         </div>
         <ul className="mt-4 space-y-2" aria-label="Exports">
           {exportIds.map((id) => (
-            <ExportItem key={id} id={id} shopSlug={props.shopSlug} />
+            <ExportItem key={id} id={id} film={props.film} onRetry={async (exportId) => void (await retryExportAction({ shopSlug: props.shopSlug, exportId }))} />
           ))}
         </ul>
       </section>
@@ -478,48 +477,5 @@ function GangSheetPlanner({ plans, film, onSubmit }: { plans: Array<{ print: Pri
         </p>
       )}
     </div>
-  );
-}
-
-function ExportItem({ id, shopSlug }: { id: string; shopSlug: string }) {
-  const query = useQuery<ExportRow & { attempts: number }>({
-    queryKey: ["export", id],
-    queryFn: async () => {
-      const r = await fetch(`/api/exports/${id}`, { cache: "no-store" });
-      if (!r.ok) throw new Error("Could not read the export.");
-      return r.json();
-    },
-    refetchInterval: (q) => (q.state.data && (q.state.data.state === "done" || q.state.data.state === "failed") ? false : 800),
-  });
-  const e = query.data;
-  if (!e) return <li className="card px-4 py-3 text-sm text-ink-500">Loading…</li>;
-  const pct = Math.round(e.progress * 100);
-  return (
-    <li className="card px-4 py-3 text-sm" data-testid="export-row" data-kind={e.kind} data-state={e.state}>
-      <div className="flex flex-wrap items-center justify-between gap-2">
-        <span className="font-medium">{KIND_LABELS[e.kind] ?? e.kind}</span>
-        <span className="text-xs text-ink-500">{e.state === "done" ? "Ready" : e.state === "failed" ? "Failed" : e.state === "queued" ? "Waiting for the worker" : `Working · ${pct}%`}</span>
-      </div>
-      {e.state === "queued" || e.state === "running" ? (
-        <div role="progressbar" aria-label={`${KIND_LABELS[e.kind] ?? e.kind} progress`} aria-valuemin={0} aria-valuemax={100} aria-valuenow={pct} className="mt-2 h-2 overflow-hidden rounded-full bg-paper-200">
-          <div className="h-full rounded-full bg-patina-500 transition-[width]" style={{ width: `${pct}%` }} />
-        </div>
-      ) : null}
-      {e.state === "done" ? (
-        <a href={`/api/exports/${id}/file`} className="mt-1 inline-block font-medium text-patina-700 hover:underline" download>
-          Download {e.fileName}
-        </a>
-      ) : null}
-      {e.state === "failed" ? (
-        <div className="mt-1 flex flex-wrap items-center gap-2">
-          <span className="text-brick-700" role="alert">
-            {e.message}
-          </span>
-          <button type="button" className="btn-quiet px-2.5 py-1 text-xs" onClick={async () => { await retryExportAction({ shopSlug, exportId: id }); await query.refetch(); }}>
-            Try again
-          </button>
-        </div>
-      ) : null}
-    </li>
   );
 }
