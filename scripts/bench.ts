@@ -1,6 +1,7 @@
 /**
  * `npm run bench`: figures measured side by side in one run, printed as one table.
- *  - gang sheet packing and upload analysis (in this process, before anything else runs);
+ *  - gang sheet packing, the gang sheet files of the demo tee order and upload analysis (in this
+ *    process, before anything else runs);
  *  - then, against a production build on the test stack it brings up and stops again:
  *    frame times of dragging 6000 × 6000 px art in the editor in headless Chromium, server
  *    throughput and p99 latency of a client review page against a prerendered page, and the
@@ -15,6 +16,7 @@ import { launchChromium } from "./bench/browser";
 import { measureEditorDrag } from "./bench/editor-drag";
 import { createBenchFixture, type BenchFixture } from "./bench/fixtures";
 import { measureFirstLoadJs } from "./bench/first-load-js";
+import { measureGangFiles } from "./bench/gang-files";
 import { measureGangSheets } from "./bench/gang-sheet";
 import { measurePageScripts } from "./bench/page-scripts";
 import { measureReviewLoad } from "./bench/review-load";
@@ -27,6 +29,7 @@ const loadAtStart = os.loadavg()[0]!;
 const rows: Row[] = [];
 
 rows.push(...measureGangSheets());
+rows.push(...(await measureGangFiles()));
 rows.push(...(await measureUploadAnalysis()));
 log(`packing and upload analysis done in ${((performance.now() - began) / 1000).toFixed(0)} s`);
 
