@@ -133,7 +133,7 @@ export async function buildDemoShop(opts: { shopName: string; emails: DemoEmails
   }
 
   // Proofs are made from the jobs, then sized in the editor as the makers left them.
-  const designerAccess = { shop: { id: shop.id, slug: shop.slug, name: shop.name }, role: "designer" as const, actor: { id: designerId, email: account("designer").email, name: account("designer").name, memberships: [], contacts: [] } };
+  const designerAccess = { shop: { id: shop.id, slug: shop.slug, name: shop.name, clock: { locale: shop.locale, timeZone: shop.timeZone } }, role: "designer" as const, actor: { id: designerId, email: account("designer").email, name: account("designer").name, memberships: [], contacts: [] } };
   const proof = async (jobId: string, name: string, art: string, location: string, tuned: Tuned) => {
     const outcome = await makeProof({ shopId: shop.id, userId: designerId, jobId, name, blankId: null, colourName: null, art: [{ location, artworkId: artId[art]! }] });
     if (!outcome.ok) throw new Error(`The demo proof ${name} could not be made: ${outcome.error}`);

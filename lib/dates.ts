@@ -54,3 +54,43 @@ export function formatShopDateTime(at: Date, c: ShopClock = {}): string {
   // ECMA-402 refuses timeZoneName beside dateStyle, so the parts are named one by one.
   return new Intl.DateTimeFormat(locale, { year: "numeric", month: "short", day: "numeric", hour: "numeric", minute: "2-digit", timeZone, timeZoneName: "short" }).format(at);
 }
+
+/** A time of day on the shop's clock: "3:04 PM". For "Saved at …" beside a form the user just sent. */
+export function formatShopTime(at: Date, c: ShopClock = {}): string {
+  const { locale, timeZone } = clock(c);
+  return new Intl.DateTimeFormat(locale, { timeStyle: "short", timeZone }).format(at);
+}
+
+/**
+ * The calendar day of an instant on the shop's clock as YYYY-MM-DD (ISO 8601), for file names:
+ * it sorts, and reads the same in every locale.
+ */
+export function fileDateStamp(at: Date, c: ShopClock = {}): string {
+  const { timeZone } = clock(c);
+  const parts = new Intl.DateTimeFormat("en-CA", { year: "numeric", month: "2-digit", day: "2-digit", timeZone }).formatToParts(at);
+  const get = (t: string) => parts.find((p) => p.type === t)?.value ?? "";
+  return `${get("year")}-${get("month")}-${get("day")}`;
+}
+
+/** The day and time of an instant on the shop's clock, for file names: "2026-12-04-1530". */
+export function fileTimeStamp(at: Date, c: ShopClock = {}): string {
+  const { timeZone } = clock(c);
+  const parts = new Intl.DateTimeFormat("en-CA", { hour: "2-digit", minute: "2-digit", hourCycle: "h23", timeZone }).formatToParts(at);
+  const get = (t: string) => parts.find((p) => p.type === t)?.value ?? "";
+  return `${fileDateStamp(at, c)}-${get("hour")}${get("minute")}`;
+}
+
+/** The browser's own locale and time zone, as a new shop starts with them. */
+export function browserClock(): { locale: string; timeZone: string } {
+  const o = Intl.DateTimeFormat().resolvedOptions();
+  return { locale: o.locale, timeZone: o.timeZone };
+}
+
+/** "2027-02-28" is a day; "2027-02-31" is not (Date.parse would roll it over to March). */
+export function isCalendarDay(v: string): boolean {
+  const m = /^(\d{4})-(\d{2})-(\d{2})$/.exec(v);
+  if (!m) return false;
+  const [y, mo, d] = [Number(m[1]), Number(m[2]), Number(m[3])];
+  const at = new Date(Date.UTC(y, mo - 1, d));
+  return at.getUTCFullYear() === y && at.getUTCMonth() === mo - 1 && at.getUTCDate() === d;
+}

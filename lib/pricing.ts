@@ -38,6 +38,7 @@
  *    be 0 (free blanks, no setup fee, no rush) are left out.
  */
 import { z } from "zod";
+import { SHOP_CURRENCIES } from "./money";
 
 // ---------------------------------------------------------------------------
 // Limits (ours: generous bounds that keep every product far below 2^53)
@@ -195,7 +196,7 @@ const dtfSchema = z
   });
 
 export const priceMatrixSchema = z.object({
-  currency: z.literal("usd"),
+  currency: z.enum(SHOP_CURRENCIES),
   depositPercent: percentSchema,
   /** e.g. 8.25 for 8.25 %. */
   taxRatePercent: percentSchema,
@@ -759,20 +760,5 @@ export function tryComputeQuote(input: QuoteInput): QuoteResult {
 // Display
 // ---------------------------------------------------------------------------
 
-/**
- * Cents as money text, the same on server and browser (no locale data involved):
- * usd → "$1,234.56", "-$2.50"; any other code → "1,234.56 EUR". Two-decimal currencies only.
- */
-export function formatCents(cents: number, currency: string = "usd"): string {
-  if (!Number.isSafeInteger(cents))
-    throw new PricingError("invalid-input", "Amount must be a whole number of cents");
-  const negative = cents < 0;
-  const abs = Math.abs(cents);
-  const whole = Math.floor(abs / 100)
-    .toString()
-    .replace(/\B(?=(\d{3})+(?!\d))/g, ",");
-  const amount = `${whole}.${String(abs % 100).padStart(2, "0")}`;
-  const code = currency.toLowerCase();
-  if (code === "usd") return `${negative ? "-" : ""}$${amount}`;
-  return `${negative ? "-" : ""}${amount} ${code.toUpperCase()}`;
-}
+/** Money text comes from lib/money.ts only; re-exported here for the quote code's callers. */
+export { formatCents } from "./money";

@@ -292,3 +292,10 @@ export function pxPerInchFromCardWidth(cardWidthCssPx: number): number {
   }
   return cardWidthCssPx / ID1_CARD_WIDTH_IN;
 }
+
+const COUNT = new Intl.NumberFormat("en-US", { maximumFractionDigits: 0 });
+
+/** A whole count with thousands grouped: 66000 → "66,000" (pixel sizes, megapixels). */
+export function formatCount(n: number): string {
+  return COUNT.format(n);
+}

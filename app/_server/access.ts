@@ -24,7 +24,8 @@ export const getActor = cache(async (): Promise<Actor | null> => {
 
 export type ShopAccess = {
   actor: Actor;
-  shop: { id: string; slug: string; name: string };
+  /** `clock`: how the shop writes dates (lib/dates.ts) and money (lib/money.ts). */
+  shop: { id: string; slug: string; name: string; clock: { locale: string; timeZone: string } };
   role: ShopRole;
 };
 
@@ -41,7 +42,7 @@ export async function resolveShopAccess(shopSlug: string, permission: Permission
     }
     return {
       kind: "ok",
-      access: { actor, role: membership.role, shop: { id: membership.shopId, slug: membership.shopSlug, name: membership.shopName } },
+      access: { actor, role: membership.role, shop: { id: membership.shopId, slug: membership.shopSlug, name: membership.shopName, clock: { locale: membership.locale, timeZone: membership.timeZone } } },
     };
   }
   // A client of this shop knows it exists but may not use its workspace.

@@ -15,6 +15,7 @@ import { composeMail } from "./emails";
 import { sendMail } from "./mail";
 import { findContactByEmail } from "@/db/queries/contacts";
 import { parseInput } from "@/lib/input";
+import { formatShopDate } from "@/lib/dates";
 
 const credentialsSchema = z.object({
   email: z.string().trim().email(),
@@ -52,7 +53,7 @@ async function signInLinkMail(identifier: string, url: string) {
   const user = await findUserByEmail({ email: identifier });
   if (user && !user.emailVerified) {
     const shops = (await listMemberships({ userId: user.id })).filter((m) => m.role === "owner").map((m) => `“${m.shopName}”`);
-    const started = user.createdAt.toISOString().slice(0, 10);
+    const started = formatShopDate(user.createdAt);
     return composeMail({
       to: identifier,
       subject: "Confirm your e-mail address for Chalkline",

@@ -286,15 +286,19 @@ export type QuotePanelData = {
   summary: MoneySummary;
   payments: Array<{ id: string; kind: PaymentKind; amountCents: number; state: Payment["state"]; paidAt: string | null }>;
   paymentsReady: boolean;
+  /** The shop's locale and time zone, for its dates and money. */
+  clock: { locale: string | null; timeZone: string | null };
 };
 
 export async function quotePanelData(jobId: string): Promise<QuotePanelData | null> {
   const { quote, payments, summary } = await jobMoney(jobId);
   if (!quote) return null;
+  const shop = await findShopById({ shopId: quote.shopId });
   return {
     quote: { id: quote.id, number: quote.number, state: quote.state, sentAt: quote.sentAt.toISOString(), acceptedName: quote.acceptedName, acceptedAt: quote.acceptedAt?.toISOString() ?? null, snapshot: quote.snapshot },
     summary,
     payments: payments.filter((p) => p.state === "paid").map((p) => ({ id: p.id, kind: p.kind, amountCents: p.amountCents, state: p.state, paidAt: p.paidAt?.toISOString() ?? null })),
     paymentsReady: Boolean(getStripe()),
+    clock: { locale: shop?.locale ?? null, timeZone: shop?.timeZone ?? null },
   };
 }

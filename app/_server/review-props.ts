@@ -41,6 +41,7 @@ export async function buildReviewProps(reviewer: Reviewer, key: string): Promise
     reviewKind: reviewer.kind === "link" ? "link" : "proof",
     reviewKey: key,
     shopName: context?.shopName ?? "",
+    clock: { locale: context?.locale ?? null, timeZone: context?.timeZone ?? null },
     jobTitle: document.job.title,
     proofName: document.proof.name,
     snapshot: { ...snapshot, artNames: placedNames },

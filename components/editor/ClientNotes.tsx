@@ -2,12 +2,13 @@
 
 import { useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
 import { useState } from "react";
+import { formatShopDateTime, type ShopClock } from "@/lib/dates";
 
 type Note = { id: string; parentId: string | null; body: string; authorName: string; authorRole: "shop" | "client"; revisionLetter: string; createdAt: string; resolvedAt: string | null; side: string | null };
 type Payload = { comments: Note[]; revision: { letter: string; state: string } | null; approvals: Array<{ id: string; decision: string; fullName: string; revisionLetter: string; at: string }> };
 
 /** The client's pinned notes, replies and decisions, refreshed without reloading. */
-export function ClientNotes({ proofId, canReply }: { proofId: string; canReply: boolean }) {
+export function ClientNotes({ proofId, canReply, clock = {} }: { proofId: string; canReply: boolean; clock?: ShopClock }) {
   const base = `/api/review/proof/${proofId}/comments`;
   const client = useQueryClient();
   const key = ["notes", proofId];
@@ -45,7 +46,7 @@ export function ClientNotes({ proofId, canReply }: { proofId: string; canReply: 
       )}
       {decision ? (
         <p className="rounded-lg bg-paper-100 px-3 py-2 text-xs text-ink-700" data-testid="editor-decision">
-          {decision.decision === "approved" ? "Approved" : "Changes asked for"} by {decision.fullName} · rev. {decision.revisionLetter} · {new Date(decision.at).toLocaleString("en-US")}
+          {decision.decision === "approved" ? "Approved" : "Changes asked for"} by {decision.fullName} · rev. {decision.revisionLetter} · {formatShopDateTime(new Date(decision.at), clock)}
         </p>
       ) : null}
       {send.error ? <p className="field-error">{send.error.message}</p> : null}

@@ -26,6 +26,7 @@ import { SharePanel } from "./SharePanel";
 import { createEditorStore, EditorContext, useEditor, type EditorStore } from "./store";
 import { useAutosave } from "./useAutosave";
 import { placementWarnings } from "./warnings";
+import type { ShopClock } from "@/lib/dates";
 
 export type EditorBlank = {
   id: string;
@@ -50,6 +51,8 @@ export type EditorArtwork = {
 
 type Props = {
   shopSlug: string;
+  /** The shop's locale and time zone, for the dates in the side panels. */
+  clock?: ShopClock;
   proof: { id: string; name: string; revision: string; version: number };
   job: { id: string; title: string; clientId: string; clientName: string; method: DecorationMethod };
   blank: EditorBlank;
@@ -318,10 +321,10 @@ function EditorBody(props: Props & { store: EditorStore }) {
             onAdd={addArt}
             uploadSlot={<DropZone shopSlug={props.shopSlug} clientId={props.job.clientId} onUploaded={() => router.refresh()} />}
           />
-          <ClientNotes proofId={props.proof.id} canReply={props.canEdit} />
+          <ClientNotes proofId={props.proof.id} canReply={props.canEdit} clock={props.clock} />
         </aside>
       </div>
-      <SharePanel open={sharing} onClose={() => setSharing(false)} shopSlug={props.shopSlug} proofId={props.proof.id} defaultEmail={props.contact?.email ?? null} defaultName={props.contact?.name ?? null} />
+      <SharePanel open={sharing} onClose={() => setSharing(false)} shopSlug={props.shopSlug} proofId={props.proof.id} defaultEmail={props.contact?.email ?? null} defaultName={props.contact?.name ?? null} clock={props.clock} />
       <CalibrationDialog open={calibrating} current={calibration.pxPerInch} onClose={() => setCalibrating(false)} onSave={calibration.save} saving={calibration.saving} error={calibration.error} />
     </div>
   );

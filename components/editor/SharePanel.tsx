@@ -3,11 +3,13 @@
 import { useEffect, useRef, useState } from "react";
 import { listShareLinksAction, revokeShareLinkAction, shareProofAction, type ShareLinkView } from "@/app/shops/[shop]/proofs/[proofId]/share-actions";
 import { PERMISSION_LABELS, type SharePermission } from "@/lib/review/approval";
+import { CopyButton } from "@/components/ui/CopyButton";
+import { formatShopDate, type ShopClock } from "@/lib/dates";
 
-type Props = { open: boolean; onClose: () => void; shopSlug: string; proofId: string; defaultEmail: string | null; defaultName: string | null };
+type Props = { open: boolean; onClose: () => void; shopSlug: string; proofId: string; defaultEmail: string | null; defaultName: string | null; clock?: ShopClock };
 
 /** Send the current state to the client as a revision, by e-mail or as a link to copy. */
-export function SharePanel({ open, onClose, shopSlug, proofId, defaultEmail, defaultName }: Props) {
+export function SharePanel({ open, onClose, shopSlug, proofId, defaultEmail, defaultName, clock = {} }: Props) {
   const dialog = useRef<HTMLDialogElement>(null);
   const [links, setLinks] = useState<ShareLinkView[]>([]);
   const [permission, setPermission] = useState<SharePermission>("approve");
@@ -20,6 +22,7 @@ export function SharePanel({ open, onClose, shopSlug, proofId, defaultEmail, def
   // The refusal is about the address: the e-mail field is marked and described by it.
   const [emailRefused, setEmailRefused] = useState(false);
   const [busy, setBusy] = useState(false);
+  const [withdrawn, setWithdrawn] = useState<string | null>(null);
 
   async function refresh() {
     const r = await listShareLinksAction({ shopSlug, proofId });
@@ -130,6 +133,9 @@ export function SharePanel({ open, onClose, shopSlug, proofId, defaultEmail, def
           <button type="button" className="btn-quiet" disabled={busy} onClick={() => share(false)}>
             Make a link to copy
           </button>
+          <span role="status" className="self-center text-sm text-ink-600">
+            {busy ? "Freezing this revision and making the link…" : withdrawn ? withdrawn : ""}
+          </span>
         </div>
         {result ? (
           <div role="status" className="rounded-lg bg-patina-100 p-3 text-sm text-patina-800">
@@ -153,9 +159,7 @@ export function SharePanel({ open, onClose, shopSlug, proofId, defaultEmail, def
             ) : null}
             <div className="mt-2 flex gap-2">
               <input readOnly value={result.url} className="field-input py-1 text-xs" aria-label="Review link" onFocus={(e) => e.currentTarget.select()} />
-              <button type="button" className="btn-quiet px-2.5 py-1 text-xs" onClick={() => navigator.clipboard?.writeText(result.url)}>
-                Copy
-              </button>
+              <CopyButton text={result.url} what="Review link" />
             </div>
           </div>
         ) : null}
@@ -168,7 +172,7 @@ export function SharePanel({ open, onClose, shopSlug, proofId, defaultEmail, def
                   <span>
                     {l.recipientName ?? l.recipientEmail ?? "Copied link"} · {PERMISSION_LABELS[l.permission]}
                     <span className="block text-xs text-ink-500">
-                      {l.revokedAt ? "Withdrawn" : l.expiresAt ? `Until ${new Date(l.expiresAt).toLocaleDateString("en-US")}` : "No end date"}
+                      {l.revokedAt ? "Withdrawn" : l.expiresAt ? `Until ${formatShopDate(new Date(l.expiresAt), clock)}` : "No end date"}
                       {l.lastSeenLetter ? ` · last opened at revision ${l.lastSeenLetter}` : " · not opened yet"}
                     </span>
                   </span>
@@ -179,6 +183,7 @@ export function SharePanel({ open, onClose, shopSlug, proofId, defaultEmail, def
                       onClick={async () => {
                         const r = await revokeShareLinkAction({ shopSlug, linkId: l.id });
                         if (!r.ok) setError(r.error);
+                        else setWithdrawn(`The link for ${l.recipientName ?? l.recipientEmail ?? "copying"} is withdrawn; it no longer opens.`);
                         await refresh();
                       }}
                     >

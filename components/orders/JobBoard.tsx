@@ -47,7 +47,7 @@ export function JobBoard({ shopSlug, rows, movable }: { shopSlug: string; rows: 
                     <p className="text-ink-600">{job.clientName}</p>
                     <p className="measure mt-1 text-xs text-ink-500">
                       {job.quantity} pcs · {DECORATION_LABELS[job.method]}
-                      {job.dueDate ? ` · due ${job.dueDate}` : ""}
+                      {job.dueLabel ? ` · due ${job.dueLabel}` : ""}
                     </p>
                     {job.money ? <p className="mt-1 text-xs text-patina-800">{MONEY_STATE_LABELS[job.money.state]}</p> : null}
                     {movable.length ? (

@@ -18,8 +18,8 @@ import { useMemo, useState } from "react";
 import { StatusBadge } from "@/components/ui/StatusBadge";
 import { useHydrated } from "@/components/orders/useHydrated";
 import { DECORATION_LABELS, JOB_STATUS_LABELS, JOB_STATUSES, type DecorationMethod, type JobStatus } from "@/lib/jobs";
-import { formatCents } from "@/lib/pricing";
 import { MONEY_STATE_LABELS, sizeRunTable, type MoneyState } from "@/lib/quotes";
+import { fileDateStamp, type ShopClock } from "@/lib/dates";
 
 export type JobRow = {
   id: string;
@@ -27,6 +27,8 @@ export type JobRow = {
   status: JobStatus;
   method: DecorationMethod;
   dueDate: string | null;
+  /** The due date as the shop writes it (lib/dates.ts). */
+  dueLabel: string | null;
   rush: boolean;
   clientId: string;
   clientName: string;
@@ -34,7 +36,7 @@ export type JobRow = {
   quantity: number;
   sizeRun: Array<{ size: string; quantity: number }>;
   /** Absent for roles that see no money. */
-  money?: { state: MoneyState; totalCents: number; paidCents: number; balanceCents: number };
+  money?: { state: MoneyState; totalCents: number; paidCents: number; balanceCents: number; totalText: string; balanceText: string };
 };
 
 const col = createColumnHelper<JobRow>();
@@ -48,7 +50,7 @@ const dueBetween: FilterFn<JobRow> = (row, _id, value: { from?: string; to?: str
 
 const PAGE_SIZES = [10, 25, 50];
 
-export function JobTable({ shopSlug, rows }: { shopSlug: string; rows: JobRow[] }) {
+export function JobTable({ shopSlug, rows, clock = {} }: { shopSlug: string; rows: JobRow[]; clock?: ShopClock }) {
   const showMoney = rows.some((r) => r.money);
   const hydrated = useHydrated();
   const [sorting, setSorting] = useState<SortingState>([{ id: "dueDate", desc: false }]);
@@ -77,16 +79,16 @@ export function JobTable({ shopSlug, rows }: { shopSlug: string; rows: JobRow[] 
       }),
       col.accessor("method", { header: "Method", cell: (c) => DECORATION_LABELS[c.getValue()] }),
       col.accessor("quantity", { header: "Pieces", cell: (c) => <span className="measure">{c.getValue()}</span> }),
-      col.accessor((r) => r.dueDate ?? "", { id: "dueDate", header: "Due", cell: (c) => <span className="measure">{c.getValue() || "—"}</span>, filterFn: dueBetween, sortUndefined: "last" }),
+      col.accessor((r) => r.dueDate ?? "", { id: "dueDate", header: "Due", cell: (c) => <span className="measure">{c.row.original.dueLabel ?? "—"}</span>, filterFn: dueBetween, sortUndefined: "last" }),
       ...(showMoney
         ? [
-            col.accessor((r) => r.money?.totalCents ?? 0, { id: "total", header: "Quoted", cell: (c) => <span className="measure">{c.getValue() ? formatCents(c.getValue()) : "—"}</span> }),
+            col.accessor((r) => r.money?.totalCents ?? 0, { id: "total", header: "Quoted", cell: (c) => <span className="measure">{c.getValue() ? c.row.original.money?.totalText : "—"}</span> }),
             col.accessor((r) => r.money?.balanceCents ?? 0, {
               id: "balance",
               header: "Due now",
               cell: (c) => (
                 <span>
-                  <span className="measure">{c.row.original.money?.totalCents ? formatCents(c.getValue()) : "—"}</span>
+                  <span className="measure">{c.row.original.money?.totalCents ? c.row.original.money.balanceText : "—"}</span>
                   <span className="block text-xs text-ink-500">{c.row.original.money ? MONEY_STATE_LABELS[c.row.original.money.state] : ""}</span>
                 </span>
               ),
@@ -130,7 +132,7 @@ export function JobTable({ shopSlug, rows }: { shopSlug: string; rows: JobRow[] 
     const url = URL.createObjectURL(new Blob([csv], { type: "text/csv;charset=utf-8" }));
     const a = document.createElement("a");
     a.href = url;
-    a.download = `size-runs-${new Date().toISOString().slice(0, 10)}.csv`;
+    a.download = `size-runs-${fileDateStamp(new Date(), clock)}.csv`;
     a.click();
     setTimeout(() => URL.revokeObjectURL(url), 1000);
   };

@@ -2,11 +2,12 @@
 
 import { zodResolver } from "@hookform/resolvers/zod";
 import { useRouter } from "next/navigation";
-import { useId, useState } from "react";
+import { useId, useRef, useState } from "react";
 import { get, useForm, useWatch, type FieldErrors, type FieldPath, type UseFormRegister } from "react-hook-form";
 import { savePricesAction } from "@/app/shops/[shop]/prices/actions";
 import type { PriceMatrix } from "@/lib/pricing";
 import { JOB_SIZE_ORDER } from "@/lib/quotes";
+import { CURRENCY_NAMES, SHOP_CURRENCIES, currencySymbol, moneyInputValue, type MoneyStyle } from "@/lib/money";
 import { Notice } from "./Notice";
 import { useHydrated } from "./useHydrated";
 import { priceFormSchema, toPriceForm, type PriceForm } from "./price-form";
@@ -14,26 +15,49 @@ import { priceFormSchema, toPriceForm, type PriceForm } from "./price-form";
 type Tiered = "dtf" | "dtg" | "htv" | "sublimation";
 const num = { valueAsNumber: true } as const;
 
-function Cell({ path, register, errors, label, step = "0.01", disabled, prefix, initial }: { path: string; register: UseFormRegister<PriceForm>; errors: FieldErrors<PriceForm>; label: string; step?: string; disabled: boolean; prefix?: string; initial: PriceForm }) {
+/**
+ * One number of the matrix. `name` is its accessible name when no visible label wraps it (grid
+ * cells); with `label` it draws its own visible label, tied to the field. Money cells always show two decimals.
+ */
+function Cell({ path, register, errors, name, label, step = "0.01", disabled, money, initial }: { path: string; register: UseFormRegister<PriceForm>; errors: FieldErrors<PriceForm>; name?: string; label?: string; step?: string; disabled: boolean; money?: MoneyStyle; initial: PriceForm }) {
   const error = (get(errors, path) as { message?: string } | undefined)?.message;
-  const errorId = `${useId()}-error`;
+  const id = useId();
+  const errorId = `${id}-error`;
+  const shown = useRef(false);
+  const field = register(path as FieldPath<PriceForm>, num);
+  const start = get(initial, path) as number | undefined;
   return (
     <span className="block">
+      {label ? (
+        <label htmlFor={id} className="field-label">
+          {label}
+        </label>
+      ) : null}
       <span className="relative block">
-        {prefix ? <span className="pointer-events-none absolute left-2 top-1/2 -translate-y-1/2 text-xs text-ink-400">{prefix}</span> : null}
+        {money ? <span className="pointer-events-none absolute left-2 top-1/2 -translate-y-1/2 text-xs text-ink-400" aria-hidden>{currencySymbol(money)}</span> : null}
         <input
+          id={id}
           type="number"
           step={step}
           min={0}
-          aria-label={label}
-          title={error ?? label}
+          aria-label={name}
           aria-invalid={error ? true : undefined}
           aria-describedby={error ? errorId : undefined}
           disabled={disabled}
           // The server-rendered page shows the numbers before the form script takes over.
-          defaultValue={get(initial, path) as number | undefined}
-          className={`field-input measure w-24 py-1 text-right text-sm ${prefix ? "pl-5" : ""} ${error ? "border-brick-500 bg-brick-50" : ""}`}
-          {...register(path as FieldPath<PriceForm>, num)}
+          defaultValue={money && start !== undefined ? moneyInputValue(start) : start}
+          className={`field-input measure w-24 py-1 text-right text-sm ${money ? "pl-5" : ""} ${error ? "border-brick-500 bg-brick-50" : ""}`}
+          {...field}
+          ref={(el) => {
+            field.ref(el);
+            // The form library writes the bare number (4.5); a price reads 4.50. Once, so typing is left alone.
+            if (el && money && !shown.current && Number.isFinite(el.valueAsNumber)) el.value = moneyInputValue(el.valueAsNumber);
+            if (el) shown.current = true;
+          }}
+          onBlur={(e) => {
+            if (money && Number.isFinite(e.currentTarget.valueAsNumber)) e.currentTarget.value = moneyInputValue(e.currentTarget.valueAsNumber);
+            return field.onBlur(e);
+          }}
         />
       </span>
       {/* The reason in words under its cell: a hover title alone reaches neither touch nor keyboard users. */}
@@ -46,7 +70,7 @@ function Cell({ path, register, errors, label, step = "0.01", disabled, prefix, 
   );
 }
 
-export function PriceMatrixEditor({ shopSlug, matrix, canEdit }: { shopSlug: string; matrix: PriceMatrix; canEdit: boolean }) {
+export function PriceMatrixEditor({ shopSlug, matrix, canEdit, locale }: { shopSlug: string; matrix: PriceMatrix; canEdit: boolean; locale?: string }) {
   const router = useRouter();
   const hydrated = useHydrated();
   const [notice, setNotice] = useState<{ tone: "ok" | "error"; text: string }>();
@@ -57,6 +81,7 @@ export function PriceMatrixEditor({ shopSlug, matrix, canEdit }: { shopSlug: str
   const { errors, isSubmitting, isDirty } = formState;
   const values = useWatch({ control }) as PriceForm;
   const disabled = !canEdit;
+  const moneyStyle: MoneyStyle = { currency: values.currency ?? matrix.currency, locale };
 
   const onSubmit = handleSubmit(
     async (cleaned) => {
@@ -111,7 +136,7 @@ export function PriceMatrixEditor({ shopSlug, matrix, canEdit }: { shopSlug: str
   const breaksColumn = (m: Tiered | "screenPrint", i: number) => (
     <th scope="row" className="whitespace-nowrap py-1 pr-2 text-left font-normal">
       <span className="flex items-center gap-1">
-        <Cell path={`${m}.quantityBreaks.${i}`} register={register} errors={errors} initial={initial} label={`Quantity break ${i + 1}`} step="1" disabled={disabled} />
+        <Cell path={`${m}.quantityBreaks.${i}`} register={register} errors={errors} initial={initial} name={`Quantity break ${i + 1}`} step="1" disabled={disabled} />
         <span className="text-xs text-ink-500">+ pcs</span>
         {canEdit && values[m].quantityBreaks.length > 1 ? (
           <button type="button" className="text-xs text-brick-700 hover:underline" onClick={() => removeBreak(m, i)} aria-label={`Remove break ${i + 1}`}>
@@ -144,7 +169,7 @@ export function PriceMatrixEditor({ shopSlug, matrix, canEdit }: { shopSlug: str
               {breaksColumn(m, i)}
               {Array.from({ length: columns }, (_, c) => (
                 <td key={c} className="py-1 pr-2">
-                  <Cell path={cellPath(i, c)} register={register} errors={errors} initial={initial} label={cellLabel(i, c)} disabled={disabled} prefix="$" />
+                  <Cell path={cellPath(i, c)} register={register} errors={errors} initial={initial} name={cellLabel(i, c)} disabled={disabled} money={moneyStyle} />
                 </td>
               ))}
             </tr>
@@ -162,7 +187,7 @@ export function PriceMatrixEditor({ shopSlug, matrix, canEdit }: { shopSlug: str
           <h2 className="text-lg">{title}</h2>
           <p className="text-sm text-ink-600">{lead}</p>
         </div>
-        {priceGrid(m, width, "location", (i, l) => `${m}.pricesCents.${i}.${l}`, (i, l) => `${title}, break ${i + 1}, ${l + 1} locations, dollars per garment`)}
+        {priceGrid(m, width, "location", (i, l) => `${m}.pricesCents.${i}.${l}`, (i, l) => `${title}, break ${i + 1}, ${l + 1} ${l === 0 ? "location" : "locations"}, per garment`)}
         {canEdit ? (
           <div className="flex flex-wrap gap-2">
             <button type="button" className="btn-quiet px-3 py-1" onClick={() => addBreak(m)}>
@@ -190,7 +215,7 @@ export function PriceMatrixEditor({ shopSlug, matrix, canEdit }: { shopSlug: str
     <form onSubmit={onSubmit} noValidate className="space-y-6" data-hydrated={hydrated} aria-label="Price matrix">
       {!canEdit ? <Notice tone="warn">You can see the shop&apos;s prices. Only the owner can change them.</Notice> : null}
 
-      <section className="card grid gap-4 p-5 sm:grid-cols-2 lg:grid-cols-4" aria-label="Terms">
+      <section className="card grid gap-4 p-5 sm:grid-cols-2 lg:grid-cols-5" aria-label="Terms">
         {(
           [
             ["depositPercent", "Deposit to start (%)", "0.01"],
@@ -198,15 +223,23 @@ export function PriceMatrixEditor({ shopSlug, matrix, canEdit }: { shopSlug: str
             ["rushFeePercent", "Rush fee (%)", "0.01"],
           ] as const
         ).map(([path, label, step]) => (
-          <label key={path} className="block">
-            <span className="field-label">{label}</span>
-            <Cell path={path} register={register} errors={errors} initial={initial} label={label} step={step} disabled={disabled} />
-          </label>
+          <div key={path}>
+            <Cell label={label} path={path} register={register} errors={errors} initial={initial} step={step} disabled={disabled} />
+          </div>
         ))}
         <label className="block">
-          <span className="field-label">Blank garment, each</span>
-          <Cell path="garmentCostCents.default" register={register} errors={errors} initial={initial} label="Blank garment cost, dollars" disabled={disabled} prefix="$" />
+          <span className="field-label">Currency</span>
+          <select className="field-input w-full py-1 text-sm" disabled={disabled} {...register("currency")}>
+            {SHOP_CURRENCIES.map((c) => (
+              <option key={c} value={c}>
+                {CURRENCY_NAMES[c]} ({c.toUpperCase()})
+              </option>
+            ))}
+          </select>
         </label>
+        <div>
+            <Cell label="Blank garment, each" path="garmentCostCents.default" register={register} errors={errors} initial={initial} disabled={disabled} money={moneyStyle} />
+          </div>
       </section>
 
       <section className="card space-y-3 p-5" aria-label="Screen print">
@@ -215,10 +248,9 @@ export function PriceMatrixEditor({ shopSlug, matrix, canEdit }: { shopSlug: str
             <h2 className="text-lg">Screen print</h2>
             <p className="text-sm text-ink-600">Price per garment by quantity and ink colours, for each number of print locations. A job is priced at its location count and its most colourful location.</p>
           </div>
-          <label className="block">
-            <span className="field-label">Setup, per screen</span>
-            <Cell path="screenPrint.setupFeePerScreenCents" register={register} errors={errors} initial={initial} label="Setup fee per screen, dollars" disabled={disabled} prefix="$" />
-          </label>
+          <div>
+            <Cell label="Setup, per screen" path="screenPrint.setupFeePerScreenCents" register={register} errors={errors} initial={initial} disabled={disabled} money={moneyStyle} />
+          </div>
         </div>
         <div className="flex flex-wrap gap-1" role="tablist" aria-label="Number of locations">
           {Array.from({ length: spLocations }, (_, l) => (
@@ -228,7 +260,7 @@ export function PriceMatrixEditor({ shopSlug, matrix, canEdit }: { shopSlug: str
           ))}
         </div>
         <div role="tabpanel">
-          {priceGrid("screenPrint", spColours, "colour", (i, c) => `screenPrint.pricesCents.${i}.${loc}.${c}`, (i, c) => `Screen print, break ${i + 1}, ${loc + 1} locations, ${c + 1} colours, dollars per garment`)}
+          {priceGrid("screenPrint", spColours, "colour", (i, c) => `screenPrint.pricesCents.${i}.${loc}.${c}`, (i, c) => `Screen print, break ${i + 1}, ${loc + 1} ${loc === 0 ? "location" : "locations"}, ${c + 1} ${c === 0 ? "colour" : "colours"}, per garment`)}
         </div>
         {canEdit ? (
           <div className="flex flex-wrap gap-2">
@@ -264,18 +296,15 @@ export function PriceMatrixEditor({ shopSlug, matrix, canEdit }: { shopSlug: str
           </label>
         </fieldset>
         <div className="flex flex-wrap gap-4">
-          <label className="block">
-            <span className="field-label">Cents per in²</span>
-            <Cell path="dtf.centsPerSquareInch" register={register} errors={errors} initial={initial} label="DTF cents per square inch" step="0.01" disabled={disabled} />
-          </label>
-          <label className="block">
-            <span className="field-label">Per inch of sheet</span>
-            <Cell path="dtf.centsPerInchOfSheet" register={register} errors={errors} initial={initial} label="DTF dollars per inch of gang sheet" disabled={disabled} prefix="$" />
-          </label>
-          <label className="block">
-            <span className="field-label">Roll width (in)</span>
-            <Cell path="dtf.rollWidthIn" register={register} errors={errors} initial={initial} label="DTF roll width, inches" step="0.25" disabled={disabled} />
-          </label>
+          <div>
+            <Cell label="Cents per in²" path="dtf.centsPerSquareInch" register={register} errors={errors} initial={initial} step="0.01" disabled={disabled} />
+          </div>
+          <div>
+            <Cell label="Per inch of sheet" path="dtf.centsPerInchOfSheet" register={register} errors={errors} initial={initial} disabled={disabled} money={moneyStyle} />
+          </div>
+          <div>
+            <Cell label="Roll width (in)" path="dtf.rollWidthIn" register={register} errors={errors} initial={initial} step="0.25" disabled={disabled} />
+          </div>
         </div>
       </section>
       {tierTable("dtf", "DTF pressing", "Pressing per garment, on top of the transfers.")}
@@ -297,7 +326,7 @@ export function PriceMatrixEditor({ shopSlug, matrix, canEdit }: { shopSlug: str
                   <option key={s}>{s}</option>
                 ))}
               </select>
-              <Cell path={`sizeUpcharges.${i}.cents`} register={register} errors={errors} initial={initial} label={`Upcharge ${i + 1}, dollars per garment`} disabled={disabled} prefix="$" />
+              <Cell path={`sizeUpcharges.${i}.cents`} register={register} errors={errors} initial={initial} name={`Upcharge ${i + 1}, per garment`} disabled={disabled} money={moneyStyle} />
               {canEdit ? (
                 <button type="button" className="text-xs text-brick-700 hover:underline" onClick={() => update("sizeUpcharges", getValues("sizeUpcharges").filter((_, j) => j !== i))}>
                   Remove

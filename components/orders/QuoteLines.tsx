@@ -1,8 +1,9 @@
-import { formatCents, type Quote } from "@/lib/pricing";
+import { formatMoney } from "@/lib/money";
+import type { Quote } from "@/lib/pricing";
 
 /** A quote's lines and totals, as a table. Notes (total 0) show as plain remarks. */
-export function QuoteLines({ quote, caption }: { quote: Quote; caption?: string }) {
-  const money = (c: number) => formatCents(c, quote.currency);
+export function QuoteLines({ quote, caption, locale }: { quote: Quote; caption?: string; locale?: string | null }) {
+  const money = (c: number) => formatMoney(c, { currency: quote.currency, locale });
   const charges = quote.lines.filter((l) => l.unit !== "note");
   const notes = quote.lines.filter((l) => l.unit === "note");
   return (

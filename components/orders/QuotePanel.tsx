@@ -4,7 +4,8 @@ import { useMutation } from "@tanstack/react-query";
 import { useRouter } from "next/navigation";
 import { useState } from "react";
 import type { QuotePanelData } from "@/app/_server/orders";
-import { formatCents } from "@/lib/pricing";
+import { formatShopDate, formatShopDateTime } from "@/lib/dates";
+import { formatMoney } from "@/lib/money";
 import { MONEY_STATE_LABELS, PAYMENT_KIND_LABELS, type PaymentKind } from "@/lib/quotes";
 import { Notice } from "./Notice";
 import { useHydrated } from "./useHydrated";
@@ -26,7 +27,8 @@ export function QuotePanel({ data, linkToken, canAccept }: { data: QuotePanelDat
   const hydrated = useHydrated();
   const { quote, summary } = data;
   const currency = quote.snapshot.quote.currency;
-  const money = (c: number) => formatCents(c, currency);
+  const clock = data.clock;
+  const money = (c: number) => formatMoney(c, { currency, locale: clock.locale });
   const [fullName, setFullName] = useState("");
   const [confirmed, setConfirmed] = useState(false);
 
@@ -36,8 +38,14 @@ export function QuotePanel({ data, linkToken, canAccept }: { data: QuotePanelDat
   });
   const pay = useMutation({
     mutationFn: (kind: PaymentKind) => post<{ url: string }>(`/api/quotes/${quote.id}/checkout`, { kind, link: linkToken }),
-    onSuccess: ({ url }) => window.location.assign(url),
+    onSuccess: ({ url }) => {
+      setLeaving(true);
+      window.location.assign(url);
+    },
   });
+  // From the click until the payment page has replaced this one: the button says what is happening.
+  const [leaving, setLeaving] = useState(false);
+  const opening = pay.isPending || leaving ? pay.variables : undefined;
 
   const job = quote.snapshot.job;
   return (
@@ -52,7 +60,7 @@ export function QuotePanel({ data, linkToken, canAccept }: { data: QuotePanelDat
         {job.garmentName ? `${job.garmentName}${job.garmentColour ? `, ${job.garmentColour}` : ""}. ` : ""}
         {job.locations.map((l) => l.label).join(", ")}. {job.sizeRun.map((r) => `${r.size} × ${r.quantity}`).join(", ")}.
       </p>
-      <QuoteLines quote={quote.snapshot.quote} />
+      <QuoteLines quote={quote.snapshot.quote} locale={clock.locale} />
 
       {summary.state === "quote-sent" ? (
         canAccept ? (
@@ -91,7 +99,7 @@ export function QuotePanel({ data, linkToken, canAccept }: { data: QuotePanelDat
         <div className="space-y-3">
           <p className="text-sm text-ink-600">
             Accepted by {quote.acceptedName}
-            {quote.acceptedAt ? ` on ${new Date(quote.acceptedAt).toLocaleString("en-US", { dateStyle: "medium", timeStyle: "short" })}` : ""}.
+            {quote.acceptedAt ? ` on ${formatShopDateTime(new Date(quote.acceptedAt), clock)}` : ""}.
           </p>
           <dl className="grid grid-cols-2 gap-2 text-center text-sm">
             <div className="rounded-lg bg-patina-50 p-2">
@@ -111,10 +119,14 @@ export function QuotePanel({ data, linkToken, canAccept }: { data: QuotePanelDat
             data.paymentsReady ? (
               <div className="flex flex-wrap gap-2">
                 {summary.payable.map((p, i) => (
-                  <button key={p.kind} type="button" className={i === 0 ? "btn-primary" : "btn-quiet"} disabled={pay.isPending} onClick={() => pay.mutate(p.kind)}>
+                  <button key={p.kind} type="button" className={`${i === 0 ? "btn-primary" : "btn-quiet"} inline-flex items-center gap-2`} disabled={opening !== undefined} aria-busy={opening === p.kind || undefined} onClick={() => pay.mutate(p.kind)}>
+                    {opening === p.kind ? <span aria-hidden className="size-3.5 animate-spin rounded-full border-2 border-current border-r-transparent" /> : null}
                     Pay {PAYMENT_KIND_LABELS[p.kind].toLowerCase()}: {money(p.amountCents)}
                   </button>
                 ))}
+                <p role="status" className="basis-full text-sm text-ink-600" data-testid="pay-progress">
+                  {opening ? "Opening the secure payment page…" : ""}
+                </p>
               </div>
             ) : (
               <p className="text-sm text-ink-600">Online payment is not set up for this shop. Contact them to pay.</p>
@@ -125,7 +137,7 @@ export function QuotePanel({ data, linkToken, canAccept }: { data: QuotePanelDat
             <ul className="text-sm text-ink-600">
               {data.payments.map((p) => (
                 <li key={p.id}>
-                  {PAYMENT_KIND_LABELS[p.kind]} of {money(p.amountCents)} paid {p.paidAt ? new Date(p.paidAt).toLocaleDateString("en-US", { dateStyle: "medium" }) : ""}
+                  {PAYMENT_KIND_LABELS[p.kind]} of {money(p.amountCents)} paid {p.paidAt ? formatShopDate(new Date(p.paidAt), clock) : ""}
                 </li>
               ))}
             </ul>

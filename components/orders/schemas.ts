@@ -2,6 +2,7 @@
 import { z } from "zod";
 import { DECORATION_METHODS, JOB_STATUSES } from "@/lib/jobs";
 import { printLocationsSchema, sizeRunSchema } from "@/lib/quotes";
+import { isCalendarDay } from "@/lib/dates";
 
 const optionalText = (max: number) =>
   z
@@ -39,10 +40,6 @@ const isoDate = z
   // PostgreSQL's date refuses both that and year 0000.
   .refine((v) => v === null || (/^\d{4}-\d{2}-\d{2}$/.test(v) && !v.startsWith("0000") && isCalendarDay(v)), "Enter a date as YYYY-MM-DD");
 
-function isCalendarDay(v: string): boolean {
-  const time = Date.parse(`${v}T00:00:00Z`);
-  return !Number.isNaN(time) && new Date(time).toISOString().slice(0, 10) === v;
-}
 
 export const jobFormSchema = z
   .object({

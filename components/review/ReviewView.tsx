@@ -15,6 +15,7 @@ import { APPROVAL_STATEMENT } from "@/lib/review/approval";
 import type { RevisionSnapshot } from "@/lib/review/diff";
 import { PinMover } from "./PinMover";
 import { formatLength, type LengthUnit } from "@/lib/units";
+import { formatShopDateTime, type ShopClock } from "@/lib/dates";
 
 type Comment = {
   id: string;
@@ -39,6 +40,8 @@ export type ReviewViewProps = {
   reviewKind: "link" | "proof";
   reviewKey: string;
   shopName: string;
+  /** The shop's locale and time zone: dates read as the shop writes them. */
+  clock: ShopClock;
   jobTitle: string;
   proofName: string;
   snapshot: RevisionSnapshot;
@@ -352,11 +355,12 @@ export function ReviewView(props: ReviewViewProps) {
               decided={!!decided}
               approval={latestApproval ?? null}
               defaultName={props.viewerName ?? ""}
+              clock={props.clock}
               onDone={() => client.invalidateQueries({ queryKey: ["review", props.reviewKind, props.reviewKey] })}
             />
           ) : revision && decided && latestApproval ? (
             <p className="card p-4 text-sm">
-              {latestApproval.decision === "approved" ? "Approved" : "Changes asked for"} by {latestApproval.fullName} on {new Date(latestApproval.at).toLocaleString("en-US")}.
+              {latestApproval.decision === "approved" ? "Approved" : "Changes asked for"} by {latestApproval.fullName} on {formatShopDateTime(new Date(latestApproval.at), props.clock)}.
             </p>
           ) : null}
         </aside>
@@ -503,7 +507,7 @@ function ReplyBox({ onSend }: { onSend: (body: string) => Promise<unknown> }) {
   );
 }
 
-function DecisionPanel(props: { base: string; letter: string; decided: boolean; approval: { decision: string; fullName: string; at: string } | null; defaultName: string; onDone: () => void }) {
+function DecisionPanel(props: { base: string; letter: string; decided: boolean; approval: { decision: string; fullName: string; at: string } | null; defaultName: string; clock: ShopClock; onDone: () => void }) {
   const [mode, setMode] = useState<"approve" | "changes">("approve");
   const [name, setName] = useState(props.defaultName);
   const [confirmed, setConfirmed] = useState(false);
@@ -515,7 +519,7 @@ function DecisionPanel(props: { base: string; letter: string; decided: boolean; 
       <section className="card border-patina-300 p-4 text-sm" aria-label="Decision" data-testid="decision-done">
         <h2 className="font-semibold">{props.approval.decision === "approved" ? `Revision ${props.letter} approved` : "Changes asked for"}</h2>
         <p className="mt-1 text-ink-700">
-          By {props.approval.fullName}, {new Date(props.approval.at).toLocaleString("en-US")}. {props.approval.decision === "approved" ? "The print shop has been told. This revision is locked." : "The print shop will send a new revision."}
+          By {props.approval.fullName}, {formatShopDateTime(new Date(props.approval.at), props.clock)}. {props.approval.decision === "approved" ? "The print shop has been told. This revision is locked." : "The print shop will send a new revision."}
         </p>
       </section>
     );

@@ -3,12 +3,12 @@ import { and, eq } from "drizzle-orm";
 import { db } from "../client";
 import { clientContacts, clients, memberships, shops, users } from "../schema";
 
-export type ActorMembership = { shopId: string; shopSlug: string; shopName: string; role: "owner" | "designer" | "production" };
+export type ActorMembership = { shopId: string; shopSlug: string; shopName: string; role: "owner" | "designer" | "production"; locale: string; timeZone: string };
 export type ActorContact = { contactId: string; clientId: string; clientName: string; shopId: string; shopSlug: string; shopName: string };
 
 export async function listMemberships({ userId }: { userId: string }): Promise<ActorMembership[]> {
   return db
-    .select({ shopId: shops.id, shopSlug: shops.slug, shopName: shops.name, role: memberships.role })
+    .select({ shopId: shops.id, shopSlug: shops.slug, shopName: shops.name, role: memberships.role, locale: shops.locale, timeZone: shops.timeZone })
     .from(memberships)
     .innerJoin(shops, eq(shops.id, memberships.shopId))
     .where(eq(memberships.userId, userId))

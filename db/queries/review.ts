@@ -193,7 +193,7 @@ export async function shopNotificationRecipients({ shopId }: { shopId: string })
 
 export async function proofContext({ proofId }: { proofId: string }) {
   const [row] = await db
-    .select({ proofId: proofs.id, proofName: proofs.name, revision: proofs.revision, shopId: shops.id, shopSlug: shops.slug, shopName: shops.name, jobId: jobs.id, jobTitle: jobs.title, clientId: clients.id, clientName: clients.name })
+    .select({ proofId: proofs.id, proofName: proofs.name, revision: proofs.revision, shopId: shops.id, shopSlug: shops.slug, shopName: shops.name, locale: shops.locale, timeZone: shops.timeZone, jobId: jobs.id, jobTitle: jobs.title, clientId: clients.id, clientName: clients.name })
     .from(proofs)
     .innerJoin(shops, eq(shops.id, proofs.shopId))
     .innerJoin(jobs, eq(jobs.id, proofs.jobId))

@@ -16,7 +16,7 @@ vi.mock("next/navigation", () => ({ useRouter: () => router }));
 const priceActions = vi.hoisted(() => ({ savePricesAction: vi.fn() }));
 vi.mock("@/app/shops/[shop]/prices/actions", () => priceActions);
 
-const DTG_FIRST = "DTG, break 1, 1 locations, dollars per garment";
+const DTG_FIRST = "DTG, break 1, 1 location, per garment";
 
 beforeEach(() => {
   priceActions.savePricesAction
@@ -47,13 +47,33 @@ const savedMatrix = () =>
   (priceActions.savePricesAction.mock.calls[0]![0] as { shopSlug: string; matrix: PriceMatrix }).matrix;
 
 describe("PriceMatrixEditor", () => {
-  it("shows money in dollars in cells named by method, break and location count", () => {
+  it("shows money with two decimals in cells named by method, break and location count", () => {
     const { cell } = setup();
     const dtg = screen.getByRole("region", { name: "DTG" });
-    expect(within(dtg).getByLabelText(DTG_FIRST)).toHaveProperty("value", "14");
-    expect(cell("DTG, break 2, 3 locations, dollars per garment")).toHaveProperty("value", "26");
+    expect(within(dtg).getByLabelText(DTG_FIRST)).toHaveProperty("value", "14.00");
+    expect(cell("DTG, break 2, 3 locations, per garment")).toHaveProperty("value", "26.00");
     expect(cell("Deposit to start (%)")).toHaveProperty("value", "50");
-    expect(cell("Setup fee per screen, dollars")).toHaveProperty("value", "25");
+    // A visible label is the field's accessible name, word for word.
+    expect(cell("Setup, per screen")).toHaveProperty("value", "25.00");
+    expect(cell("Blank garment, each")).toHaveProperty("value", (DEFAULT_PRICE_MATRIX.garmentCostCents.default / 100).toFixed(2));
+    expect(cell("Per inch of sheet")).toHaveProperty("value", (DEFAULT_PRICE_MATRIX.dtf.centsPerInchOfSheet / 100).toFixed(2));
+  });
+
+  it("writes a typed price back with two decimals when the field is left", async () => {
+    const { user, cell } = setup();
+    await user.clear(cell(DTG_FIRST));
+    await user.type(cell(DTG_FIRST), "4.5");
+    await user.tab();
+    expect(cell(DTG_FIRST)).toHaveProperty("value", "4.50");
+  });
+
+  it("prices in the currency the shop picks, with its sign on every money field", async () => {
+    const { user, cell } = setup();
+    await user.selectOptions(cell("Currency"), "gbp");
+    expect(within(screen.getByRole("region", { name: "Terms" })).getAllByText("£").length).toBeGreaterThan(0);
+    await save(user);
+    await waitFor(() => expect(priceActions.savePricesAction).toHaveBeenCalledTimes(1));
+    expect(savedMatrix().currency).toBe("gbp");
   });
 
   it("saves an edited cell in cents and says the prices are saved", async () => {
@@ -108,7 +128,7 @@ describe("PriceMatrixEditor", () => {
     });
     const { user, cell } = setup();
     await save(user);
-    const htv = cell("HTV, break 2, 1 locations, dollars per garment");
+    const htv = cell("HTV, break 2, 1 location, per garment");
     await waitFor(() => expect(htv.getAttribute("aria-invalid")).toBe("true"));
     expect(description(htv)).toBe("Too big for one garment");
     expect(screen.getByRole("alert").textContent).toBe("Some prices need fixing; see the highlighted cells.");
@@ -130,12 +150,12 @@ describe("PriceMatrixEditor", () => {
   it("adds a quantity break to a table", async () => {
     const { user } = setup();
     const htv = screen.getByRole("region", { name: "HTV" });
-    expect(within(htv).queryByLabelText("HTV, break 5, 1 locations, dollars per garment")).toBeNull();
+    expect(within(htv).queryByLabelText("HTV, break 5, 1 location, per garment")).toBeNull();
     await user.click(within(htv).getByRole("button", { name: "+ Break" }));
     expect(within(htv).getByLabelText("Quantity break 5")).toHaveProperty("value", "96");
-    expect(within(htv).getByLabelText("HTV, break 5, 1 locations, dollars per garment")).toHaveProperty(
+    expect(within(htv).getByLabelText("HTV, break 5, 1 location, per garment")).toHaveProperty(
       "value",
-      "5",
+      "5.00",
     );
   });
 
@@ -145,7 +165,7 @@ describe("PriceMatrixEditor", () => {
     expect(within(tabs).getByRole("tab", { name: "1 location" }).getAttribute("aria-selected")).toBe("true");
     await user.click(within(tabs).getByRole("tab", { name: "2 locations" }));
     expect(within(tabs).getByRole("tab", { name: "2 locations" }).getAttribute("aria-selected")).toBe("true");
-    expect(cell("Screen print, break 1, 2 locations, 1 colours, dollars per garment")).toBeTruthy();
+    expect(cell("Screen print, break 1, 2 locations, 1 colour, per garment")).toBeTruthy();
   });
 
   it("shows prices read-only to someone who may not change them", () => {

@@ -45,7 +45,7 @@ const DEPOSIT = "$197.40";
 type Paid = Array<{ amountCents: number; paidAt: string }>;
 function panelData(
   state: "sent" | "accepted",
-  opts: { paid?: Paid; paymentsReady?: boolean } = {},
+  opts: { paid?: Paid; paymentsReady?: boolean; clock?: QuotePanelData["clock"] } = {},
 ): QuotePanelData {
   const paid = opts.paid ?? [];
   return {
@@ -70,6 +70,7 @@ function panelData(
       paidAt: p.paidAt,
     })),
     paymentsReady: opts.paymentsReady ?? true,
+    clock: opts.clock ?? { locale: "en-US", timeZone: "America/Chicago" },
   };
 }
 
@@ -188,6 +189,32 @@ describe("QuotePanel pay buttons", () => {
     expect(server.sent("POST")).toEqual([
       { url: CHECKOUT, method: "POST", body: { kind: "deposit", link: "tok-Qx81" } },
     ]);
+  });
+
+  it("says the payment page is opening, and holds the buttons, from the click until it has opened", async () => {
+    let release!: () => void;
+    const held = new Promise<void>((r) => (release = r));
+    const checkoutPage = `${window.location.origin}/#checkout-cs-slow`;
+    fakeFetch([{ method: "POST", url: CHECKOUT, reply: async () => (await held, { json: { url: checkoutPage } }) }]);
+    renderWithQuery(<QuotePanel data={panelData("accepted")} canAccept />);
+    const user = userEvent.setup();
+    const deposit = screen.getByRole("button", { name: `Pay deposit: ${DEPOSIT}` });
+    await user.click(deposit);
+    expect(screen.getByRole("status").textContent).toBe("Opening the secure payment page…");
+    expect(deposit.getAttribute("aria-busy")).toBe("true");
+    expect(screen.getByRole("button", { name: `Pay full amount: ${TOTAL}` })).toHaveProperty("disabled", true);
+    release();
+    await waitFor(() => expect(window.location.href).toBe(checkoutPage));
+  });
+
+  it("dates the acceptance on the shop's clock, in its locale", () => {
+    // 2026-06-03T16:20Z is 11:20 in Chicago (CDT, UTC−5) and 18:20 in Berlin (CEST, UTC+2): IANA tz database.
+    const { unmount } = renderWithQuery(<QuotePanel data={panelData("accepted")} canAccept />);
+    expect(screen.getByText(/^Accepted by Marisol Endicott on /).textContent).toBe("Accepted by Marisol Endicott on Jun 3, 2026, 11:20 AM CDT.");
+    unmount();
+    renderWithQuery(<QuotePanel data={panelData("accepted", { clock: { locale: "de-DE", timeZone: "Europe/Berlin" } })} canAccept />);
+    expect(screen.getByText(/^Accepted by Marisol Endicott on /).textContent).toMatch(/^Accepted by Marisol Endicott on 3\. Juni 2026, 18:20 MESZ\.$/);
+    expect(screen.getByTestId("client-balance").textContent).toBe("394,79\u00a0$");
   });
 
   it("shows why a payment could not start", async () => {

@@ -35,6 +35,7 @@ function props(over: Partial<ReviewViewProps> = {}): ReviewViewProps {
     reviewKind: "link",
     reviewKey: "tok-9Rw4",
     shopName: "Bramble Press",
+    clock: { locale: "en-US", timeZone: "America/Chicago" },
     jobTitle: "Regatta crew shirts",
     proofName: "Front and back",
     snapshot: {

@@ -195,16 +195,16 @@ describe("orders, quotes and payments", () => {
     await page.goto(`/shops/${demo.slug}/prices`);
     await ready(page);
     await page.getByLabel("Deposit to start (%)").fill("40");
-    await page.getByLabel("DTG, break 1, 1 locations, dollars per garment").fill("");
+    await page.getByLabel("DTG, break 1, 1 location, per garment").fill("");
     await page.getByRole("button", { name: "Save prices" }).click();
     await page.getByText(/Some prices need fixing/).waitFor();
-    await page.getByLabel("DTG, break 1, 1 locations, dollars per garment").fill("15.50");
+    await page.getByLabel("DTG, break 1, 1 location, per garment").fill("15.50");
     await page.getByRole("button", { name: "Save prices" }).click();
     await page.getByText(/Prices saved/).waitFor();
     await page.reload();
     await ready(page);
     expect(await page.getByLabel("Deposit to start (%)").inputValue()).toBe("40");
-    expect(await page.getByLabel("DTG, break 1, 1 locations, dollars per garment").inputValue()).toBe("15.5");
+    expect(await page.getByLabel("DTG, break 1, 1 location, per garment").inputValue()).toBe("15.50");
     // Put the demo deposit back for the other tests.
     await page.getByLabel("Deposit to start (%)").fill("50");
     await page.getByRole("button", { name: "Save prices" }).click();

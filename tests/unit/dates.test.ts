@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { formatShopDate, formatShopDateTime, isKnownLocale, isKnownTimeZone } from "@/lib/dates";
+import { fileDateStamp, fileTimeStamp, formatShopDate, formatShopDateTime, formatShopTime, isCalendarDay, isKnownLocale, isKnownTimeZone } from "@/lib/dates";
 
 // Expected strings are what ECMA-402 Intl with the CLDR data in Node 20's ICU writes for these
 // locales (reference library: the platform's Intl). 2026-12-04T00:56:27Z is 18:56 on Dec 3 in
@@ -29,5 +29,29 @@ describe("dates in the shop's clock", () => {
     expect(isKnownTimeZone("America/Chicago")).toBe(true);
     expect(isKnownLocale("en-GB")).toBe(true);
     expect(formatShopDateTime(AT, { locale: "en-US", timeZone: "Mars/Olympus_Mons" })).toContain("UTC");
+  });
+
+  it("stamps file names with the shop's own day and time, ISO 8601 order (sorts in any locale)", () => {
+    expect(fileDateStamp(AT, { timeZone: "America/Chicago" })).toBe("2026-12-03");
+    expect(fileDateStamp(AT, { timeZone: "UTC" })).toBe("2026-12-04");
+    expect(fileTimeStamp(AT, { timeZone: "America/Chicago" })).toBe("2026-12-03-1856");
+    expect(fileTimeStamp(AT, { timeZone: "UTC" })).toBe("2026-12-04-0056");
+  });
+
+  it("writes a time of day on the shop's clock", () => {
+    expect(formatShopTime(AT, { locale: "en-US", timeZone: "America/Chicago" }).replace(/\u202f/g, " ")).toBe("6:56 PM");
+    expect(formatShopTime(AT, { locale: "en-GB", timeZone: "Europe/London" })).toBe("00:56");
+  });
+
+  // Gregorian calendar rules: February has 28 days, 29 in a leap year (2028 is one, 2027 is not).
+  it.each([
+    ["2027-02-28", true],
+    ["2027-02-29", false],
+    ["2028-02-29", true],
+    ["2027-02-31", false],
+    ["2027-13-01", false],
+    ["27-02-01", false],
+  ])("%s is a calendar day: %s", (v, ok) => {
+    expect(isCalendarDay(v)).toBe(ok);
   });
 });

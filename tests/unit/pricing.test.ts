@@ -670,7 +670,7 @@ describe("price matrix", () => {
         ],
       },
     },
-    { name: "another currency", patch: { currency: "eur" } },
+    { name: "a currency the shop cannot choose", patch: { currency: "jpy" } },
   ])("rejects $name", ({ patch }) => {
     const bad = { ...TEST_MATRIX, ...patch };
     expect(pricingErrorCode(() => parsePriceMatrix(bad))).toBe("invalid-matrix");
@@ -700,8 +700,12 @@ describe("formatCents", () => {
     expect(formatCents(cents, "usd")).toBe(expected);
   });
 
-  it("writes other currencies with their code", () => {
-    expect(formatCents(123456, "eur")).toBe("1,234.56 EUR");
+  // Expected texts from ECMA-402 Intl.NumberFormat with Node's bundled CLDR data (the reference library).
+  it("writes other currencies in the shop's locale, two decimals always", () => {
+    expect(formatCents(123456, "eur")).toBe("€1,234.56");
+    expect(formatCents(123456, "eur", "de-DE")).toBe("1.234,56\u00a0€");
+    expect(formatCents(450, "gbp", "en-GB")).toBe("£4.50");
+    expect(formatCents(1100, "cad", "en-CA")).toBe("$11.00");
   });
 });
 

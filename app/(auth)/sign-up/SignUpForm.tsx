@@ -9,6 +9,7 @@ import { useForm } from "react-hook-form";
 import { z } from "zod";
 import { checkEmailPath } from "@/lib/sign-in-paths";
 import { signUpAction } from "./actions";
+import { browserClock } from "@/lib/dates";
 
 const schema = z.object({
   shopName: z.string().trim().min(2, "Give your shop a name of at least 2 characters."),
@@ -30,7 +31,7 @@ export function SignUpForm() {
 
   const onSubmit = handleSubmit(async (values) => {
     setError(undefined);
-    const clock = Intl.DateTimeFormat().resolvedOptions();
+    const clock = browserClock();
     const result = await signUpAction({ ...values, timeZone: clock.timeZone, locale: clock.locale });
     if (!result.ok) {
       setError(result.error);

@@ -3,6 +3,7 @@ import { fileTypeFromBuffer } from "file-type";
 import sharp, { type Metadata, type OutputInfo, type Sharp } from "sharp";
 import { classifyShape, type ArtShape } from "@/lib/artwork/advice";
 import { sanitizeSvg } from "./sanitize-svg";
+import { formatCount } from "@/lib/units";
 
 /** Limits for uploads. 64 MB as the product promises; the pixel cap stops decompression bombs (our own bound, ~ a 12 × 12 in print at 800 ppi). */
 export const MAX_UPLOAD_BYTES = 64 * 1024 * 1024;
@@ -235,7 +236,7 @@ export async function analyzeArtwork(bytes: Buffer, declared: { name: string; ty
   if (width * height > MAX_INPUT_PIXELS) {
     return {
       ok: false,
-      message: `This image is ${width.toLocaleString("en-US")} × ${height.toLocaleString("en-US")} pixels (${Math.round((width * height) / 1e6)} megapixels), over the ${MAX_INPUT_PIXELS / 1e6} megapixel limit. Resize it before uploading.`,
+      message: `This image is ${formatCount(width)} × ${formatCount(height)} pixels (${Math.round((width * height) / 1e6)} megapixels), over the ${MAX_INPUT_PIXELS / 1e6} megapixel limit. Resize it before uploading.`,
     };
   }
 

@@ -4,7 +4,7 @@ import { availableParallelism } from "node:os";
 import { crc32, createDeflate } from "node:zlib";
 import { PDFDocument, PDFName, PDFNumber, type PDFPage, type PDFRef } from "pdf-lib";
 import sharp, { type Metadata, type OverlayOptions, type Sharp } from "sharp";
-import { PDF_UNITS_PER_INCH } from "@/lib/units";
+import { PDF_UNITS_PER_INCH, formatCount } from "@/lib/units";
 import { drawClippedImage, embedRgbaPixelsAsync } from "./test-print";
 
 /**
@@ -215,7 +215,7 @@ function prepare(input: RenderGangSheetsInput): Prepared {
     const total = widthPx * heightPx;
     if (total > MAX_SHEET_PIXELS) {
       throw new RangeError(
-        `${several ? `Sheet ${s + 1}` : "This sheet"} would be ${widthPx.toLocaleString("en-US")} x ${heightPx.toLocaleString("en-US")} px (${Math.round(total / 1e6)} megapixels), over the ${MAX_SHEET_PIXELS / 1e6} megapixel limit. Split it into shorter sheets or lower the resolution.`,
+        `${several ? `Sheet ${s + 1}` : "This sheet"} would be ${formatCount(widthPx)} x ${formatCount(heightPx)} px (${Math.round(total / 1e6)} megapixels), over the ${MAX_SHEET_PIXELS / 1e6} megapixel limit. Split it into shorter sheets or lower the resolution.`,
       );
     }
     const jobs = sheet.placements.map((p, index): Job => {

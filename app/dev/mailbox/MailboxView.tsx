@@ -1,6 +1,7 @@
 "use client";
 
 import { useState } from "react";
+import { formatShopDateTime } from "@/lib/dates";
 
 export type CaughtMessage = { id: string; date: string; from: string; to: string[]; subject: string; text: string; html: string | null };
 
@@ -25,7 +26,7 @@ export function MailboxView({ messages }: { messages: CaughtMessage[] }) {
                 {m.subject}
               </span>
               <span className="block truncate text-xs text-ink-500">to {m.to.join(", ")}</span>
-              <span className="block text-xs text-ink-400">{new Date(m.date).toLocaleString("en-US")}</span>
+              <span className="block text-xs text-ink-400">{formatShopDateTime(new Date(m.date))}</span>
             </button>
           </li>
         ))}

@@ -6,6 +6,7 @@ import { listAudit } from "@/db/queries/audit";
 import { shopOverview } from "@/db/queries/shops";
 import { can } from "@/lib/access";
 import { describeAudit } from "@/lib/audit-text";
+import { formatShopDateTime } from "@/lib/dates";
 
 export const dynamic = "force-dynamic";
 
@@ -37,7 +38,7 @@ export default async function ShopOverviewPage({ params }: { params: Promise<{ s
               <li key={entry.id} className="flex flex-wrap items-baseline justify-between gap-2 px-4 py-3 text-sm">
                 <span className="text-ink-800">{describeAudit(entry.action, entry.detail ?? undefined)}</span>
                 <time className="text-xs text-ink-500" dateTime={entry.at.toISOString()}>
-                  {entry.at.toLocaleString("en-US", { dateStyle: "medium", timeStyle: "short" })}
+                  {formatShopDateTime(entry.at, access.shop.clock)}
                 </time>
               </li>
             ))}

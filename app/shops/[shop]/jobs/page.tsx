@@ -8,6 +8,9 @@ import { listJobs } from "@/db/queries/jobs";
 import { can } from "@/lib/access";
 import { JOB_STATUSES, type JobStatus } from "@/lib/jobs";
 import { moneySummary } from "@/lib/quotes";
+import { loadPriceMatrix } from "@/app/_server/orders";
+import { formatShopDate } from "@/lib/dates";
+import { formatMoney } from "@/lib/money";
 
 export const dynamic = "force-dynamic";
 export const metadata = { title: "Jobs" };
@@ -16,8 +19,10 @@ export default async function JobsPage({ params, searchParams }: { params: Promi
   const { shop } = await params;
   const board = (await searchParams).view === "board";
   const access = await requireShopPage(shop, "jobs.view", `/shops/${shop}/jobs`);
-  const jobs = await listJobs({ shopId: access.shop.id });
   const seesMoney = can(access.role, "prices.view");
+  const [jobs, prices] = await Promise.all([listJobs({ shopId: access.shop.id }), seesMoney ? loadPriceMatrix(access.shop.id) : null]);
+  const clock = access.shop.clock;
+  const cash = (cents: number) => formatMoney(cents, { currency: prices?.matrix.currency, locale: clock.locale });
   const rows: JobRow[] = jobs.map((j) => {
     const summary = moneySummary({ quote: j.money.quote, payments: j.money.paid ? [{ state: "paid", amountCents: j.money.paid }] : [] });
     return {
@@ -26,13 +31,14 @@ export default async function JobsPage({ params, searchParams }: { params: Promi
       status: j.status,
       method: j.method,
       dueDate: j.dueDate,
+      dueLabel: j.dueDate ? formatShopDate(j.dueDate, clock) : null,
       rush: j.rush,
       clientId: j.clientId,
       clientName: j.clientName,
       garment: j.garmentName,
       quantity: j.sizeRun.reduce((s, r) => s + r.quantity, 0),
       sizeRun: j.sizeRun,
-      ...(seesMoney ? { money: { state: summary.state, totalCents: summary.totalCents, paidCents: summary.paidCents, balanceCents: summary.balanceCents } } : {}),
+      ...(seesMoney ? { money: { state: summary.state, totalCents: summary.totalCents, paidCents: summary.paidCents, balanceCents: summary.balanceCents, totalText: cash(summary.totalCents), balanceText: cash(summary.balanceCents) } } : {}),
     };
   });
   const movable: readonly JobStatus[] = can(access.role, "jobs.edit") ? JOB_STATUSES : access.role === "production" ? ["cleared", "on-press", "packed", "collected"] : [];
@@ -64,7 +70,7 @@ export default async function JobsPage({ params, searchParams }: { params: Promi
       ) : board ? (
         <JobBoard shopSlug={shop} rows={rows} movable={movable} />
       ) : (
-        <JobTable shopSlug={shop} rows={rows} />
+        <JobTable shopSlug={shop} rows={rows} clock={clock} />
       )}
     </>
   );

@@ -4,6 +4,7 @@ import { Notice } from "@/components/orders/Notice";
 import { PriceMatrixEditor } from "@/components/orders/PriceMatrixEditor";
 import { PageHeader } from "@/components/ui/PageHeader";
 import { can } from "@/lib/access";
+import { formatShopDateTime } from "@/lib/dates";
 
 export const dynamic = "force-dynamic";
 export const metadata = { title: "Prices" };
@@ -18,7 +19,7 @@ export default async function PricesPage({ params }: { params: Promise<{ shop: s
         title="Prices"
         lead={
           prices.updatedAt
-            ? `Last saved ${prices.updatedAt.toLocaleString("en-US", { dateStyle: "medium", timeStyle: "short" })}. Quotes already sent keep the numbers they were sent with.`
+            ? `Last saved ${formatShopDateTime(prices.updatedAt, access.shop.clock)}. Quotes already sent keep the numbers they were sent with.`
             : "These are demo prices, invented for a new shop. Replace them with your own before you send quotes."
         }
       />
@@ -27,7 +28,7 @@ export default async function PricesPage({ params }: { params: Promise<{ shop: s
           <Notice tone="warn">{prices.problem}</Notice>
         </div>
       ) : null}
-      <PriceMatrixEditor shopSlug={shop} matrix={prices.matrix} canEdit={can(access.role, "prices.edit")} />
+      <PriceMatrixEditor shopSlug={shop} matrix={prices.matrix} canEdit={can(access.role, "prices.edit")} locale={access.shop.clock.locale} />
     </>
   );
 }

@@ -34,11 +34,14 @@ import {
 } from "@/lib/garments/types";
 import { CM_PER_INCH, parseLength, type LengthUnit } from "@/lib/units";
 import { updateBlankAction } from "../actions";
+import { formatShopTime, type ShopClock } from "@/lib/dates";
 
 type SizeField = FieldArrayWithId<BlankFormValues, "sizes", "key">;
 type Notice = { tone: "ok" | "error"; text: string };
 
 export interface BlankEditorProps {
+  /** The shop's locale and time zone, for "Saved at …". */
+  clock?: ShopClock;
   shopSlug: string;
   blankId: string;
   category: GarmentCategory;
@@ -47,7 +50,7 @@ export interface BlankEditorProps {
   intro?: ReactNode;
 }
 
-export function BlankEditor({ shopSlug, blankId, category, initial, intro }: BlankEditorProps) {
+export function BlankEditor({ shopSlug, blankId, category, initial, intro, clock = {} }: BlankEditorProps) {
   const formId = useId();
   const schema = useMemo(() => blankFormSchemaFor(category), [category]);
   const measurementsSchema = useMemo(() => sizeRowSchemaFor(category).shape.measurements, [category]);
@@ -100,10 +103,7 @@ export function BlankEditor({ shopSlug, blankId, category, initial, intro }: Bla
           return;
         }
         reset(values);
-        const at = new Date(result.data.updatedAt).toLocaleTimeString("en-US", {
-          hour: "numeric",
-          minute: "2-digit",
-        });
+        const at = formatShopTime(new Date(result.data.updatedAt), clock);
         setNotice({ tone: "ok", text: `Saved at ${at}.` });
       } catch (err) {
         unstable_rethrow(err);

@@ -130,6 +130,7 @@ export default async function BlankPage({ params, searchParams }: Props) {
       {editable ? (
         <BlankEditor
           shopSlug={access.shop.slug}
+          clock={access.shop.clock}
           blankId={blank.id}
           category={blank.category}
           initial={initial}

@@ -17,7 +17,8 @@ import { listJobDecisions } from "@/db/queries/review";
 import { can } from "@/lib/access";
 import { LOCATION_LABELS } from "@/lib/garments/locations";
 import { DECORATION_LABELS } from "@/lib/jobs";
-import { formatCents } from "@/lib/pricing";
+import { formatShopDate, formatShopDateTime } from "@/lib/dates";
+import { formatMoney } from "@/lib/money";
 import { listProofPrints } from "@/db/queries/proof-prints";
 import { compareQuoteToProofs } from "@/lib/quote-check";
 import { MONEY_STATE_LABELS, quoteJob, sizeRunTotals, SIZE_GROUPS } from "@/lib/quotes";
@@ -28,6 +29,7 @@ export const metadata = { title: "Job" };
 export default async function JobPage({ params }: { params: Promise<{ shop: string; jobId: string }> }) {
   const { shop, jobId } = await params;
   const access = await requireShopPage(shop, "jobs.view", `/shops/${shop}/jobs/${jobId}`);
+  const clock = access.shop.clock;
   const detail = await findJobDetail({ shopId: access.shop.id, jobId });
   if (!detail) notFound();
   const { job, client, blank, sizeRun } = detail;
@@ -41,6 +43,7 @@ export default async function JobPage({ params }: { params: Promise<{ shop: stri
     seesMoney ? loadPriceMatrix(access.shop.id) : null,
     canMakeProofs ? listBlanks({ shopId: access.shop.id }) : [],
   ]);
+  const cash = (cents: number) => formatMoney(cents, { currency: money?.quote?.snapshot.quote.currency, locale: clock.locale });
   const changedAfterApproval = proofs.filter((p) => !p.archivedAt && proofStanding(p).changedAfterApproval);
   const live = prices ? quoteJob({ ...job, sizeRun, garmentName: blank?.name ?? null }, prices.matrix, { taxExempt: client.taxExempt }) : null;
   // The quote follows the proof: the price today against every proof (working ones too), and the
@@ -66,7 +69,7 @@ export default async function JobPage({ params }: { params: Promise<{ shop: stri
         lead={
           <>
             {DECORATION_LABELS[job.method]}
-            {job.dueDate ? ` · due ${job.dueDate}` : ""}
+            {job.dueDate ? ` · due ${formatShopDate(job.dueDate, clock)}` : ""}
           </>
         }
         actions={
@@ -118,7 +121,7 @@ export default async function JobPage({ params }: { params: Promise<{ shop: stri
             </div>
             <div>
               <dt className="text-ink-500">Timing</dt>
-              <dd>{job.rush ? "Rush" : "Standard"}{job.dueDate ? `, due ${job.dueDate}` : ""}</dd>
+              <dd>{job.rush ? "Rush" : "Standard"}{job.dueDate ? `, due ${formatShopDate(job.dueDate, clock)}` : ""}</dd>
             </div>
             {job.method === "dtf" ? (
               <div>
@@ -169,23 +172,23 @@ export default async function JobPage({ params }: { params: Promise<{ shop: stri
             {money.quote ? (
               <div className="space-y-1 text-sm">
                 <p>
-                  Quote Q{money.quote.number} {money.quote.state === "accepted" ? `accepted by ${money.quote.acceptedName} on ${money.quote.acceptedAt?.toLocaleString("en-US", { dateStyle: "medium", timeStyle: "short" })}` : `sent ${money.quote.sentAt.toLocaleString("en-US", { dateStyle: "medium", timeStyle: "short" })}, not yet accepted`}.
+                  Quote Q{money.quote.number} {money.quote.state === "accepted" ? `accepted by ${money.quote.acceptedName} on ${(money.quote.acceptedAt ? formatShopDateTime(money.quote.acceptedAt, clock) : "")}` : `sent ${formatShopDateTime(money.quote.sentAt, clock)}, not yet accepted`}.
                 </p>
                 <dl className="grid grid-cols-3 gap-2 pt-2 text-center">
                   <div className="rounded-lg bg-paper-100 p-2">
                     <dt className="text-xs text-ink-500">Total</dt>
-                    <dd className="measure font-semibold">{formatCents(money.summary.totalCents)}</dd>
+                    <dd className="measure font-semibold">{cash(money.summary.totalCents)}</dd>
                   </div>
                   <div className="rounded-lg bg-patina-50 p-2">
                     <dt className="text-xs text-ink-500">Paid</dt>
                     <dd className="measure font-semibold" data-testid="paid-amount">
-                      {formatCents(money.summary.paidCents)}
+                      {cash(money.summary.paidCents)}
                     </dd>
                   </div>
                   <div className="rounded-lg bg-ochre-50 p-2">
                     <dt className="text-xs text-ink-500">Balance due</dt>
                     <dd className="measure font-semibold" data-testid="balance-due">
-                      {formatCents(money.summary.balanceCents)}
+                      {cash(money.summary.balanceCents)}
                     </dd>
                   </div>
                 </dl>
@@ -215,7 +218,7 @@ export default async function JobPage({ params }: { params: Promise<{ shop: stri
               <details open={!money.quote} className="rounded-lg border border-paper-300 p-3">
                 <summary className="cursor-pointer text-sm font-medium">{money.quote ? "Price from the matrix today" : "Lines"}</summary>
                 <div className="mt-2">
-                  <QuoteLines quote={live.quote} />
+                  <QuoteLines quote={live.quote} locale={clock.locale} />
                 </div>
               </details>
             ) : (
@@ -225,7 +228,7 @@ export default async function JobPage({ params }: { params: Promise<{ shop: stri
             {canEdit && live.ok && money.summary.state !== "paid-in-full" ? <SendQuoteForm shopSlug={shop} jobId={jobId} replaces={money.quote?.number ?? null} mismatches={liveMismatches.map((m) => ({ key: `${m.kind}:${m.location}`, message: m.message, blocking: m.blocking }))} editLocationsHref={editLocationsHref} /> : null}
             <div>
               <h3 className="mb-1 text-sm font-semibold">Payments</h3>
-              <PaymentList payments={money.payments} />
+              <PaymentList payments={money.payments} clock={clock} currency={money.quote?.snapshot.quote.currency} />
             </div>
           </section>
         ) : null}
@@ -263,7 +266,7 @@ export default async function JobPage({ params }: { params: Promise<{ shop: stri
               archived: !!p.archivedAt,
               lastSent: p.lastSent,
               approvedLetter: p.approvedLetter,
-              updatedLabel: p.updatedAt.toLocaleString("en-US", { dateStyle: "medium", timeStyle: "short" }),
+              updatedLabel: formatShopDateTime(p.updatedAt, clock),
             }))}
           />
         </div>
@@ -279,7 +282,7 @@ export default async function JobPage({ params }: { params: Promise<{ shop: stri
                 {d.decision === "approved" ? "Approved" : "Changes asked for"}: {d.proofName}, revision {d.revisionLetter}
               </p>
               <p className="text-ink-600">
-                By {d.fullName} on {d.at.toLocaleString("en-US", { dateStyle: "medium", timeStyle: "medium" })}
+                By {d.fullName} on {formatShopDateTime(d.at, clock)}
                 {d.viaLink ? " through a review link" : " signed in"}
               </p>
               {d.decision === "approved" ? <p className="mt-1 text-xs text-ink-500">“{d.statement}”</p> : null}

@@ -25,6 +25,7 @@ export default async function ProofPage({ params, searchParams }: { params: Prom
   return (
     <ProofEditor
       shopSlug={access.shop.slug}
+      clock={access.shop.clock}
       proof={{ id: document.proof.id, name: document.proof.name, revision: document.proof.revision, version: document.proof.version }}
       job={{ id: document.job.id, title: document.job.title, clientId: document.job.clientId, clientName: document.job.clientName, method: document.job.method as DecorationMethod }}
       blank={{ id: document.blank.id, name: document.blank.name, category: document.blank.category, colours: document.blank.colours, sizeChart: document.blank.sizeChart }}
