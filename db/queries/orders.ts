@@ -160,7 +160,8 @@ async function settle(tx: Tx, change: { paymentId: string; to: "paid" | "lapsed"
       .set({ state: "paid", paidAt: new Date(), paymentIntentId: change.paymentIntentId ?? existing.paymentIntentId, payerEmail: change.payerEmail ?? existing.payerEmail, checkoutSessionId: existing.checkoutSessionId ?? change.sessionId ?? null })
       .where(eq(payments.id, existing.id))
       .returning();
-    await recordAudit({ shopId: existing.shopId, actorLabel: "Payments", action: "payment.received", subjectType: "job", subjectId: existing.jobId, detail: { kind: existing.kind, amountCents: existing.amountCents } }, tx);
+    const [paidQuote] = await tx.select({ snapshot: quotes.snapshot }).from(quotes).where(eq(quotes.id, existing.quoteId)).limit(1);
+    await recordAudit({ shopId: existing.shopId, actorLabel: "Payments", action: "payment.received", subjectType: "job", subjectId: existing.jobId, detail: { kind: existing.kind, amountCents: existing.amountCents, currency: paidQuote?.snapshot.quote.currency ?? "usd" } }, tx);
     return { outcome: "paid", payment: updated };
   }
   if (existing.state !== "awaiting") return { outcome: "unchanged", payment: existing };

@@ -200,7 +200,7 @@ describe("the client about to pay", () => {
     expect(entries).toHaveLength(1);
     expect(entries[0]).toMatchObject({ actorLabel: "review link", detail: { quoteId: r.quoteId, number: 1, missing: ["full back"], via: "checkout" } });
     expect(describeAudit(entries[0]!.action, entries[0]!.detail ?? undefined)).toBe(
-      `The client could not pay quote Q1 for ${r.title}: the proof prints on the full back, which the quote does not bill. Update the job's print locations and send a new quote.`,
+      `The client could not pay quote Q1 on ${r.title}: the proof prints on the full back, which the quote does not bill. Update the job's print locations and send a new quote.`,
     );
   });
 

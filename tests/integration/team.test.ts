@@ -98,7 +98,7 @@ describe("a shop's team, from invitation to removal", () => {
     // This member's entries only: other tests share the shop, in whatever order they run.
     const [roleEntry] = (await auditOf(shop.id, ["member.role-changed"])).filter((e) => e.subjectId === member.id);
     expect(roleEntry).toMatchObject({ actorUserId: shop.owner.id, subjectType: "membership", subjectId: member.id, detail: { email, from: "designer", role: "production" } });
-    expect(describeAudit(roleEntry!.action, roleEntry!.detail ?? {})).toBe(`The role of ${email} changed from designer to production.`);
+    expect(describeAudit(roleEntry!.action, roleEntry!.detail ?? {})).toBe(`Someone made ${email} production (was a designer) on the team.`);
 
     const removed = await as(shop.owner, () => removeMemberAction({ shopSlug: shop.slug, memberId: member.id }));
     expect(removed).toMatchObject({ ok: true, data: { self: false, message: "Juno Park is no longer on the team." } });

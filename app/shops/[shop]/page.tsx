@@ -2,10 +2,10 @@ import Link from "next/link";
 import { requireShopPage } from "@/app/_server/access";
 import { EmptyState } from "@/components/ui/EmptyState";
 import { PageHeader } from "@/components/ui/PageHeader";
-import { listAudit } from "@/db/queries/audit";
+import { listActivity } from "@/db/queries/audit";
 import { shopOverview } from "@/db/queries/shops";
 import { can } from "@/lib/access";
-import { describeAudit } from "@/lib/audit-text";
+import { describeActivity } from "@/lib/audit-text";
 import { formatShopDateTime } from "@/lib/dates";
 
 export const dynamic = "force-dynamic";
@@ -15,9 +15,12 @@ export default async function ShopOverviewPage({ params }: { params: Promise<{ s
   const access = await requireShopPage(shop, "shop.view");
   const [overview, activity] = await Promise.all([
     shopOverview({ shopId: access.shop.id }),
-    listAudit({ shopId: access.shop.id, limit: 8 }),
+    listActivity({ shopId: access.shop.id, limit: 10 }),
   ]);
   const firstName = access.actor.name?.split(" ")[0];
+  // A line links only where the reader's role may go.
+  const mayOpen = (href: string) =>
+    href.includes("/clients/") ? can(access.role, "clients.view") : href.endsWith("/prices") ? can(access.role, "prices.view") : href.endsWith("/settings") ? can(access.role, "shop.settings") : true;
   return (
     <>
       <PageHeader title={firstName ? `Good to see you, ${firstName}` : "Overview"} lead={`Here is what is moving at ${access.shop.name.replace(/\.$/, "")}.`} />
@@ -36,7 +39,19 @@ export default async function ShopOverviewPage({ params }: { params: Promise<{ s
           <ul className="card divide-y divide-paper-200">
             {activity.map((entry) => (
               <li key={entry.id} className="flex flex-wrap items-baseline justify-between gap-2 px-4 py-3 text-sm">
-                <span className="text-ink-800">{describeAudit(entry.action, entry.detail ?? undefined)}</span>
+                <span className="text-ink-800" data-testid="activity-line">
+                  {describeActivity(entry, access.shop.slug, { seesMoney: can(access.role, "prices.view") }).map((part, i) =>
+                    typeof part === "string" ? (
+                      part
+                    ) : !mayOpen(part.href) ? (
+                      part.text
+                    ) : (
+                      <Link key={i} href={part.href} className="font-medium text-patina-700 hover:underline">
+                        {part.text}
+                      </Link>
+                    ),
+                  )}
+                </span>
                 <time className="text-xs text-ink-500" dateTime={entry.at.toISOString()}>
                   {formatShopDateTime(entry.at, access.shop.clock)}
                 </time>
