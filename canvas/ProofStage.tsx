@@ -9,7 +9,7 @@ import type { Silhouette } from "@/lib/garments/silhouette";
 import type { WarningFlag } from "@/lib/placement/checks";
 import type { Placement } from "@/lib/placement/model";
 import { MIN_HANDLE_SIDE_IN, snapArtSize } from "@/lib/editor/snap";
-import { rulerTicks, rulerTicksCm, scaleOf, snapArtPosition, toStage, type View } from "@/lib/editor/view";
+import { keepInside, rulerTicks, rulerTicksCm, scaleOf, snapArtPosition, toStage, type View } from "@/lib/editor/view";
 import type { LengthUnit } from "@/lib/units";
 import { formatLength } from "@/lib/units";
 import { inkOn, shade } from "./colour";
@@ -264,7 +264,7 @@ export default function ProofStage(props: Props) {
 
       {props.callouts || props.pins?.length ? (
         <Layer listening={false}>
-          {props.callouts ? props.placements.map((p) => <Callouts key={`co-${p.id}`} placement={p} view={view} unit={props.unit} topFrom={silhouette.category === "tote" ? "top edge" : "collar"} />) : null}
+          {props.callouts ? props.placements.map((p) => <Callouts key={`co-${p.id}`} placement={p} view={view} unit={props.unit} topFrom={silhouette.category === "tote" ? "top edge" : "collar"} width={props.width} height={props.height} />) : null}
           {(props.pins ?? []).map((pin) => {
             const at = toStage(view, { x: pin.xIn, y: pin.yIn });
             return (
@@ -371,7 +371,8 @@ const GarmentLayers = memo(function GarmentLayers({ view, silhouette, colourHex,
                 strokeWidth={1.5}
                 dash={[8, 5]}
               />
-              <Text x={-(area.width * s) / 2} y={-(area.height * s) / 2 - 14} text={`${spec.label} print area`} fontSize={11} fill={ink.label} visible={a.y > RULER_PX} />
+              {/* Named inside its bottom edge, clear of the width callout that sits above the art. */}
+              <Text x={-(area.width * s) / 2 + 4} y={(area.height * s) / 2 - 15} width={Math.max(0, area.width * s - 8)} wrap="none" ellipsis text={`${spec.label} print area`} fontSize={11} fill={ink.label} visible={a.y > RULER_PX && area.width * s > 60} />
             </Group>
           );
         })}
@@ -423,7 +424,7 @@ function Rulers({ width, height, view, unit }: { width: number; height: number; 
 }
 
 /** Width, height, distance below the collar and offset from center, drawn on the garment. */
-function Callouts({ placement: p, view, unit, topFrom }: { placement: Placement; view: View; unit: LengthUnit; topFrom: string }) {
+function Callouts({ placement: p, view, unit, topFrom, width: stageW, height: stageH }: { placement: Placement; view: View; unit: LengthUnit; topFrom: string; width: number; height: number }) {
   const s = scaleOf(view);
   const topLeft = toStage(view, { x: p.offsetFromCenterIn - p.widthIn / 2, y: p.belowCollarIn });
   const w = p.widthIn * s;
@@ -434,10 +435,12 @@ function Callouts({ placement: p, view, unit, topFrom }: { placement: Placement;
   const label = (text: string, x: number, y: number, align: "center" | "left" | "right" = "center") => {
     const w = text.length * 6.4 + 10;
     const left = align === "center" ? -w / 2 : align === "left" ? -3 : -w + 3;
+    // Never under the rulers or past the stage's edge: the number is the point of the callout.
+    const at = keepInside({ left: x + left, top: y - 9, width: w, height: 18 }, { left: RULER_PX + 2, top: RULER_PX + 2, right: stageW - 2, bottom: stageH - 2 });
     return (
-      <Group x={x} y={y}>
-        <Rect x={left} y={-9} width={w} height={18} cornerRadius={4} fill="#fdfdfb" opacity={0.92} />
-        <Text x={left + 5} y={-6} text={text} fontSize={11} fontStyle="bold" fill="#23262b" />
+      <Group x={at.left} y={at.top}>
+        <Rect x={0} y={0} width={w} height={18} cornerRadius={4} fill="#fdfdfb" opacity={0.92} />
+        <Text x={5} y={3} text={text} fontSize={11} fontStyle="bold" fill="#23262b" />
       </Group>
     );
   };

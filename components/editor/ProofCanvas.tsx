@@ -6,7 +6,7 @@ import type { PlacementCommit } from "@/canvas/ProofStage";
 import { locationSpec, sideOf, type LocationSpec } from "@/lib/garments/locations";
 import { buildSilhouette } from "@/lib/garments/silhouette";
 import type { GarmentCategory, GarmentSide, SizeGroup, GarmentMeasurements } from "@/lib/garments/types";
-import { centredOrigin, fitZoom, scaleOf, type View } from "@/lib/editor/view";
+import { centredOrigin, fitZoom, panToCentre, scaleOf, type View } from "@/lib/editor/view";
 import { bodyFigure } from "@/lib/review/figure";
 import type { WarningFlag } from "@/lib/placement/checks";
 import type { Placement } from "@/lib/placement/model";
@@ -34,6 +34,8 @@ type Props = {
   editable: boolean;
   keepAspect: boolean;
   onZoomChange: (zoom: number) => void;
+  /** Asks the view to centre on a garment point (inches); a new `n` asks again. */
+  centreOn?: { n: number; x: number; y: number } | null;
   onSelect: (id: string | null) => void;
   onCommit: (id: string, patch: PlacementCommit) => void;
   onLiveChange?: (id: string, patch: PlacementCommit) => void;
@@ -85,6 +87,15 @@ export function ProofCanvas(props: Props) {
     const ys = pts.map((p) => p.y);
     return { x: Math.min(...xs), y: Math.min(...ys), width: Math.max(...xs) - Math.min(...xs), height: Math.max(...ys) - Math.min(...ys) };
   }, [silhouette, figure]);
+
+  // "Actual size" and the like centre the view on the print they are about.
+  const centreOn = props.centreOn;
+  useEffect(() => {
+    if (!centreOn) return;
+    setPan({ side: props.side, ...panToCentre(garmentBox, centreOn) });
+    // Only a new request moves the view; a later side or size change keeps its own pan.
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, [centreOn?.n]);
 
   useEffect(() => {
     const el = box.current;

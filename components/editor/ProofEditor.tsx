@@ -8,7 +8,7 @@ import { useStore } from "zustand";
 import { saveProofAction } from "@/app/shops/[shop]/proofs/[proofId]/actions";
 import type { PlacementCommit } from "@/canvas/ProofStage";
 import { addPlacement, nudge, removePlacement, resize, setGarment, updatePlacement, type ProofDoc } from "@/lib/editor/document";
-import { nextZoom } from "@/lib/editor/view";
+import { nextZoom, printCentre } from "@/lib/editor/view";
 import { LOCATION_LABELS, locationSpec, locationsFor, sideOf, type PrintLocation } from "@/lib/garments/locations";
 import { formatLength } from "@/lib/units";
 import { CATEGORY_INFO, type GarmentCategory, type GarmentMeasurements, type SizeGroup } from "@/lib/garments/types";
@@ -124,6 +124,14 @@ function EditorBody(props: Props & { store: EditorStore }) {
   );
 
   const selected = doc.placements.find((p) => p.id === selectedId) ?? null;
+  // Actual size opens on the middle of the print in hand (the selected one, else the first on this side).
+  const [centreOn, setCentreOn] = useState<{ n: number; x: number; y: number } | null>(null);
+  const showActualSize = () => {
+    store.getState().setZoom(1);
+    const onSide = doc.placements.filter((p) => sideOf(p.location) === side);
+    const target = (selected && sideOf(selected.location) === side ? selected : null) ?? onSide[0];
+    if (target) setCentreOn((c) => ({ n: (c?.n ?? 0) + 1, ...printCentre(target) }));
+  };
   const selectedArtName = props.artworks.find((a) => a.id === selected?.artworkId)?.name ?? "no art";
   const shownSelected = selected && live?.id === selected.id ? { ...selected, ...live.patch } : selected;
 
@@ -214,7 +222,7 @@ function EditorBody(props: Props & { store: EditorStore }) {
             <button type="button" className="px-2.5 py-1 hover:bg-paper-200" aria-label="Zoom in" onClick={() => zoom && store.getState().setZoom(nextZoom(zoom, 1))}>
               +
             </button>
-            <button type="button" className="border-l border-paper-300 px-2.5 py-1 hover:bg-paper-200" onClick={() => store.getState().setZoom(1)} title="At 100% an inch on screen is an inch, once the screen is calibrated">
+            <button type="button" className="border-l border-paper-300 px-2.5 py-1 hover:bg-paper-200" onClick={showActualSize} title="At 100% an inch on screen is an inch, once the screen is calibrated">
               Actual size
             </button>
           </div>
@@ -281,6 +289,7 @@ function EditorBody(props: Props & { store: EditorStore }) {
             editable={props.canEdit}
             keepAspect={keepAspect}
             onZoomChange={onZoomChange}
+            centreOn={centreOn}
             onSelect={onSelect}
             onCommit={onCommit}
             onLiveChange={(id, patch) => setLive({ id, patch })}

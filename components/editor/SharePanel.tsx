@@ -133,7 +133,8 @@ export function SharePanel({ open, onClose, shopSlug, proofId, defaultEmail, def
           <button type="button" className="btn-quiet" disabled={busy} onClick={() => share(false)}>
             Make a link to copy
           </button>
-          <span role="status" className="self-center text-sm text-ink-600">
+          {/* Progress is spoken politely; the result below is the panel's one status. */}
+          <span aria-live="polite" className="self-center text-sm text-ink-600" data-testid="share-progress">
             {busy ? "Freezing this revision and making the link…" : withdrawn ? withdrawn : ""}
           </span>
         </div>

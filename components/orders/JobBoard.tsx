@@ -15,21 +15,30 @@ export function JobBoard({ shopSlug, rows, movable }: { shopSlug: string; rows: 
   const router = useRouter();
   const hydrated = useHydrated();
   const [error, setError] = useState<string>();
-  const [, startTransition] = useTransition();
+  const [said, setSaid] = useState("");
+  const [pending, startTransition] = useTransition();
   const [optimistic, move] = useOptimistic(rows, (state, change: { id: string; status: JobStatus }) => state.map((r) => (r.id === change.id ? { ...r, status: change.status } : r)));
 
   const onMove = (id: string, status: JobStatus) =>
     startTransition(async () => {
       setError(undefined);
+      const title = rows.find((r) => r.id === id)?.title ?? "The job";
+      setSaid(`Moving ${title} to ${JOB_STATUS_LABELS[status]}…`);
       move({ id, status });
       const result = await setJobStatusAction({ shopSlug, jobId: id, status });
-      if (!result.ok) setError(result.error);
+      if (!result.ok) {
+        setError(result.error);
+        setSaid("");
+      } else setSaid(`${title} is now in ${JOB_STATUS_LABELS[status]}.`);
       router.refresh();
     });
 
   return (
     <div className="space-y-3" data-hydrated={hydrated}>
       {error ? <Notice tone="error">{error}</Notice> : null}
+      <p role="status" aria-busy={pending} className="min-h-5 text-sm text-ink-600" data-testid="board-said">
+        {said}
+      </p>
       <div className="grid gap-3 overflow-x-auto pb-2 md:grid-cols-3 xl:grid-cols-6" data-testid="job-board">
         {JOB_STATUSES.map((status) => {
           const cards = optimistic.filter((r) => r.status === status);
@@ -51,9 +60,10 @@ export function JobBoard({ shopSlug, rows, movable }: { shopSlug: string; rows: 
                     </p>
                     {job.money ? <p className="mt-1 text-xs text-patina-800">{MONEY_STATE_LABELS[job.money.state]}</p> : null}
                     {movable.length ? (
-                      <label className="mt-2 flex items-center gap-2 text-xs text-ink-600">
-                        Move to
-                        <select className="field-input py-1 text-xs" value={job.status} onChange={(e) => onMove(job.id, e.target.value as JobStatus)} aria-label={`Move ${job.title} to`}>
+                      <label className="mt-2 block text-xs text-ink-600">
+                        <span className="mb-0.5 block">Move to</span>
+                        {/* The name starts with the visible words; the job's title tells one card's select from the next. */}
+                        <select className="field-input w-full min-w-0 py-1 text-xs" value={job.status} onChange={(e) => onMove(job.id, e.target.value as JobStatus)} aria-label={`Move to: ${job.title}`}>
                           {JOB_STATUSES.map((s) => (
                             <option key={s} value={s} disabled={s !== job.status && (!movable.includes(s) || (movable.length < JOB_STATUSES.length && !movable.includes(job.status)))}>
                               {JOB_STATUS_LABELS[s]}

@@ -1,6 +1,8 @@
 "use client";
 
 import { useQuery } from "@tanstack/react-query";
+import { formatShopDateTime, formatShopTime, type ShopClock } from "@/lib/dates";
+import { exportTitle, type ExportSubject } from "@/lib/production/export-names";
 import { formatCents } from "@/lib/pricing";
 import { formatLength } from "@/lib/units";
 
@@ -16,6 +18,10 @@ export type ExportStatus = {
   files: ExportFile[];
   /** For a gang sheet: what was packed, as made. */
   summary: { rollWidthIn: number; pieces: number; sheetLengthsIn: number[]; totalLengthIn: number; efficiency: number } | null;
+  /** What the export holds (locations, sizes, paper), known once it is made. */
+  subject: ExportSubject | null;
+  createdAt: string;
+  finishedAt: string | null;
 };
 
 /** The film price per inch, for those who see prices. */
@@ -29,13 +35,6 @@ export function madeSheetText(summary: NonNullable<ExportStatus["summary"]>, fil
   return `As made: ${count} ${count === 1 ? "sheet" : "sheets"} (${lengths}) holding ${summary.pieces} transfers, ${formatLength(summary.totalLengthIn, "in")} of ${summary.rollWidthIn} in film, ${Math.round(summary.efficiency * 100)}% covered${cost}.`;
 }
 
-export const EXPORT_KIND_LABELS: Record<string, string> = {
-  "spec-sheet": "Spec sheet (PDF)",
-  "test-print": "Test print (PDF)",
-  "gang-sheet-png": "Gang sheet (PNG, 300 ppi)",
-  "gang-sheet-pdf": "Gang sheet (PDF)",
-};
-
 /** How often a running export is asked for its progress: under a second, so the bar moves each second. */
 const POLL_MS = 800;
 
@@ -48,7 +47,7 @@ async function readStatus(id: string): Promise<ExportStatus> {
 }
 
 /** One export on the production page: its progress while it runs, then a download link per file. */
-export function ExportItem({ id, onRetry, film = null }: { id: string; onRetry: (id: string) => Promise<void>; film?: FilmPrice }) {
+export function ExportItem({ id, onRetry, film = null, clock = {} }: { id: string; onRetry: (id: string) => Promise<void>; film?: FilmPrice; clock?: ShopClock }) {
   const query = useQuery({
     queryKey: ["export", id],
     queryFn: () => readStatus(id),
@@ -56,16 +55,20 @@ export function ExportItem({ id, onRetry, film = null }: { id: string; onRetry: 
   });
   const e = query.data;
   if (!e) return <li className="card px-4 py-3 text-sm text-ink-500">{query.isError ? "Could not read this export; it will be tried again." : "Loading…"}</li>;
-  const label = EXPORT_KIND_LABELS[e.kind] ?? e.kind;
+  const label = exportTitle(e.kind, e.subject);
+  const when = e.state === "done" && e.finishedAt ? `made ${formatShopDateTime(new Date(e.finishedAt), clock)}` : e.state === "failed" ? null : `asked for at ${formatShopTime(new Date(e.createdAt), clock)}`;
   const pct = Math.round(e.progress * 100);
   const files = e.files ?? [];
   const several = files.length > 1;
   return (
     <li className="card px-4 py-3 text-sm" data-testid="export-row" data-kind={e.kind} data-state={e.state} data-files={files.length}>
       <div className="flex flex-wrap items-center justify-between gap-2">
-        <span className="font-medium">{label}</span>
-        <span className="text-xs text-ink-500">
+        <span className="font-medium" data-testid="export-title">
+          {label}
+        </span>
+        <span className="text-xs text-ink-500" data-testid="export-state">
           {e.state === "done" ? (several ? `Ready · ${files.length} files` : "Ready") : e.state === "failed" ? "Failed" : e.state === "queued" ? "Waiting for the worker" : `Working · ${pct}%`}
+          {when ? ` · ${when}` : ""}
         </span>
       </div>
       {e.state === "queued" || e.state === "running" ? (

@@ -27,7 +27,8 @@ export function CopyButton({ text, label = "Copy", what = "Link", className = "b
       <button type="button" className={className} onClick={copy}>
         {said === "copied" ? "Copied" : label}
       </button>
-      <span role="status" className="sr-only">
+      {/* A polite live region of its own, without role=status, so it never doubles the status it sits in. */}
+      <span aria-live="polite" className="sr-only" data-testid="copy-said">
         {said === "copied" ? `${what} copied.` : said === "refused" ? `${what} could not be copied: select it and copy it by hand.` : ""}
       </span>
       {said === "refused" ? <span className="text-xs text-brick-700">Select the link and copy it by hand.</span> : null}

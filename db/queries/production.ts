@@ -1,7 +1,7 @@
 import "server-only";
 import { and, asc, desc, eq, sql } from "drizzle-orm";
 import { db } from "../client";
-import { exportFiles, exportJobs, jobGradings, jobSizes, jobs, type ExportJob, type ExportSummaryFacts } from "../schema";
+import { exportFiles, exportJobs, jobGradings, jobSizes, jobs, type ExportJob, type ExportSummaryFacts, type ExportSubject } from "../schema";
 
 export async function listJobSizes({ jobId }: { jobId: string }) {
   return db.select().from(jobSizes).where(eq(jobSizes.jobId, jobId)).orderBy(asc(jobSizes.sortOrder));
@@ -40,6 +40,7 @@ const exportColumns = {
   mime: exportJobs.mime,
   fileCount: exportJobs.fileCount,
   summary: exportJobs.summary,
+  subject: exportJobs.subject,
   attempts: exportJobs.attempts,
   createdAt: exportJobs.createdAt,
   finishedAt: exportJobs.finishedAt,
@@ -113,7 +114,7 @@ export async function markExport(exportId: string, patch: ExportPatch) {
  * Finishes an export with all its files in one transaction: file 1 on the export row, the rest
  * in export_files (any left from an earlier try are replaced), so a reader sees all or none.
  */
-export async function finishExport(exportId: string, files: Array<{ fileName: string; mime: string; bytes: Buffer }>, summary: ExportSummaryFacts | null = null) {
+export async function finishExport(exportId: string, files: Array<{ fileName: string; mime: string; bytes: Buffer }>, summary: ExportSummaryFacts | null = null, subject: ExportSubject | null = null) {
   const [first, ...more] = files;
   if (!first) throw new Error("An export must make at least one file.");
   await db.transaction(async (tx) => {
@@ -122,7 +123,7 @@ export async function finishExport(exportId: string, files: Array<{ fileName: st
       await tx.insert(exportFiles).values(more.map((f, i) => ({ exportId, position: i + 2, fileName: f.fileName, mime: f.mime, bytes: f.bytes.length, content: f.bytes })));
     await tx
       .update(exportJobs)
-      .set({ state: "done", progress: 1, fileName: first.fileName, mime: first.mime, result: first.bytes, fileCount: files.length, summary, finishedAt: new Date(), message: null })
+      .set({ state: "done", progress: 1, fileName: first.fileName, mime: first.mime, result: first.bytes, fileCount: files.length, summary, subject, finishedAt: new Date(), message: null })
       .where(eq(exportJobs.id, exportId));
   });
 }

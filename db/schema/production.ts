@@ -1,4 +1,5 @@
 import { index, integer, jsonb, pgTable, primaryKey, real, text, timestamp } from "drizzle-orm/pg-core";
+import type { ExportSubject } from "@/lib/production/export-names";
 import { users } from "./auth";
 import { bytea } from "./columns";
 import { jobs } from "./jobs";
@@ -37,6 +38,7 @@ export const jobGradings = pgTable(
   (t) => [primaryKey({ columns: [t.jobId, t.placementId] })],
 );
 
+export type { ExportSubject };
 export type ExportSummaryFacts = { rollWidthIn: number; pieces: number; sheetLengthsIn: number[]; totalLengthIn: number; efficiency: number };
 
 /** Heavy exports run by the job worker; the UI follows progress and downloads the result. */
@@ -62,6 +64,8 @@ export const exportJobs = pgTable(
     fileCount: integer("file_count").notNull().default(1),
     /** What a gang sheet export packed, as made: sheet lengths, pieces, film used and cover. */
     summary: jsonb("summary").$type<ExportSummaryFacts>(),
+    /** What the export holds (locations, sizes, paper), written when it is made. */
+    subject: jsonb("subject").$type<ExportSubject>(),
     attempts: integer("attempts").notNull().default(0),
     requestedBy: text("requested_by").references(() => users.id, { onDelete: "set null" }),
     createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),

@@ -99,3 +99,25 @@ export function rulerTicksCm(fromIn: number, toIn: number, scale: number): Array
   }
   return ticks;
 }
+
+/**
+ * The pan (garment point at the viewport centre, in inches from the garment box's middle) that
+ * puts `point` (inches: across from the center line, down from the collar) in the middle of the view.
+ */
+export function panToCentre(box: { x: number; y: number; width: number; height: number }, point: { x: number; y: number }): { x: number; y: number } {
+  return { x: point.x - (box.x + box.width / 2), y: point.y - (box.y + box.height / 2) };
+}
+
+/** Where a print's middle is, in garment inches (across from the center line, down from the collar). */
+export function printCentre(p: { offsetFromCenterIn: number; belowCollarIn: number; heightIn: number }): { x: number; y: number } {
+  return { x: p.offsetFromCenterIn, y: p.belowCollarIn + p.heightIn / 2 };
+}
+
+/**
+ * Slides a label box (stage pixels) the least distance that keeps it inside `bounds`, so a callout
+ * near the rulers or the edge stays readable. A box larger than the bounds keeps its left/top edge in.
+ */
+export function keepInside(box: { left: number; top: number; width: number; height: number }, bounds: { left: number; top: number; right: number; bottom: number }): { left: number; top: number } {
+  const slide = (start: number, size: number, min: number, max: number) => Math.max(min, Math.min(start, max - size));
+  return { left: slide(box.left, box.width, bounds.left, bounds.right), top: slide(box.top, box.height, bounds.top, bounds.bottom) };
+}

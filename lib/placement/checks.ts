@@ -388,7 +388,7 @@ function seamClearance(ctx: Context, out: PlacementWarning[]): boolean {
     const crosses = readsNegative(ctx, min);
     const message = !crosses
       ? `Only ${fmt(ctx, min)} between the art and the ${seam} on size ${ctx.size}; keep at least ${fmt(ctx, need)}.`
-      : `The art crosses the ${seam} by ${fmt(ctx, -min)} on size ${ctx.size} (clearance ${fmt(ctx, min)}); keep at least ${fmt(ctx, need)} inside it.`;
+      : `The art runs ${fmt(ctx, -min)} over the ${seam} on size ${ctx.size}; keep it at least ${fmt(ctx, need)} inside the seam.`;
     out.push({
       code: "seam-clearance",
       severity: crosses ? "error" : "warning",

@@ -59,6 +59,8 @@ export interface GradingResult {
   groups: GradingGroup[];
   /** Σ quantity × max(0, ideal − assigned), in garment-inches. */
   totalShortfall: number;
+  /** The most any ordered size prints under its own ideal width, inches (0 when each gets its ideal). */
+  largestShortIn: number;
   /** Size → width in inches, for every size that has a transfer. */
   assignment: Record<string, number>;
   /** Zero-quantity sizes that none of the chosen widths fits (empty whenever every size is ordered). */
@@ -130,6 +132,7 @@ function finish(
   const byWidth = new Map<number, GradingGroup>();
   const assignment: Record<string, number> = {};
   let totalShortfall = 0;
+  let largestShortIn = 0;
   for (const { size, widthIn } of ordered) {
     let group = byWidth.get(widthIn);
     if (!group) {
@@ -140,6 +143,7 @@ function finish(
     group.quantity += size.quantity;
     assignment[size.size] = widthIn;
     totalShortfall += shortfall(size, widthIn);
+    if (size.quantity > 0) largestShortIn = Math.max(largestShortIn, size.idealWidthIn - widthIn);
   }
   const groups = [...byWidth.values()].sort((a, b) => a.widthIn - b.widthIn);
   const uncovered: string[] = [];
@@ -153,7 +157,7 @@ function finish(
       uncovered.push(s.size);
     }
   }
-  return { groups, totalShortfall, assignment, uncovered };
+  return { groups, totalShortfall, largestShortIn, assignment, uncovered };
 }
 
 /**

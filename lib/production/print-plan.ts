@@ -176,7 +176,10 @@ export function suggestGrading(input: Pick<PrintPlanInput, "category" | "chart" 
   // A size not ordered now that no chosen width fits gets its own fitting width, so a reorder is never flagged.
   for (const s of usable) if (assignment[s.size] === undefined) assignment[s.size] = onGrid(s.idealWidthIn);
   const groups = raw.groups.map((g) => ({ ...g, widthIn: onGrid(g.widthIn) }));
-  return { suggestion: { ...raw, groups, assignment }, missing, noRoom };
+  // Rounding down to the grid can leave an ordered size a little further from its ideal.
+  let largestShortIn = 0;
+  for (const s of usable) if (s.quantity > 0 && assignment[s.size] !== undefined) largestShortIn = Math.max(largestShortIn, s.idealWidthIn - assignment[s.size]!);
+  return { suggestion: { ...raw, groups, assignment, largestShortIn }, missing, noRoom };
 }
 
 function isMiddleAligned(placement: Placement, category: GarmentCategory, chart: readonly SizeRow[]): boolean {
@@ -307,6 +310,16 @@ export function gangItems(plans: ReadonlyArray<{ plan: PrintPlan; artworkId: str
  * "Team tee" gives "Full front · Team tee"; "Left sleeve" + "front view" gives
  * "Left sleeve · front view".
  */
+/**
+ * The suggestion's cost in plain words: how far the furthest ordered size prints from its best
+ * width, rounded up to the 1/8 in the plan works in, so "within 1/8 in" is never an understatement.
+ */
+export function gradingGapText(largestShortIn: number): string {
+  const gap = Math.ceil(largestShortIn / PLAN_STEP_IN - 1e-6) * PLAN_STEP_IN;
+  if (gap <= 0) return "every size prints at its best print size";
+  return `every size prints within ${formatLength(gap, "in")} of its best print size`;
+}
+
 export function printHeading(parts: ReadonlyArray<string | null | undefined>): string {
   const seen = new Set<string>();
   const out: string[] = [];

@@ -182,6 +182,10 @@ describe("SharePanel", () => {
     expect(link).toHaveProperty("readOnly", true);
     await user.click(within(status).getByRole("button", { name: "Copy" }));
     expect(await navigator.clipboard.readText()).toBe(LINK);
+    // It confirms itself on the button and in words a screen reader announces.
+    expect(within(status).getByRole("button", { name: "Copied" })).toBeTruthy();
+    expect(screen.getByTestId("copy-said").textContent).toBe("Review link copied.");
+    expect(screen.getByTestId("copy-said").getAttribute("aria-live")).toBe("polite");
   });
 
   it("lists what changed since the revision before", async () => {

@@ -180,7 +180,7 @@ describe("orders, quotes and payments", () => {
     await page.goto(`/shops/${demo.slug}/jobs?view=board`);
     await ready(page);
     const saved = page.waitForResponse((r) => r.request().method() === "POST" && new URL(r.url()).pathname.endsWith("/jobs"));
-    await page.getByLabel("Move Autumn league tees to").selectOption("cleared");
+    await page.getByLabel("Move to: Autumn league tees").selectOption("cleared");
     expect((await saved).status()).toBe(200);
     await expect.poll(() => page.getByRole("region", { name: "Cleared to print" }).textContent()).toContain("Autumn league tees");
     await page.reload();

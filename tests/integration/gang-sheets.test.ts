@@ -70,7 +70,10 @@ describe("gang sheets with several sheets", () => {
     await runExport(id);
     const row = await findExport({ shopId: s.shop.id, exportId: id });
     expect(row?.state, row?.message ?? "").toBe("done");
-    expect(row!.fileName).toMatch(new RegExp(`-gang-sheets-${expected.lengthsIn.length}-sheets\\.pdf$`));
+    // The file says what it holds and when it was made: location, sizes, then the shop's date and time.
+    expect(row!.fileName).toMatch(/-gang-sheet-[a-z-]+-sizes-[a-z0-9]+-to-[a-z0-9]+-\d{4}-\d{2}-\d{2}-\d{4}\.pdf$/);
+    expect(row!.subject?.locations.length).toBeGreaterThan(0);
+    expect(row!.subject?.sizes.length).toBe(6);
     expect(row!.summary).toMatchObject({ pieces: expected.pieces, sheetLengthsIn: expected.lengthsIn, rollWidthIn: 22 });
     const file = await exportFile({ shopId: s.shop.id, exportId: id });
     const { heightsIn, images } = await imagesPerPage(new Uint8Array(file!.result!));
@@ -88,7 +91,7 @@ describe("gang sheets with several sheets", () => {
     const files = await listExportFiles({ shopId: s.shop.id, exportId: id });
     const count = expected.lengthsIn.length;
     expect(files.map((f) => f.n)).toEqual(Array.from({ length: count }, (_, i) => i + 1));
-    expect(files.map((f) => f.fileName)).toEqual(files.map((f) => expect.stringMatching(new RegExp(`-gang-sheet-${f.n}-of-${count}\\.png$`))));
+    expect(files.map((f) => f.fileName)).toEqual(files.map((f) => expect.stringMatching(new RegExp(`-gang-sheet-.+-\\d{4}-\\d{2}-\\d{2}-\\d{4}-${f.n}-of-${count}\\.png$`))));
     for (const f of files) {
       const file = await exportFile({ shopId: s.shop.id, exportId: id, n: f.n });
       expect(file?.mime).toBe("image/png");

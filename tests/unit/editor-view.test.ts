@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { addPlacement, nudge, removePlacement, resize, setGarment, updatePlacement, type ProofDoc } from "@/lib/editor/document";
-import { centredOrigin, fitZoom, nextZoom, rulerTicks, rulerTicksCm, scaleOf, snapArtPosition, toGarment, toStage } from "@/lib/editor/view";
+import { centredOrigin, fitZoom, keepInside, nextZoom, panToCentre, printCentre, rulerTicks, rulerTicksCm, scaleOf, snapArtPosition, toGarment, toStage } from "@/lib/editor/view";
 import type { Placement } from "@/lib/placement/model";
 
 const view = { originX: 500, originY: 120, pxPerInch: 96, zoom: 0.5 };
@@ -105,5 +105,32 @@ describe("document edits", () => {
     const added = addPlacement(doc, { ...art, id: "b" });
     expect(added.placements.map((p) => p.id)).toEqual(["a", "b"]);
     expect(removePlacement(added, "a").placements.map((p) => p.id)).toEqual(["b"]);
+  });
+});
+
+describe("keeping callouts readable and centring a print", () => {
+  it("slides a label the least distance that keeps it off the rulers and inside the stage", () => {
+    const bounds = { left: 28, top: 28, right: 390, bottom: 600 };
+    // Already inside: unchanged.
+    expect(keepInside({ left: 100, top: 100, width: 80, height: 18 }, bounds)).toEqual({ left: 100, top: 100 });
+    // Half under the left ruler: moved right to its edge, not further.
+    expect(keepInside({ left: 0, top: 100, width: 80, height: 18 }, bounds)).toEqual({ left: 28, top: 100 });
+    // Past the right edge: moved left so its right side sits on the edge.
+    expect(keepInside({ left: 350, top: 100, width: 80, height: 18 }, bounds)).toEqual({ left: 310, top: 100 });
+    // Under the top ruler and wider than the stage: top edge in, left edge in.
+    expect(keepInside({ left: 10, top: 5, width: 500, height: 18 }, bounds)).toEqual({ left: 28, top: 28 });
+  });
+
+  it("pans so a print's middle sits at the viewport centre", () => {
+    const box = { x: -11, y: -2, width: 22, height: 30 };
+    const middle = printCentre({ offsetFromCenterIn: 0, belowCollarIn: 3, heightIn: 10 });
+    expect(middle).toEqual({ x: 0, y: 8 });
+    const pan = panToCentre(box, middle);
+    expect(pan).toEqual({ x: 0, y: -5 });
+    // Put back through the view maths: the print's middle lands on the viewport centre (390 × 600 at 96 px/in).
+    const scale = 96;
+    const o = centredOrigin({ box, viewportWidth: 390, viewportHeight: 600, scale });
+    expect(o.originX - pan.x * scale + middle.x * scale).toBeCloseTo(195, 9);
+    expect(o.originY - pan.y * scale + middle.y * scale).toBeCloseTo(300, 9);
   });
 });

@@ -6,6 +6,7 @@ import {
   type GradingResult,
   type GradingSize,
 } from "@/lib/production/grading";
+import { gradingGapText } from "@/lib/production/print-plan";
 import { reachCounter } from "./fuzz/reach";
 
 // Size runs below are invented for the tests (common practice, no published source); every
@@ -146,6 +147,8 @@ describe("gradeSizeRun on a four-size run", () => {
   ])("k = $k gives shortfall $total", ({ k, total, groups }) => {
     const result = gradeSizeRun(RUN, k);
     expect(result.totalShortfall).toBeCloseTo(total, 9);
+    // The furthest any size prints from its ideal: k = 1 leaves L and XL 2 in short; k = 2 leaves M 1 in (by hand).
+    expect(result.largestShortIn).toBeCloseTo(k === 1 ? 2 : k === 2 ? 1 : 0, 9);
     expect(result.groups).toEqual(groups);
     expect(result.uncovered).toEqual([]);
     expect(recomputedShortfall(RUN, result)).toBeCloseTo(total, 9);
@@ -232,7 +235,7 @@ describe("gradeSizeRun edge cases", () => {
 
   it("returns no widths when nothing is ordered", () => {
     const result = gradeSizeRun([{ size: "M", quantity: 0, allowedWidthIn: 12, idealWidthIn: 12 }], 2);
-    expect(result).toEqual({ groups: [], totalShortfall: 0, assignment: {}, uncovered: ["M"] });
+    expect(result).toEqual({ groups: [], totalShortfall: 0, largestShortIn: 0, assignment: {}, uncovered: ["M"] });
   });
 
   it("uses the larger allowance when a narrow size is cheap to shortchange", () => {
@@ -436,4 +439,15 @@ describe("gradeSizeRun properties", () => {
       { numRuns: 200 },
     );
   }, 30_000);
+});
+
+describe("the suggestion in plain words", () => {
+  it("says how far the furthest size prints from its best width, rounded up to the 1/8 in", () => {
+    expect(gradingGapText(0)).toBe("every size prints at its best print size");
+    expect(gradingGapText(1e-12)).toBe("every size prints at its best print size");
+    expect(gradingGapText(0.1)).toBe("every size prints within 1/8 in of its best print size");
+    expect(gradingGapText(0.125)).toBe("every size prints within 1/8 in of its best print size");
+    expect(gradingGapText(1)).toBe("every size prints within 1 in of its best print size");
+    expect(gradingGapText(1.3)).toBe("every size prints within 1 3/8 in of its best print size");
+  });
 });

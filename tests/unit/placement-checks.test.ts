@@ -112,6 +112,17 @@ describe("acceptance: adult M unisex tee full front (common practice, no publish
   });
 });
 
+describe("plain words for art over a seam", () => {
+  it("says how far the art runs over the seam, not a negative clearance", () => {
+    const chest = (TEE_M.measurements as ApparelMeasurements).chestWidth;
+    // 5/4 in wider than the chest: 5/8 in over each side seam when centred (geometry of the test itself).
+    const seam = find(check(art({ widthIn: chest + 1.25, heightIn: 6, belowCollarIn: 10 })), "seam-clearance");
+    expect(seam.severity).toBe("error");
+    expect(seam.message).toMatch(/^The art runs 5\/8 in over the side seam on size M; keep it at least \d[\d /]* in inside the seam\.$/);
+    expect(seam.message).not.toMatch(/clearance|-\d/);
+  });
+});
+
 describe("each threshold at its edge (values written above, with their sources)", () => {
   const sil = buildSilhouette(TEE_M.category, TEE_M.measurements, "front");
   const chest = (TEE_M.measurements as ApparelMeasurements).chestWidth;
@@ -296,14 +307,14 @@ describe("side seam and armhole clearance (2 in, common practice, no published s
     expect(seam.message).toContain("keep at least 2 in");
   });
 
-  it("gives a negative clearance, as an error, when the art runs over the seam", () => {
+  it("records a negative clearance, as an error, and says how far over the seam the art runs", () => {
     const warnings = check(art({ offsetFromCenterIn: 3 }));
     const seam = find(warnings, "seam-clearance");
     const expected = minEdgeBetween(sil.bodyEdge, 3, 14)! - 8.5;
     expect(expected).toBeLessThan(0);
     expect(seam.details?.clearanceIn).toBeCloseTo(expected, 9);
     expect(seam.severity).toBe("error");
-    expect(seam.message).toContain(`clearance ${formatLength(expected, "in")}`);
+    expect(seam.message).toContain(`runs ${formatLength(-expected, "in")} over the`);
   });
 
   it("names the side seam when the tight spot is below the underarm", () => {

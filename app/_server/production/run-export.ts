@@ -3,12 +3,13 @@ import { findShopById } from "@/db/queries/shops";
 import { finishExport, loadExportForWork, markExport } from "@/db/queries/production";
 import type { ExportSummaryFacts } from "@/db/schema";
 import { listJobDecisions, proofContext } from "@/db/queries/review";
-import { formatShopDate, formatShopDateTime } from "@/lib/dates";
+import { fileTimeStamp, formatShopDate, formatShopDateTime } from "@/lib/dates";
 import { LOCATION_LABELS, locationSpec } from "@/lib/garments/locations";
 import { DECORATION_LABELS, type DecorationMethod } from "@/lib/jobs";
+import { exportFileName, type ExportSubject } from "@/lib/production/export-names";
 import { expandTransfers, packGangSheet } from "@/lib/production/packing";
 import { gangItems, planForSize, usesGangSheets } from "@/lib/production/print-plan";
-import type { PaperId } from "@/lib/production/tiling";
+import { PAPER_SIZES, type PaperId } from "@/lib/production/tiling";
 import { formatLength } from "@/lib/units";
 import { productionArt } from "./art-source";
 import { renderGangSheetPdf, renderGangSheetPngs } from "./gang-sheet";
@@ -17,8 +18,13 @@ import { renderSpecSheetPdf, specSheetLocation } from "./spec-sheet";
 import { renderTestPrintPdf } from "./test-print";
 
 type Done = { fileName: string; mime: string; bytes: Buffer };
+type Made = { files: Done[]; summary: ExportSummaryFacts | null; subject: ExportSubject };
 
-const slugify = (s: string) => s.replace(/[^A-Za-z0-9]+/g, "-").replace(/^-|-$/g, "").toLowerCase() || "export";
+/** The shop's clock for a file's time stamp and the dates printed on it. */
+async function shopClock(shopId: string) {
+  const shop = await findShopById({ shopId });
+  return { locale: shop?.locale, timeZone: shop?.timeZone };
+}
 
 async function loadPrints(shopId: string, jobId: string) {
   const loaded = await loadJobPrints({ shopId, jobId });
@@ -26,7 +32,7 @@ async function loadPrints(shopId: string, jobId: string) {
   return loaded;
 }
 
-async function specSheet(shopId: string, jobId: string, progress: (f: number) => Promise<void>): Promise<Done> {
+async function specSheet(shopId: string, jobId: string, progress: (f: number) => Promise<void>): Promise<Made> {
   const { job, sizeRun, printed, prints } = await loadPrints(shopId, jobId);
   const decisions = await listJobDecisions({ shopId, jobId });
   await progress(0.3);
@@ -47,13 +53,14 @@ async function specSheet(shopId: string, jobId: string, progress: (f: number) =>
   }
   await progress(0.7);
   const approved = decisions.find((d) => d.decision === "approved");
-  const shop = await findShopById({ shopId });
-  const when = (at: Date) => formatShopDateTime(at, { locale: shop?.locale, timeZone: shop?.timeZone });
+  const clock = await shopClock(shopId);
+  const when = (at: Date) => formatShopDateTime(at, clock);
+  const madeAt = new Date();
   const pdf = await renderSpecSheetPdf({
     shopName: (await proofContext({ proofId: doc.proof.id }))?.shopName ?? "",
     jobTitle: job.title,
     clientName: doc.job.clientName,
-    dueDate: job.dueDate ? formatShopDate(job.dueDate, { locale: shop?.locale }) : null,
+    dueDate: job.dueDate ? formatShopDate(job.dueDate, clock) : null,
     method: DECORATION_LABELS[job.method as DecorationMethod],
     garment: { style: doc.blank.name, colourName: doc.proof.colourName, colourHex: doc.proof.colourHex },
     sizeRun,
@@ -61,12 +68,14 @@ async function specSheet(shopId: string, jobId: string, progress: (f: number) =>
     locations,
     thumbnails,
     approval: approved ? { name: approved.fullName, at: when(approved.at), revision: approved.revisionLetter } : null,
-    madeAt: when(new Date()),
+    madeAt: when(madeAt),
   });
-  return { fileName: `${slugify(job.title)}-spec-sheet.pdf`, mime: "application/pdf", bytes: Buffer.from(pdf) };
+  const subject: ExportSubject = { locations: prints.map((p) => LOCATION_LABELS[p.placement.location]), sizes: sizeRun.filter((r) => r.quantity > 0).map((r) => r.size) };
+  const fileName = exportFileName({ jobTitle: job.title, kind: "spec-sheet", subject, stamp: fileTimeStamp(madeAt, clock), ext: "pdf" });
+  return { files: [{ fileName, mime: "application/pdf", bytes: Buffer.from(pdf) }], summary: null, subject };
 }
 
-async function testPrint(shopId: string, jobId: string, params: Record<string, unknown>, progress: (f: number) => Promise<void>): Promise<Done> {
+async function testPrint(shopId: string, jobId: string, params: Record<string, unknown>, progress: (f: number) => Promise<void>): Promise<Made> {
   const { prints } = await loadPrints(shopId, jobId);
   const print = prints.find((p) => p.document.proof.id === params.proofId && p.placement.id === params.placementId);
   if (!print) throw new Error("That print is no longer on the proof.");
@@ -95,10 +104,13 @@ async function testPrint(shopId: string, jobId: string, params: Record<string, u
     printArea,
     collarLineYIn: params.outline ? -sized.topIn : undefined,
   });
-  return { fileName: `${slugify(doc.job.title)}-test-print-${slugify(row.size)}-${String(params.paper)}${params.mirror ? "-mirrored" : ""}.pdf`, mime: "application/pdf", bytes: Buffer.from(pdf) };
+  const paper = PAPER_SIZES[params.paper as PaperId];
+  const subject: ExportSubject = { locations: [LOCATION_LABELS[placement.location]], sizes: [row.size], paper: paper?.label ?? String(params.paper), mirrored: Boolean(params.mirror) };
+  const fileName = exportFileName({ jobTitle: doc.job.title, kind: "test-print", subject, stamp: fileTimeStamp(new Date(), await shopClock(shopId)), ext: "pdf" });
+  return { files: [{ fileName, mime: "application/pdf", bytes: Buffer.from(pdf) }], summary: null, subject };
 }
 
-async function gangSheet(shopId: string, jobId: string, kind: "gang-sheet-png" | "gang-sheet-pdf", params: Record<string, unknown>, progress: (f: number) => Promise<void>): Promise<{ files: Done[]; summary: ExportSummaryFacts }> {
+async function gangSheet(shopId: string, jobId: string, kind: "gang-sheet-png" | "gang-sheet-pdf", params: Record<string, unknown>, progress: (f: number) => Promise<void>): Promise<Made> {
   const { job, prints } = await loadPrints(shopId, jobId);
   if (!usesGangSheets(job.method as DecorationMethod)) throw new Error(`A ${DECORATION_LABELS[job.method as DecorationMethod].toLowerCase()} job prints without transfers, so it has no gang sheet.`);
   const items = gangItems(prints.filter((p) => p.artwork).map((p) => ({ plan: p.plan, artworkId: p.artwork!.id })));
@@ -119,15 +131,21 @@ async function gangSheet(shopId: string, jobId: string, kind: "gang-sheet-png" |
   }
   await progress(0.15);
   const input = { sheets: packed.sheets, rollWidthIn, art, onProgress: (f: number) => void progress(0.15 + f * 0.83) };
-  const base = `${slugify(job.title)}-gang-sheet`;
   const count = packed.sheets.length;
+  const packedPrints = prints.filter((p) => p.artwork && p.plan.tools === "transfers");
+  const subject: ExportSubject = {
+    locations: packedPrints.map((p) => LOCATION_LABELS[p.placement.location]),
+    sizes: packedPrints[0]?.plan.sizes.filter((sz) => sz.quantity > 0).map((sz) => sz.size) ?? [],
+  };
+  const stamp = fileTimeStamp(new Date(), await shopClock(shopId));
+  const name = (ext: "pdf" | "png", part?: { n: number; of: number }) => exportFileName({ jobTitle: job.title, kind, subject, stamp, part, ext });
   const summary: ExportSummaryFacts = { rollWidthIn, pieces: pieces.length, sheetLengthsIn: packed.sheets.map((sh) => sh.lengthIn), totalLengthIn: packed.totalLengthIn, efficiency: packed.efficiency };
   if (kind === "gang-sheet-pdf") {
     const pdf = await renderGangSheetPdf(input);
-    return { files: [{ fileName: count > 1 ? `${base}s-${count}-sheets.pdf` : `${base}.pdf`, mime: "application/pdf", bytes: Buffer.from(pdf) }], summary };
+    return { files: [{ fileName: name("pdf"), mime: "application/pdf", bytes: Buffer.from(pdf) }], summary, subject };
   }
   const pngs = await renderGangSheetPngs(input);
-  return { files: pngs.map((png, i) => ({ fileName: `${base}-${i + 1}-of-${count}.png`, mime: "image/png", bytes: png })), summary };
+  return { files: pngs.map((png, i) => ({ fileName: name("png", { n: i + 1, of: count }), mime: "image/png", bytes: png })), summary, subject };
 }
 
 /** Least time between two progress writes, and most: the bar moves at least once a second while work goes on. */
@@ -156,12 +174,12 @@ export async function runExport(exportId: string): Promise<void> {
   try {
     const done =
       row.kind === "spec-sheet"
-        ? { files: [await specSheet(row.shopId, row.jobId!, progress)], summary: null }
+        ? await specSheet(row.shopId, row.jobId!, progress)
         : row.kind === "test-print"
-          ? { files: [await testPrint(row.shopId, row.jobId!, row.params, progress)], summary: null }
+          ? await testPrint(row.shopId, row.jobId!, row.params, progress)
           : await gangSheet(row.shopId, row.jobId!, row.kind, row.params, progress);
     await writes;
-    await finishExport(exportId, done.files, done.summary);
+    await finishExport(exportId, done.files, done.summary, done.subject);
   } catch (error) {
     const message = error instanceof Error ? error.message : String(error);
     console.error(`[export ${exportId}]`, message);

@@ -13,7 +13,7 @@ export async function GET(_request: Request, { params }: { params: Promise<{ id:
   // Every file the export made, each with its own download address.
   const files = row.state === "done" ? (await listExportFiles({ shopId: access.shopId, exportId: access.exportId })).map((f) => ({ ...f, href: `/api/exports/${row.id}/file${f.n === 1 ? "" : `?n=${f.n}`}` })) : [];
   return NextResponse.json(
-    { id: row.id, kind: row.kind, state: row.state, progress: row.progress, message: row.message, fileName: row.fileName, attempts: row.attempts, files, summary: row.state === "done" ? row.summary : null },
+    { id: row.id, kind: row.kind, state: row.state, progress: row.progress, message: row.message, fileName: row.fileName, attempts: row.attempts, files, summary: row.state === "done" ? row.summary : null, subject: row.subject ?? null, createdAt: row.createdAt.toISOString(), finishedAt: row.finishedAt?.toISOString() ?? null },
     { headers: { "Cache-Control": "no-store" } },
   );
 }

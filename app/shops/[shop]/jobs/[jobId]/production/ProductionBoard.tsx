@@ -9,10 +9,11 @@ import type { DecorationMethod } from "@/lib/jobs";
 import type { Placement } from "@/lib/placement/model";
 import { formatCents } from "@/lib/pricing";
 import { expandTransfers, packGangSheet, ROLL_WIDTHS_IN } from "@/lib/production/packing";
-import { gangItems, planSizeText, printPlan, toolsFor, type PrintPlan } from "@/lib/production/print-plan";
+import { gangItems, gradingGapText, planSizeText, printPlan, toolsFor, type PrintPlan } from "@/lib/production/print-plan";
 import { PAPER_SIZES, type PaperId } from "@/lib/production/tiling";
 import { formatLength } from "@/lib/units";
 import { ExportItem } from "@/components/production/ExportItem";
+import type { ShopClock } from "@/lib/dates";
 import { requestExportAction, retryExportAction, saveGradingAction, saveSizeRunAction } from "./actions";
 
 type ChartRow = { size: string; group: SizeGroup; measurements: GarmentMeasurements };
@@ -29,6 +30,8 @@ type PrintInfo = {
 type ExportRow = { id: string; kind: string; state: string; progress: number; message: string | null; fileName: string | null; createdAt: string };
 type Props = {
   shopSlug: string;
+  /** The shop's locale and time zone, for the time each export was made. */
+  clock?: ShopClock;
   jobId: string;
   method: DecorationMethod;
   canEdit: boolean;
@@ -196,7 +199,7 @@ export function ProductionBoard(props: Props) {
         </div>
         <ul className="mt-4 space-y-2" aria-label="Exports">
           {exportIds.map((id) => (
-            <ExportItem key={id} id={id} film={props.film} onRetry={async (exportId) => void (await retryExportAction({ shopSlug: props.shopSlug, exportId }))} />
+            <ExportItem key={id} id={id} film={props.film} clock={props.clock} onRetry={async (exportId) => void (await retryExportAction({ shopSlug: props.shopSlug, exportId }))} />
           ))}
         </ul>
       </section>
@@ -285,7 +288,7 @@ function GradingPanel(props: {
           <span>
             <strong>Suggested: </strong>
             {plan.suggestion.groups.map((g, i) => `${formatLength(g.widthIn, "in")} for ${g.sizes.join(", ")}${i < plan.suggestion!.groups.length - 1 ? " · " : ""}`)}
-            {" "}(fits every size&apos;s print area; {plan.suggestion.totalShortfall.toFixed(1)} garment-inches short of ideal).
+            {" "}(fits every size&apos;s print area; {gradingGapText(plan.suggestion.largestShortIn)}).
           </span>
           {props.canGrade ? (
             <button type="button" className="btn-quiet px-3 py-1.5" onClick={applySuggestion}>

@@ -50,6 +50,7 @@ export default async function ProductionPage({ params }: { params: Promise<{ sho
       </ul>
       <ProductionBoard
         shopSlug={access.shop.slug}
+        clock={access.shop.clock}
         jobId={job.id}
         method={method}
         canEdit={can(access.role, "jobs.edit")}
