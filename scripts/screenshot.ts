@@ -1,5 +1,7 @@
 /**
  * Screenshots of a running app for review: `tsx scripts/screenshot.ts <path> <out.png> [--as email] [--width 1280] [--height 800]`.
+ * Several pages in one sign-in: `--pages /a,/b,/c --dir out/` writes out/<width>-<page>.png for each
+ * (a page given as "name=/path" is saved under that name).
  */
 import { chromium } from "playwright-core";
 
@@ -29,8 +31,18 @@ if (as) {
   await page.getByRole("button", { name: "Sign in", exact: true }).click();
   await page.waitForURL((url) => !url.pathname.startsWith("/sign-in"));
 }
-const response = await page.goto(target);
-await page.waitForTimeout(Number(flag("wait", "800")));
-await page.screenshot({ path: out, fullPage: args.includes("--full") });
-console.log(`${response?.status()} ${page.url()} -> ${out}`);
+const pages = flag("pages");
+const shots: Array<{ path: string; out: string }> = pages
+  ? pages.split(",").map((entry) => {
+      const [name, path] = entry.includes("=") ? entry.split("=", 2) as [string, string] : [entry.replace(/[^A-Za-z0-9]+/g, "-").replace(/^-|-$/g, "") || "home", entry];
+      return { path, out: `${flag("dir", ".")}/${flag("width", "1280")}-${name}.png` };
+    })
+  : [{ path: target, out }];
+for (const shot of shots) {
+  const response = await page.goto(shot.path);
+  await page.waitForLoadState("networkidle").catch(() => undefined);
+  await page.waitForTimeout(Number(flag("wait", "800")));
+  await page.screenshot({ path: shot.out, fullPage: args.includes("--full") });
+  console.log(`${response?.status()} ${page.url()} -> ${shot.out}`);
+}
 await browser.close();

@@ -65,18 +65,21 @@ export function CalibrationDialog({ open, current, onClose, onSave, saving, erro
           <button type="button" className="btn-quiet px-3" onClick={() => setCardPx((v) => Math.min(maxCard, v + 1))} aria-label="Wider by 1 pixel">
             +
           </button>
-          <label className="flex items-center gap-2 text-sm">
-            <span>Card width</span>
+          <span className="flex items-center gap-2 text-sm">
+            <label htmlFor="cal-card-px">Card width</label>
             <input
+              id="cal-card-px"
               type="number"
               step={0.1}
               value={Math.round(cardPx * 10) / 10}
               onChange={(e) => setCardPx(Number(e.target.value))}
               className="field-input w-24 py-1"
-              aria-label="Card width in screen pixels"
+              aria-describedby="cal-card-px-unit"
             />
-            <span className="text-ink-500">px</span>
-          </label>
+            <span id="cal-card-px-unit" className="text-ink-500">
+              px<span className="sr-only"> (screen pixels)</span>
+            </span>
+          </span>
         </div>
         <p className="measure mt-3 text-sm text-ink-700">
           This screen: {pxPerInch.toFixed(1)} px per inch

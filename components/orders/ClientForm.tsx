@@ -7,6 +7,7 @@ import { useFieldArray, useForm, type FieldPath } from "react-hook-form";
 import { createClientAction, setClientArchivedAction, updateClientAction } from "@/app/shops/[shop]/clients/actions";
 import { clientFormSchema, type ClientFormValues } from "./schemas";
 import { Notice } from "./Notice";
+import { withArrival } from "@/components/ui/ArrivalNote";
 import { useHydrated } from "./useHydrated";
 
 type Props = {
@@ -43,7 +44,7 @@ export function ClientForm({ shopSlug, clientId, archived = false, canEdit, defa
       return;
     }
     if (!clientId) {
-      router.push(`/shops/${shopSlug}/clients/${result.data.id}`);
+      router.push(withArrival(`/shops/${shopSlug}/clients/${result.data.id}`, "client-created"));
       return;
     }
     reset(values);

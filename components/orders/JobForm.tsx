@@ -11,6 +11,7 @@ import { DECORATION_LABELS, DECORATION_METHODS } from "@/lib/jobs";
 import type { PriceMatrix } from "@/lib/pricing";
 import { PRINT_LOCATION_OPTIONS, quoteJob } from "@/lib/quotes";
 import { Notice } from "./Notice";
+import { withArrival } from "@/components/ui/ArrivalNote";
 import { useHydrated } from "./useHydrated";
 import { QuoteLines } from "./QuoteLines";
 import { jobFormSchema, type JobFormValues } from "./schemas";
@@ -90,7 +91,7 @@ export function JobForm({ shopSlug, jobId, defaults, clients, blanks, matrix }: 
       setNotice(result.error);
       return;
     }
-    router.push(`/shops/${shopSlug}/jobs/${result.data.id}`);
+    router.push(withArrival(`/shops/${shopSlug}/jobs/${result.data.id}`, jobId ? "job-saved" : "job-created"));
     router.refresh();
   });
 

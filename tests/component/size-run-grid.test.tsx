@@ -226,6 +226,6 @@ describe("SizeRunGrid in the job form", () => {
       { size: "YL", quantity: 6 },
       { size: "M", quantity: 24 },
     ]);
-    await waitFor(() => expect(router.push).toHaveBeenCalledWith("/shops/bramble-press/jobs/job-77"));
+    await waitFor(() => expect(router.push).toHaveBeenCalledWith("/shops/bramble-press/jobs/job-77?done=job-created"));
   });
 });

@@ -56,7 +56,7 @@ async function fetchProof(page: Page, id: string): Promise<ProofJson> {
 
 async function calibrate(page: Page, cardPx: number) {
   await page.getByRole("button", { name: "Calibrate with a card" }).click();
-  await page.getByLabel("Card width in screen pixels").fill(String(cardPx));
+  await page.getByLabel("Card width", { exact: true }).fill(String(cardPx));
   await page.getByRole("button", { name: "Use this calibration" }).click();
   await page.getByRole("dialog").waitFor({ state: "hidden" });
 }

@@ -109,7 +109,7 @@ describe("the whole job from an empty shop", () => {
     await owner.locator("#contact-0-name").fill("Ada Fenwick");
     await owner.getByLabel("E-mail").fill(clientEmail);
     await owner.getByRole("button", { name: "Create client" }).click();
-    await owner.waitForURL(/\/clients\/[0-9a-f-]{36}$/);
+    await owner.waitForURL(/\/clients\/[0-9a-f-]{36}(\?done=[a-z-]+)?$/);
 
     // --- A DTF job with a front and a back print and a size run.
     await owner.goto(`/shops/${slug}/jobs/new`);
@@ -128,7 +128,7 @@ describe("the whole job from an empty shop", () => {
     await owner.getByLabel("L", { exact: true }).fill("6");
     await expect.poll(() => owner.getByTestId("size-run-total").textContent()).toContain("18");
     await owner.getByRole("button", { name: "Create job" }).click();
-    await owner.waitForURL(/\/jobs\/[0-9a-f-]{36}$/);
+    await owner.waitForURL(/\/jobs\/[0-9a-f-]{36}(\?done=[a-z-]+)?$/);
     const jobUrl = new URL(owner.url()).pathname;
 
     // --- Empty state: no proofs yet, and the way to make one.

@@ -50,8 +50,11 @@ describe("orders, quotes and payments", () => {
     // The estimate follows the form as it is typed.
     await expect.poll(() => owner.getByTestId("price-estimate").getByTestId("quote-total").count()).toBe(1);
     await owner.getByRole("button", { name: "Create job" }).click();
-    await owner.waitForURL(/\/jobs\/[0-9a-f-]{36}$/);
-    const jobId = owner.url().split("/").pop()!;
+    await owner.waitForURL(/\/jobs\/[0-9a-f-]{36}(\?done=[a-z-]+)?$/);
+    const jobId = new URL(owner.url()).pathname.split("/").pop()!;
+    // The form confirms itself on the page it lands on, in a status a screen reader announces.
+    expect(await owner.getByTestId("arrival-note").textContent()).toMatch(/^Job created\./);
+    expect(await owner.getByTestId("arrival-note").getAttribute("role")).toBe("status");
     const run = await owner.getByTestId("job-size-run").textContent();
     expect(run).toContain("Youth");
     expect(run).toContain("Adult");
@@ -134,7 +137,7 @@ describe("orders, quotes and payments", () => {
     await page.locator("#contact-0-name").fill("Odile Marsh");
     await page.getByLabel("E-mail").fill("odile@harbour-choir.test");
     await page.getByRole("button", { name: "Create client" }).click();
-    await page.waitForURL(/\/clients\/[0-9a-f-]{36}$/);
+    await page.waitForURL(/\/clients\/[0-9a-f-]{36}(\?done=[a-z-]+)?$/);
     await ready(page);
     await page.getByRole("button", { name: "Add a contact" }).click();
     await page.locator("#contact-1-name").fill("Tam Ellory");

@@ -46,6 +46,8 @@ describe("production exports", () => {
     // The press applies the plan's suggested grading with one screen size for the whole run.
     await page.getByLabel("Screen sizes to suggest").first().selectOption("1");
     await page.getByTestId("plan-suggestion").first().waitFor();
+    // The suggestion's cost in trade words, not the maths behind it.
+    expect(await page.getByTestId("plan-suggestion").first().textContent()).toMatch(/every size prints (at its best print size|within [\d /]+ in of its best print size)/);
     await page.getByRole("button", { name: "Use the suggested sizes" }).first().click();
     await page.getByRole("status").filter({ hasText: "The suggested sizes are now what the spec sheet" }).waitFor();
     await expect(page.getByTestId("plan-now").first().textContent()).resolves.toMatch(/^Printing \(saved sizes\): S1 /);
@@ -76,7 +78,12 @@ describe("production exports", () => {
     const print = page.locator("[data-testid=export-row][data-kind=test-print]").first();
     await print.waitFor();
     await page.locator("[data-testid=export-row][data-kind=test-print][data-state=done]").first().waitFor({ timeout: 60_000 });
-    const printHref = await print.getByRole("link", { name: /Download/ }).getAttribute("href");
+    // The row and the file both say what the print holds: location, size, paper, and when it was made.
+    expect(await print.getByTestId("export-title").textContent()).toMatch(/^Test print \(PDF\) · Full front · size \S+ · A4$/);
+    expect(await print.getByTestId("export-state").textContent()).toMatch(/^Ready · made \S/);
+    const printLink = print.getByRole("link", { name: /Download/ });
+    expect(await printLink.textContent()).toMatch(/^Download spring-season-team-tees-test-print-full-front-size-[a-z0-9]+-a4-\d{4}-\d{2}-\d{2}-\d{4}\.pdf$/);
+    const printHref = await printLink.getAttribute("href");
     const printPdf = Buffer.from(await (await page.request.get(printHref!)).body());
     const printPages = await pdfPages(printPdf);
     expect(printPages.length).toBeGreaterThan(1);

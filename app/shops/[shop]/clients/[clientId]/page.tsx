@@ -1,8 +1,10 @@
+import { Suspense } from "react";
 import Link from "next/link";
 import { notFound } from "next/navigation";
 import { requireShopPage } from "@/app/_server/access";
 import { ClientForm } from "@/components/orders/ClientForm";
 import { PageHeader } from "@/components/ui/PageHeader";
+import { ArrivalNote } from "@/components/ui/ArrivalNote";
 import { StatusBadge } from "@/components/ui/StatusBadge";
 import { findClient } from "@/db/queries/clients";
 import { listJobs } from "@/db/queries/jobs";
@@ -36,6 +38,11 @@ export default async function ClientPage({ params }: { params: Promise<{ shop: s
           ) : undefined
         }
       />
+      <Suspense fallback={null}>
+        <div className="mb-4 empty:hidden">
+          <ArrivalNote />
+        </div>
+      </Suspense>
       <div className="grid gap-6 lg:grid-cols-[2fr_1fr]">
         <ClientForm
           shopSlug={shop}

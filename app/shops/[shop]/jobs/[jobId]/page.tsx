@@ -1,8 +1,10 @@
+import { Suspense } from "react";
 import Link from "next/link";
 import { notFound } from "next/navigation";
 import { requireShopPage } from "@/app/_server/access";
 import { EmptyState } from "@/components/ui/EmptyState";
 import { PageHeader } from "@/components/ui/PageHeader";
+import { ArrivalNote } from "@/components/ui/ArrivalNote";
 import { StatusBadge } from "@/components/ui/StatusBadge";
 import { jobMoney, loadPriceMatrix } from "@/app/_server/orders";
 import { PaymentList } from "@/components/orders/PaymentList";
@@ -86,6 +88,11 @@ export default async function JobPage({ params }: { params: Promise<{ shop: stri
           </>
         }
       />
+      <Suspense fallback={null}>
+        <div className="mb-4 empty:hidden">
+          <ArrivalNote />
+        </div>
+      </Suspense>
       {changedAfterApproval.length ? (
         <div role="note" className="mb-6 rounded-card border border-brick-300 bg-brick-100 p-4 text-sm text-brick-800" data-testid="changed-after-approval">
           <strong>Changed after approval.</strong>{" "}
