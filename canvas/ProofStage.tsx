@@ -371,8 +371,8 @@ const GarmentLayers = memo(function GarmentLayers({ view, silhouette, colourHex,
                 strokeWidth={1.5}
                 dash={[8, 5]}
               />
-              {/* Named inside its bottom edge, clear of the width callout that sits above the art. */}
-              <Text x={-(area.width * s) / 2 + 4} y={(area.height * s) / 2 - 15} width={Math.max(0, area.width * s - 8)} wrap="none" ellipsis text={`${spec.label} print area`} fontSize={11} fill={ink.label} visible={a.y > RULER_PX && area.width * s > 60} />
+              {/* Named just under its bottom edge: clear of the width callout above the art and of the art itself. */}
+              <Text x={-(area.width * s) / 2} y={(area.height * s) / 2 + 3} width={Math.max(0, area.width * s)} wrap="none" ellipsis text={`${spec.label} print area`} fontSize={11} fill={ink.label} visible={a.y > RULER_PX && area.width * s > 60} />
             </Group>
           );
         })}
@@ -433,7 +433,8 @@ function Callouts({ placement: p, view, unit, topFrom, width: stageW, height: st
   const collarY = view.originY;
   const ink = "#b7791f";
   const label = (text: string, x: number, y: number, align: "center" | "left" | "right" = "center") => {
-    const w = text.length * 6.4 + 10;
+    // Bold 11 px digits and letters run about 7 px each; the box leaves 5 px each side.
+    const w = text.length * 7 + 10;
     const left = align === "center" ? -w / 2 : align === "left" ? -3 : -w + 3;
     // Never under the rulers or past the stage's edge: the number is the point of the callout.
     const at = keepInside({ left: x + left, top: y - 9, width: w, height: 18 }, { left: RULER_PX + 2, top: RULER_PX + 2, right: stageW - 2, bottom: stageH - 2 });

@@ -34,7 +34,9 @@ if (as) {
 const pages = flag("pages");
 const shots: Array<{ path: string; out: string }> = pages
   ? pages.split(",").map((entry) => {
-      const [name, path] = entry.includes("=") ? entry.split("=", 2) as [string, string] : [entry.replace(/[^A-Za-z0-9]+/g, "-").replace(/^-|-$/g, "") || "home", entry];
+      const eq = entry.indexOf("=");
+      // "name=/path?a=b": the name is before the first "=", the path (with its own "=") after it.
+      const [name, path] = eq > 0 && entry.startsWith("/") === false ? [entry.slice(0, eq), entry.slice(eq + 1)] : [entry.replace(/[^A-Za-z0-9]+/g, "-").replace(/^-|-$/g, "") || "home", entry];
       return { path, out: `${flag("dir", ".")}/${flag("width", "1280")}-${name}.png` };
     })
   : [{ path: target, out }];

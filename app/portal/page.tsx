@@ -3,6 +3,7 @@ import { EmptyState } from "@/components/ui/EmptyState";
 import { PageHeader } from "@/components/ui/PageHeader";
 import { StatusBadge } from "@/components/ui/StatusBadge";
 import Link from "next/link";
+import { formatShopDate } from "@/lib/dates";
 import { listJobsForClients } from "@/db/queries/jobs";
 import { listSharedProofsForClients } from "@/db/queries/review";
 
@@ -28,7 +29,7 @@ export default async function PortalPage() {
                 </Link>
                 <span className="block text-sm text-ink-500">
                   {job.shopName}
-                  {job.dueDate ? ` · wanted by ${job.dueDate}` : ""}
+                  {job.dueDate ? ` · wanted by ${formatShopDate(job.dueDate, { locale: job.shopLocale })}` : ""}
                 </span>
               </span>
               <span className="flex items-center gap-2">

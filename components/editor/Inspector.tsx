@@ -183,13 +183,14 @@ export function Inspector(props: Props) {
         </ul>
         {props.editable && props.artworks.length ? (
           <form
-            className="mt-3 grid grid-cols-[1fr_1fr_auto] items-end gap-2"
+            className="mt-3 grid grid-cols-[1fr_auto] items-end gap-2"
             onSubmit={(e) => {
               e.preventDefault();
               if (newArt) props.onAdd(newArt, newLocation);
             }}
           >
-            <div>
+            {/* Art names are long: the menu takes the whole row so a name is never cut off. */}
+            <div className="col-span-2">
               <label htmlFor="new-art" className="mb-1 block text-xs font-medium text-ink-600">
                 Art
               </label>

@@ -39,11 +39,12 @@ export function JobBoard({ shopSlug, rows, movable }: { shopSlug: string; rows: 
       <p role="status" aria-busy={pending} className="min-h-5 text-sm text-ink-600" data-testid="board-said">
         {said}
       </p>
-      <div className="grid gap-3 overflow-x-auto pb-2 md:grid-cols-3 xl:grid-cols-6" data-testid="job-board">
+      {/* Three columns a row until the screen has room for all six at their readable width. */}
+      <div className="grid gap-3 pb-2 sm:grid-cols-2 lg:grid-cols-3 2xl:grid-cols-6" data-testid="job-board">
         {JOB_STATUSES.map((status) => {
           const cards = optimistic.filter((r) => r.status === status);
           return (
-            <section key={status} aria-label={JOB_STATUS_LABELS[status]} className="min-w-52 rounded-card bg-paper-100 p-2">
+            <section key={status} aria-label={JOB_STATUS_LABELS[status]} className="min-w-0 rounded-card bg-paper-100 p-2">
               <h2 className="mb-2 flex items-center justify-between px-1 text-sm font-semibold">
                 {JOB_STATUS_LABELS[status]} <span className="measure font-normal text-ink-500">{cards.length}</span>
               </h2>

@@ -398,7 +398,7 @@ function PinChooser(props: {
       }}
     >
       <button ref={toggle} type="button" className="btn-quiet px-3 py-1.5" aria-expanded={open} aria-controls={listId} onClick={() => setOpen((o) => !o)}>
-        Pin a note on…
+        Choose a spot for a note
       </button>
       {open ? (
         <ul id={listId} className="mt-2 flex flex-wrap gap-2" aria-label={`Spots on the ${props.side} to pin a note on`}>

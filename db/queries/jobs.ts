@@ -76,6 +76,7 @@ export async function listJobsForClients({ clientIds }: { clientIds: string[] })
       dueDate: jobs.dueDate,
       clientName: clients.name,
       shopName: shops.name,
+      shopLocale: shops.locale,
       updatedAt: jobs.updatedAt,
     })
     .from(jobs)

@@ -71,6 +71,32 @@ describe("everyday polish a shop and its clients notice", () => {
         .filter(Boolean),
     );
     expect(clipped).toEqual([]);
+    // And nothing on a card is cut off by its column: each card fits inside its column, and its words inside it.
+    const outside = await page.locator("[data-testid=board-card]").evaluateAll((cards) =>
+      cards
+        .map((card) => {
+          const column = card.closest("section")!.getBoundingClientRect();
+          const box = card.getBoundingClientRect();
+          const fits = box.left >= column.left - 0.5 && box.right <= column.right + 0.5 && card.scrollWidth <= card.clientWidth + 1;
+          return fits ? null : `${card.querySelector("a")?.textContent}: card ${Math.round(box.width)} px in a ${Math.round(column.width)} px column`;
+        })
+        .filter(Boolean),
+    );
+    expect(outside).toEqual([]);
+    // Columns never run into each other or past the board.
+    const overlaps = await page.locator("[data-testid=job-board]").evaluate((board) => {
+      const boxes = Array.from(board.querySelectorAll(":scope > section")).map((s) => ({ name: s.getAttribute("aria-label"), r: s.getBoundingClientRect() }));
+      const out: string[] = [];
+      boxes.forEach((a, i) =>
+        boxes.slice(i + 1).forEach((b) => {
+          const apart = a.r.right <= b.r.left + 0.5 || b.r.right <= a.r.left + 0.5 || a.r.bottom <= b.r.top + 0.5 || b.r.bottom <= a.r.top + 0.5;
+          if (!apart) out.push(`${a.name} overlaps ${b.name}`);
+        }),
+      );
+      if (board.scrollWidth > board.clientWidth + 1) out.push(`the board is ${board.scrollWidth} px wide in ${board.clientWidth} px`);
+      return out;
+    });
+    expect(overlaps).toEqual([]);
     // The first card of the first column moves one step on.
     const card = page.locator("[data-testid=board-card]").first();
     const title = (await card.getByRole("link").first().textContent())!.trim();

@@ -156,7 +156,7 @@ describe("review link on a phone", () => {
   it("pins a note with the keyboard alone, moves it with the arrow keys and stores where it ended", async () => {
     const context = await newContext(browser, { viewport: PHONE, isMobile: true });
     const page = await openLink(context);
-    const chooser = page.getByRole("button", { name: "Pin a note on…" });
+    const chooser = page.getByRole("button", { name: "Choose a spot for a note" });
     await chooser.waitFor();
 
     // Tab to the chooser, as a keyboard user would.

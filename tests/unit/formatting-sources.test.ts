@@ -29,6 +29,11 @@ const RULES: Rule[] = [
   { what: "a number format of its own (Intl.NumberFormat)", pattern: /new Intl\.NumberFormat\(/, allowedIn: ["lib/money.ts", "lib/units.ts"] },
   { what: "an ISO date cut out of a timestamp", pattern: /toISOString\(\)\.slice\(/, allowedIn: [] },
   { what: "a dollar sign glued to a number", pattern: /\$\$\{|["'`]\$["'`]\s*\+|prefix="\$"/, allowedIn: [] },
+  { what: "a stored date put in text as it is stored (2027-03-12)", pattern: /\$\{[\w.?!]*(dueDate|[a-z]At)\}/, allowedIn: [
+    // A column in SQL, not text; and the spec sheet's "made" line, handed over already formatted by lib/dates.ts.
+    "db/queries/orders.ts",
+    "app/_server/production/spec-sheet.ts",
+  ] },
   { what: "cents turned into text by hand", pattern: /[cC]ents\)?\s*\/\s*100\)?\.toFixed\(|\(\s*\w*[cC]ents\s*\/\s*100\s*\)\.toFixed/, allowedIn: [] },
 ];
 

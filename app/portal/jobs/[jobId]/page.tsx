@@ -1,4 +1,5 @@
 import Link from "next/link";
+import { formatShopDate } from "@/lib/dates";
 import { notFound } from "next/navigation";
 import { requireActorPage } from "@/app/_server/access";
 import { quotePanelData } from "@/app/_server/orders";
@@ -31,7 +32,7 @@ export default async function PortalJobPage({ params, searchParams }: { params: 
           ← My jobs
         </Link>
       </p>
-      <PageHeader title={job.title} lead={`${contact.shopName}${job.dueDate ? ` · wanted by ${job.dueDate}` : ""}`} actions={<StatusBadge status={job.status} />} />
+      <PageHeader title={job.title} lead={`${contact.shopName}${job.dueDate ? ` · wanted by ${formatShopDate(job.dueDate, panel?.clock)}` : ""}`} actions={<StatusBadge status={job.status} />} />
       <div className="grid gap-6 lg:grid-cols-[minmax(0,3fr)_minmax(0,2fr)]">
         {panel ? <QuotePanel data={panel} canAccept /> : <EmptyState title="No quote yet">The print shop will send a quote here once the details are settled.</EmptyState>}
         <section className="card h-fit p-5" aria-label="Proofs">

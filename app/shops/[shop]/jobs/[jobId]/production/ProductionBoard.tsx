@@ -341,7 +341,7 @@ function GradingPanel(props: {
         })}
       </div>
       <div className="mt-2 overflow-x-auto">
-        <table className="measure w-full text-left text-xs" aria-label={`${placement.label}: every size's print`}>
+        <table className="measure w-full whitespace-nowrap text-left text-xs" aria-label={`${placement.label}: every size's print`}>
           <thead className="text-ink-500">
             <tr>
               <th className="py-1 pr-3 font-medium">Size</th>
@@ -364,7 +364,7 @@ function GradingPanel(props: {
                   <td className="py-1 pr-3">{t.top}</td>
                   <td className="py-1 pr-3">{t.fromCentre}</td>
                   <td className="py-1 pr-3">{t.group}</td>
-                  <td className="py-1 text-brick-800">{t.checks.length ? t.checks.join(" ") : <span className="text-patina-700">Fits</span>}</td>
+                  <td className="min-w-48 whitespace-normal py-1 text-brick-800">{t.checks.length ? t.checks.join(" ") : <span className="text-patina-700">Fits</span>}</td>
                 </tr>
               );
             })}
@@ -381,7 +381,7 @@ function GradingPanel(props: {
               </option>
             ))}
           </select>
-          <select className="field-input w-28 py-1" aria-label="Paper" value={paper} onChange={(e) => setPaper(e.target.value as PaperId)}>
+          <select className="field-input w-auto py-1" aria-label="Paper" value={paper} onChange={(e) => setPaper(e.target.value as PaperId)}>
             {Object.values(PAPER_SIZES).map((p) => (
               <option key={p.id} value={p.id}>
                 {p.label}
