@@ -13,6 +13,7 @@ import { keepInside, rulerTicks, rulerTicksCm, scaleOf, snapArtPosition, toStage
 import type { LengthUnit } from "@/lib/units";
 import { formatLength } from "@/lib/units";
 import { inkOn, shade } from "./colour";
+import { PROOF_DRAWN_MARK } from "@/lib/perf-marks";
 import { printMarks } from "./marks";
 import { snapHandleBox } from "./transform-snap";
 
@@ -45,6 +46,8 @@ type Props = {
   onGarmentClick?: (point: Point) => void;
   /** A simple body figure drawn behind the garment (worn view). */
   figure?: Point[][];
+  /** Called once, after the first frame that shows the garment with every print's art. */
+  onDrawn?: () => void;
   /** The editor's warnings per placement id (code and severity): prints that do not fit get an outline and a tag. */
   flags?: Record<string, WarningFlag[]>;
 };
@@ -76,6 +79,31 @@ export default function ProofStage(props: Props) {
     () => (props.flags ? printMarks({ placements: props.placements, flags: props.flags, view, skip: moving, minY: RULER_PX + 2 }) : []),
     [props.flags, props.placements, view, moving],
   );
+
+  // Once per page: the first frame with the garment and every print's art on it is marked, so the
+  // time a client waits for the mock-up can be measured (the browser's LCP does not see a canvas).
+  const artReady = props.placements.every((p) => !p.artworkId || props.images[p.artworkId]);
+  const onDrawn = useRef(props.onDrawn);
+  useEffect(() => {
+    onDrawn.current = props.onDrawn;
+  });
+  const drawnOnce = useRef(false);
+  useEffect(() => {
+    if (!artReady || drawnOnce.current || typeof performance === "undefined") return;
+    // Konva draws on the next animation frame; the mark goes after that frame has been painted.
+    let second = 0;
+    const first = requestAnimationFrame(() => {
+      second = requestAnimationFrame(() => {
+        if (performance.getEntriesByName(PROOF_DRAWN_MARK).length === 0) performance.mark(PROOF_DRAWN_MARK);
+        drawnOnce.current = true;
+        onDrawn.current?.();
+      });
+    });
+    return () => {
+      cancelAnimationFrame(first);
+      cancelAnimationFrame(second);
+    };
+  }, [artReady]);
 
   useEffect(() => {
     const tr = transformer.current;

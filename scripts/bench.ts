@@ -5,7 +5,8 @@
  *  - then, against a production build on the test stack it brings up and stops again:
  *    frame times of dragging 6000 × 6000 px art in the editor in headless Chromium, server
  *    throughput and p99 latency of a client review page against a prerendered page, and the
- *    first-load JavaScript of the review page and the editor.
+ *    first-load JavaScript of the review page and the editor, and the review page's wait on a
+ *    throttled phone until the garment and art are drawn.
  * Each measurement lives in scripts/bench/; this file runs them in order and prints the table.
  */
 import os from "node:os";
@@ -19,6 +20,7 @@ import { measureFirstLoadJs } from "./bench/first-load-js";
 import { measureGangFiles } from "./bench/gang-files";
 import { measureGangSheets } from "./bench/gang-sheet";
 import { measurePageScripts } from "./bench/page-scripts";
+import { measurePhoneLoad } from "./bench/phone-load";
 import { measureReviewLoad } from "./bench/review-load";
 import { printTable, type Row } from "./bench/table";
 import { measureUploadAnalysis } from "./bench/upload-analysis";
@@ -28,10 +30,16 @@ const began = performance.now();
 const loadAtStart = os.loadavg()[0]!;
 const rows: Row[] = [];
 
-rows.push(...measureGangSheets());
-rows.push(...(await measureGangFiles()));
-rows.push(...(await measureUploadAnalysis()));
-log(`packing and upload analysis done in ${((performance.now() - began) / 1000).toFixed(0)} s`);
+// `npm run bench -- --only=phone` (or drag, load, scripts) measures one part against the app, for work on it.
+const only = process.argv.find((a) => a.startsWith("--only="))?.slice("--only=".length) ?? null;
+const wants = (part: string) => only === null || only === part;
+
+if (only === null) {
+  rows.push(...measureGangSheets());
+  rows.push(...(await measureGangFiles()));
+  rows.push(...(await measureUploadAnalysis()));
+  log(`packing and upload analysis done in ${((performance.now() - began) / 1000).toFixed(0)} s`);
+}
 
 let fixture: BenchFixture | undefined;
 let failure: unknown;
@@ -45,15 +53,16 @@ try {
     async ({ baseUrl }) => {
       const t0 = performance.now();
       const f = fixture!;
-      rows.push(...measureFirstLoadJs(log));
+      if (wants("scripts")) rows.push(...measureFirstLoadJs(log));
       const browser = await launchChromium();
       try {
-        rows.push(...(await measurePageScripts({ browser, baseUrl, fixture: f, password: DEMO_PASSWORD })));
-        rows.push(...(await measureEditorDrag({ browser, baseUrl, fixture: f, password: DEMO_PASSWORD, log })));
+        if (wants("scripts")) rows.push(...(await measurePageScripts({ browser, baseUrl, fixture: f, password: DEMO_PASSWORD })));
+        if (wants("drag")) rows.push(...(await measureEditorDrag({ browser, baseUrl, fixture: f, password: DEMO_PASSWORD, log })));
+        if (wants("phone")) rows.push(...(await measurePhoneLoad({ browser, baseUrl, token: f.reviewToken, log })));
       } finally {
         await browser.close();
       }
-      rows.push(...(await measureReviewLoad({ baseUrl, token: f.reviewToken, proofName: "Team tee", log })));
+      if (wants("load")) rows.push(...(await measureReviewLoad({ baseUrl, token: f.reviewToken, proofName: "Team tee", log })));
       appMs = performance.now() - t0;
     },
   );
