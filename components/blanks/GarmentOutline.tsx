@@ -18,6 +18,10 @@ export interface GarmentOutlineProps {
   /** Accessible name; without it the drawing is decorative. */
   title?: string;
   className?: string;
+  /** "middle" centres the drawing in its box, as the proof canvas does; the default rests it on the bottom. */
+  align?: "bottom" | "middle";
+  /** Drawn over the garment, in the same garment inches (a proof's prints). */
+  children?: React.ReactNode;
 }
 
 type Box = { minX: number; minY: number; maxX: number; maxY: number };
@@ -31,6 +35,8 @@ export function GarmentOutline({
   guides = false,
   title,
   className,
+  align = "bottom",
+  children,
 }: GarmentOutlineProps) {
   const box = boundsOf([s.outline, ...(s.hood ? [s.hood] : []), ...(s.handles ?? [])]);
   const viewBox = frame ? framedViewBox(box, frame) : fittedViewBox(box);
@@ -57,7 +63,7 @@ export function GarmentOutline({
       role={title ? "img" : undefined}
       aria-label={title}
       aria-hidden={title ? undefined : true}
-      preserveAspectRatio="xMidYMax meet"
+      preserveAspectRatio={align === "middle" ? "xMidYMid meet" : "xMidYMax meet"}
     >
       {title ? <title>{title}</title> : null}
       {farHandle ? (
@@ -106,6 +112,7 @@ export function GarmentOutline({
         <path d={closedPath(nearHandle)} fill={fill} stroke={edge} strokeWidth={1} {...stroke} />
       ) : null}
       {s.hoodLayer === "over" ? hood : null}
+      {children}
       {guides ? (
         <g>
           {s.category !== "tote" ? (

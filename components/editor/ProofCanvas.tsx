@@ -7,17 +7,32 @@ import { locationSpec, sideOf, type LocationSpec } from "@/lib/garments/location
 import { buildSilhouette } from "@/lib/garments/silhouette";
 import type { GarmentCategory, GarmentSide, SizeGroup, GarmentMeasurements } from "@/lib/garments/types";
 import { centredOrigin, fitZoom, panToCentre, scaleOf, type View } from "@/lib/editor/view";
+import { preload } from "react-dom";
+import { GarmentOutline } from "@/components/blanks/GarmentOutline";
+import { PROOF_DRAWN_MARK } from "@/lib/perf-marks";
 import { bodyFigure } from "@/lib/review/figure";
 import type { WarningFlag } from "@/lib/placement/checks";
 import type { Placement } from "@/lib/placement/model";
 import type { LengthUnit } from "@/lib/units";
 
+/** The Element Timing name of the poster's art images. */
+const POSTER_TIMING = "proof-poster-art";
+
 const ProofStage = dynamic(() => import("@/canvas/ProofStage"), {
   ssr: false,
-  loading: () => <div className="grid h-full place-items-center text-sm text-ink-500">Drawing the garment…</div>,
+  // The SVG poster stands in while the canvas code loads.
+  loading: () => null,
 });
 
-export type ArtSource = { id: string; name: string; src: string; inkWidthPx: number; inkHeightPx: number };
+export type ArtSource = {
+  id: string;
+  name: string;
+  src: string;
+  /** A small copy for the first, server-drawn picture (defaults to `src`). */
+  posterSrc?: string;
+  inkWidthPx: number;
+  inkHeightPx: number;
+};
 
 type Props = {
   category: GarmentCategory;
@@ -67,35 +82,147 @@ function useImages(art: ArtSource[]) {
   return images;
 }
 
+/**
+ * The proof as plain SVG, in the server's HTML: the garment and its art are on screen before any
+ * script runs (a phone on a slow network waits seconds for the canvas code). The canvas takes its
+ * place once it has drawn. Each art image carries an Element Timing name, so the page can mark when
+ * the client could first see the garment with its art.
+ */
+function ProofPoster({
+  silhouette,
+  colourHex,
+  placements,
+  art,
+}: {
+  silhouette: ReturnType<typeof buildSilhouette>;
+  colourHex: string;
+  placements: Placement[];
+  art: ArtSource[];
+}) {
+  return (
+    <div className="pointer-events-none absolute inset-0" data-testid="proof-poster">
+      <GarmentOutline
+        silhouette={silhouette}
+        fill={colourHex}
+        align="middle"
+        className="h-full w-full p-6"
+        title="The proof, drawing at true scale"
+      >
+        {placements.map((p) => {
+          const a = art.find((x) => x.id === p.artworkId);
+          if (!a) return null;
+          const href = a.posterSrc ?? a.src;
+          // Fetched first, ahead of the scripts: it is what the client came to see.
+          if (!href.startsWith("data:")) preload(href, { as: "image", fetchPriority: "high" });
+          const cx = p.offsetFromCenterIn;
+          const cy = p.belowCollarIn + p.heightIn / 2;
+          return (
+            <image
+              key={p.id}
+              href={href}
+              x={cx - p.widthIn / 2}
+              y={p.belowCollarIn}
+              width={p.widthIn}
+              height={p.heightIn}
+              preserveAspectRatio="none"
+              transform={p.rotationDeg ? `rotate(${p.rotationDeg} ${cx} ${cy})` : undefined}
+              {...{ elementtiming: POSTER_TIMING }}
+            />
+          );
+        })}
+      </GarmentOutline>
+    </div>
+  );
+}
+
+/**
+ * Marks the first paint of the poster's garment and art with their own paint time (Element Timing
+ * renderTime), so the mark says when the client saw them, not when this script got round to it.
+ */
+function usePosterMark(artCount: number) {
+  useEffect(() => {
+    if (
+      typeof PerformanceObserver === "undefined" ||
+      !PerformanceObserver.supportedEntryTypes?.includes("element")
+    )
+      return;
+    const times: number[] = [];
+    const observer = new PerformanceObserver((list) => {
+      for (const e of list.getEntries() as Array<
+        PerformanceEntry & { identifier?: string; renderTime?: number; loadTime?: number }
+      >) {
+        if (e.identifier !== POSTER_TIMING) continue;
+        times.push(e.renderTime || e.loadTime || e.startTime);
+      }
+      if (times.length < artCount || performance.getEntriesByName(PROOF_DRAWN_MARK).length > 0) return;
+      observer.disconnect();
+      // With no art the garment alone is the picture: its first contentful paint.
+      const garment = performance.getEntriesByName("first-contentful-paint")[0]?.startTime ?? 0;
+      performance.mark(PROOF_DRAWN_MARK, { startTime: Math.max(garment, ...times) });
+    });
+    observer.observe({ type: "element", buffered: true });
+    if (artCount === 0) {
+      const garment = performance.getEntriesByName("first-contentful-paint")[0]?.startTime;
+      if (garment !== undefined && performance.getEntriesByName(PROOF_DRAWN_MARK).length === 0)
+        performance.mark(PROOF_DRAWN_MARK, { startTime: garment });
+    }
+    return () => observer.disconnect();
+  }, [artCount]);
+}
+
 /** Sizes the stage to its box, keeps the view transform, and draws the proof through ProofStage. */
 export function ProofCanvas(props: Props) {
   const box = useRef<HTMLDivElement>(null);
   const [size, setSize] = useState({ width: 0, height: 0 });
   // Pan is kept as the garment point (inches from the garment's middle) at the viewport centre,
   // so zooming keeps that point still; switching side starts centred again.
-  const [pan, setPan] = useState<{ side: GarmentSide; x: number; y: number }>({ side: props.side, x: 0, y: 0 });
+  const [pan, setPan] = useState<{ side: GarmentSide; x: number; y: number }>({
+    side: props.side,
+    x: 0,
+    y: 0,
+  });
   const images = useImages(props.art);
+  // The SVG poster shows until the canvas has drawn the garment with its art.
+  const [stageDrawn, setStageDrawn] = useState(false);
 
-  const silhouette = useMemo(() => buildSilhouette(props.category, props.measurements, props.side), [props.category, props.measurements, props.side]);
+  const silhouette = useMemo(
+    () => buildSilhouette(props.category, props.measurements, props.side),
+    [props.category, props.measurements, props.side],
+  );
   const figure = useMemo(() => {
     if (!props.worn || !("bodyLength" in props.measurements)) return undefined;
-    return bodyFigure({ silhouette, bodyLength: props.measurements.bodyLength, chestWidth: props.measurements.chestWidth, neckWidth: props.measurements.neckWidth });
+    return bodyFigure({
+      silhouette,
+      bodyLength: props.measurements.bodyLength,
+      chestWidth: props.measurements.chestWidth,
+      neckWidth: props.measurements.neckWidth,
+    });
   }, [props.worn, props.measurements, silhouette]);
   const garmentBox = useMemo(() => {
-    const pts = [...silhouette.outline, ...(silhouette.hood ?? []), ...(silhouette.handles ?? []).flat(), ...(figure ?? []).flat()];
+    const pts = [
+      ...silhouette.outline,
+      ...(silhouette.hood ?? []),
+      ...(silhouette.handles ?? []).flat(),
+      ...(figure ?? []).flat(),
+    ];
     const xs = pts.map((p) => p.x);
     const ys = pts.map((p) => p.y);
-    return { x: Math.min(...xs), y: Math.min(...ys), width: Math.max(...xs) - Math.min(...xs), height: Math.max(...ys) - Math.min(...ys) };
+    return {
+      x: Math.min(...xs),
+      y: Math.min(...ys),
+      width: Math.max(...xs) - Math.min(...xs),
+      height: Math.max(...ys) - Math.min(...ys),
+    };
   }, [silhouette, figure]);
 
   // "Actual size" and the like centre the view on the print they are about.
+  // Only a new request moves the view; a later side or size change keeps its own pan.
   const centreOn = props.centreOn;
-  useEffect(() => {
-    if (!centreOn) return;
+  const [centredFor, setCentredFor] = useState(0);
+  if (centreOn && centreOn.n !== centredFor) {
+    setCentredFor(centreOn.n);
     setPan({ side: props.side, ...panToCentre(garmentBox, centreOn) });
-    // Only a new request moves the view; a later side or size change keeps its own pan.
-    // eslint-disable-next-line react-hooks/exhaustive-deps
-  }, [centreOn?.n]);
+  }
 
   useEffect(() => {
     const el = box.current;
@@ -113,7 +240,13 @@ export function ProofCanvas(props: Props) {
   const fitted = useMemo(
     () =>
       size.width && size.height
-        ? fitZoom({ boxWidthIn: garmentBox.width, boxHeightIn: garmentBox.height, viewportWidth: size.width, viewportHeight: size.height, pxPerInch: props.pxPerInch })
+        ? fitZoom({
+            boxWidthIn: garmentBox.width,
+            boxHeightIn: garmentBox.height,
+            viewportWidth: size.width,
+            viewportHeight: size.height,
+            pxPerInch: props.pxPerInch,
+          })
         : null,
     [size, garmentBox, props.pxPerInch],
   );
@@ -131,16 +264,30 @@ export function ProofCanvas(props: Props) {
     if (effectiveZoom === null || !viewW) return null;
     const scale = props.pxPerInch * effectiveZoom;
     const centre = centredOrigin({ box: garmentBox, viewportWidth: viewW, viewportHeight: viewH, scale });
-    return { originX: centre.originX - panIn.x * scale, originY: centre.originY - panIn.y * scale, pxPerInch: props.pxPerInch, zoom: effectiveZoom };
+    return {
+      originX: centre.originX - panIn.x * scale,
+      originY: centre.originY - panIn.y * scale,
+      pxPerInch: props.pxPerInch,
+      zoom: effectiveZoom,
+    };
   }, [effectiveZoom, viewW, viewH, garmentBox, props.pxPerInch, panIn.x, panIn.y]);
 
   const sidePlacements = props.placements.filter((p) => sideOf(p.location) === props.side);
+  usePosterMark(sidePlacements.filter((p) => props.art.some((a) => a.id === p.artworkId)).length);
   const locationKey = [...new Set(sidePlacements.map((p) => p.location))].sort().join(",");
   const specs = useMemo(() => {
     const list: LocationSpec[] = [];
     for (const location of locationKey ? (locationKey.split(",") as Placement["location"][]) : []) {
       try {
-        list.push(locationSpec({ location, category: props.category, group: props.group, measurements: props.measurements, silhouette }));
+        list.push(
+          locationSpec({
+            location,
+            category: props.category,
+            group: props.group,
+            measurements: props.measurements,
+            silhouette,
+          }),
+        );
       } catch {
         // A location this garment does not offer: the placement checks say so in words.
       }
@@ -163,8 +310,17 @@ export function ProofCanvas(props: Props) {
       data-origin-x={view?.originX}
       data-origin-y={view?.originY}
     >
+      {stageDrawn ? null : (
+        <ProofPoster
+          silhouette={silhouette}
+          colourHex={props.colourHex}
+          placements={sidePlacements}
+          art={props.art}
+        />
+      )}
       {view && size.width > 0 ? (
         <ProofStage
+          onDrawn={() => setStageDrawn(true)}
           width={size.width}
           height={size.height}
           view={view}

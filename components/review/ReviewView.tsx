@@ -137,6 +137,8 @@ export function ReviewView(props: ReviewViewProps) {
         id: a.id,
         name: a.name,
         src: a.kind === "generated" && a.svg ? svgDataUrl(a.svg) : `${base}/art/${a.id}`,
+        // The first picture on a phone: the small copy, a few kilobytes, while the canvas loads the full preview.
+        posterSrc: a.kind === "generated" && a.svg ? undefined : `${base}/art/${a.id}?size=small`,
         inkWidthPx: a.inkWidthPx,
         inkHeightPx: a.inkHeightPx,
       })),

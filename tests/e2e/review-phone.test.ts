@@ -20,7 +20,8 @@ import { LOCATION_LABELS } from "@/lib/garments/locations";
 import { placementCenter, type Placement } from "@/lib/placement/model";
 import { describePin } from "@/lib/review/pin";
 import { buildShopRecords, type ShopRecords } from "@/tests/authz/fixtures";
-import { launch, newContext } from "./support";
+import { PROOF_DRAWN_MARK } from "@/lib/perf-marks";
+import { BASE_URL, launch, newContext } from "./support";
 
 const PHONE = { width: 390, height: 844 };
 /** Screenshots for review by a person, beside the other e2e screenshots. */
@@ -73,6 +74,22 @@ function insideViewport(box: { x: number; y: number; width: number; height: numb
 const isFocused = (locator: Locator) => locator.evaluate((el) => el === document.activeElement);
 
 describe("review link on a phone", () => {
+  it("shows the garment and its art in the page's HTML, before any script, and marks when the client could see them", async () => {
+    // Without scripts: the server's HTML already draws the garment with the art on it.
+    const html = await (await fetch(`${BASE_URL}/r/${records.linkToken}`)).text();
+    const poster = /<div[^>]*data-testid="proof-poster"[^>]*>([\s\S]*?)<\/svg>/.exec(html)?.[1] ?? "";
+    expect(poster).toMatch(/<path d="M/);
+    expect(poster).toMatch(/<image [^>]*elementtiming="proof-poster-art"/);
+    const context = await newContext(browser, { viewport: PHONE, isMobile: true, hasTouch: true });
+    const page = await openLink(context);
+    // The page marks the moment; the canvas takes the poster's place once it has drawn the art.
+    await page.waitForFunction((name) => performance.getEntriesByName(name).length > 0, PROOF_DRAWN_MARK);
+    const at = await page.evaluate((name) => performance.getEntriesByName(name)[0]!.startTime, PROOF_DRAWN_MARK);
+    expect(at).toBeGreaterThan(0);
+    await page.locator("[data-testid=proof-poster]").waitFor({ state: "detached" });
+    await context.close();
+  });
+
   it("after a tap pins a note, the note box has the focus and is on screen", async () => {
     const context = await newContext(browser, { viewport: PHONE, isMobile: true, hasTouch: true });
     const page = await openLink(context);

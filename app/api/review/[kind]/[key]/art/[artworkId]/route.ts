@@ -6,7 +6,7 @@ import { latestRevision } from "@/db/queries/review";
 export const dynamic = "force-dynamic";
 
 /** Art previews for reviewers, limited to art that is on the proof they may see. */
-export async function GET(_request: Request, { params }: { params: Promise<{ kind: string; key: string; artworkId: string }> }) {
+export async function GET(request: Request, { params }: { params: Promise<{ kind: string; key: string; artworkId: string }> }) {
   const { kind, key, artworkId } = await params;
   if (!isRecordId(artworkId)) return NextResponse.json({ error: "Not found." }, { status: 404 });
   const access = await resolveReview(kind, key);
@@ -14,7 +14,9 @@ export async function GET(_request: Request, { params }: { params: Promise<{ kin
   const revision = await latestRevision({ proofId: access.reviewer.proofId });
   const placed = revision?.snapshot.placements.some((p) => p.artworkId === artworkId);
   if (!placed && access.reviewer.kind !== "shop") return NextResponse.json({ error: "Not found." }, { status: 404 });
-  const image = await getArtworkImage({ shopId: access.reviewer.shopId, artworkId, variant: "preview" });
+  // ?size=small: the 256 px copy the page shows first on a slow connection; otherwise the full preview.
+  const small = new URL(request.url).searchParams.get("size") === "small";
+  const image = await getArtworkImage({ shopId: access.reviewer.shopId, artworkId, variant: small ? "thumbnail" : "preview" });
   if (!image) return NextResponse.json({ error: "Not found." }, { status: 404 });
   const headers = { "Cache-Control": "private, max-age=600", "X-Content-Type-Options": "nosniff" };
   if (image.data) return new NextResponse(new Uint8Array(image.data), { headers: { ...headers, "Content-Type": "image/webp" } });
