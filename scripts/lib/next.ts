@@ -36,7 +36,10 @@ export async function buildApp(env: Record<string, string>, log: (line: string) 
 
 /** The app: Next.js behind scripts/serve.ts, which works out each request's client address. */
 export function startNext(opts: { dev: boolean; port: number; env: Record<string, string>; quiet?: boolean }): ChildProcess {
-  const args = [TSX_CLI, path.join(repoRoot, "scripts", "serve.ts"), ...(opts.dev ? ["--dev"] : []), "-p", String(opts.port), "-H", process.env.HOST ?? "127.0.0.1"];
+  // CHALKLINE_SERVER_NODE_ARGS="--cpu-prof --cpu-prof-dir=…" profiles the server (Node refuses --cpu-prof in NODE_OPTIONS).
+  const nodeArgs = (process.env.CHALKLINE_SERVER_NODE_ARGS ?? "").split(/\s+/).filter(Boolean);
+  // With node flags the server runs in this node process's child directly (tsx as a loader), so the flags reach it.
+  const args = [...(nodeArgs.length ? [...nodeArgs, "--import", "tsx"] : [TSX_CLI]), path.join(repoRoot, "scripts", "serve.ts"), ...(opts.dev ? ["--dev"] : []), "-p", String(opts.port), "-H", process.env.HOST ?? "127.0.0.1"];
   return spawn(process.execPath, args, {
     cwd: repoRoot,
     env: { ...process.env, ...opts.env, NEXT_TELEMETRY_DISABLED: "1" },
