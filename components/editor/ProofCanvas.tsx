@@ -156,7 +156,7 @@ function usePosterMark(artCount: number) {
       }
       if (times.length < artCount || performance.getEntriesByName(PROOF_DRAWN_MARK).length > 0) return;
       observer.disconnect();
-      // With no art the garment alone is the picture: its first contentful paint.
+      // The garment is plain SVG, painted with the page's first contentful paint; the mark is the later of it and the art.
       const garment = performance.getEntriesByName("first-contentful-paint")[0]?.startTime ?? 0;
       performance.mark(PROOF_DRAWN_MARK, { startTime: Math.max(garment, ...times) });
     });
