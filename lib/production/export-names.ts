@@ -34,12 +34,16 @@ export function sizesText(sizes: ReadonlyArray<string>): string {
   return `sizes ${list[0]}–${list[list.length - 1]}`;
 }
 
+/** "Letter, mirrored": the paper's short name (its dimensions dropped) and whether it is mirrored. */
+function paperText(subject: ExportSubject): string {
+  return subject.paper ? `${subject.paper.replace(/\s*\(.*\)$/, "")}${subject.mirrored ? ", mirrored" : ""}` : "";
+}
+
 /** The row's heading: "Test print (PDF) · Full front · size XS · Letter, mirrored". */
 export function exportTitle(kind: string, subject: ExportSubject | null | undefined): string {
   const label = (EXPORT_KIND_LABELS as Record<string, string>)[kind] ?? kind;
   if (!subject) return label;
-  const paper = subject.paper ? `${subject.paper.replace(/\s*\(.*\)$/, "")}${subject.mirrored ? ", mirrored" : ""}` : "";
-  return [label, unique(subject.locations).join(" + "), sizesText(subject.sizes), paper].filter(Boolean).join(" · ");
+  return [label, unique(subject.locations).join(" + "), sizesText(subject.sizes), paperText(subject)].filter(Boolean).join(" · ");
 }
 
 const slug = (s: string) =>
@@ -66,8 +70,7 @@ const KIND_SLUG: Readonly<Record<ExportKind, string>> = {
 export function exportFileName(o: { jobTitle: string; kind: ExportKind; subject: ExportSubject; stamp: string; part?: { n: number; of: number }; ext: "pdf" | "png" }): string {
   const sizes = unique(o.subject.sizes);
   const sizePart = sizes.length === 0 ? "" : sizes.length === 1 ? `size-${sizes[0]}` : sizes.length === 2 ? `sizes-${sizes[0]}-${sizes[1]}` : `sizes-${sizes[0]}-to-${sizes[sizes.length - 1]}`;
-  const paper = o.subject.paper ? `${o.subject.paper.replace(/\s*\(.*\)$/, "")}${o.subject.mirrored ? " mirrored" : ""}` : "";
-  const parts = [o.jobTitle, KIND_SLUG[o.kind], ...unique(o.subject.locations), sizePart, paper, o.stamp, o.part && o.part.of > 1 ? `${o.part.n}-of-${o.part.of}` : ""];
+  const parts = [o.jobTitle, KIND_SLUG[o.kind], ...unique(o.subject.locations), sizePart, paperText(o.subject), o.stamp, o.part && o.part.of > 1 ? `${o.part.n}-of-${o.part.of}` : ""];
   const name = parts.map(slug).filter(Boolean).join("-").slice(0, 180).replace(/-$/, "");
   return `${name || "export"}.${o.ext}`;
 }
