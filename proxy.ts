@@ -1,23 +1,39 @@
 import { NextResponse, type NextRequest } from "next/server";
+import { KEPT_HEADER, keptPageKeys, keptReviewToken, RENDER_HEADER } from "@/lib/kept-pages";
 import { contentSecurityPolicy, cspSourcesFromEnv, newNonce, pageSecurityHeaders } from "@/lib/security-headers";
 
 /**
  * Every page gets a fresh nonce and a Content Security Policy built around it. Next.js reads the
  * nonce from the request's CSP header and puts it on its own scripts, so pages must render per
  * request (the root layout waits for the connection).
+ *
+ * A plain visit to a review link goes to the page kept for the link's current state
+ * (app/api/review-page): same policy, same fresh nonce, without rendering React again. The app's
+ * own render of a page to keep carries the render key and gets the stand-in nonce instead.
  */
 export async function proxy(request: NextRequest) {
   if (request.method === "POST" && request.headers.has("next-action") && !(await readableActionBody(request))) {
     return NextResponse.json({ error: "That request could not be read." }, { status: 400 });
   }
-  const nonce = newNonce();
+  const kept = keptPageKeys(process.env);
+  const rendering = kept !== null && request.headers.get(RENDER_HEADER) === kept.render;
+  const nonce = rendering ? kept.standIn : newNonce();
   const sources = cspSourcesFromEnv(process.env);
   const csp = contentSecurityPolicy(nonce, sources);
 
   const requestHeaders = new Headers(request.headers);
   requestHeaders.set("x-nonce", nonce);
   requestHeaders.set("Content-Security-Policy", csp);
-  const response = NextResponse.next({ request: { headers: requestHeaders } });
+  requestHeaders.delete(KEPT_HEADER);
+  if (!rendering) requestHeaders.delete(RENDER_HEADER);
+  const token = kept && !rendering && !request.headers.has("rsc") ? keptReviewToken(request.method, request.nextUrl.pathname, request.nextUrl.search) : null;
+  let response: NextResponse;
+  if (kept && token) {
+    requestHeaders.set(KEPT_HEADER, kept.render);
+    response = NextResponse.rewrite(new URL(`/api/review-page/${token}`, request.url), { request: { headers: requestHeaders } });
+  } else {
+    response = NextResponse.next({ request: { headers: requestHeaders } });
+  }
   response.headers.set("Content-Security-Policy", csp);
   for (const [name, value] of Object.entries(pageSecurityHeaders(sources))) response.headers.set(name, value);
   return response;

@@ -7,6 +7,7 @@
  *
  * `tsx scripts/serve.ts [--dev] [-p port] [-H host]` (what `npm start`, `npm run dev` and `npm test` run).
  */
+import { randomBytes } from "node:crypto";
 import { createServer } from "node:http";
 import { parseTrustedProxies, stampClientAddress } from "./lib/client-address";
 import { repoRoot } from "./lib/proc";
@@ -29,6 +30,13 @@ try {
 }
 // Tells the app (same process) that every request went through stampClientAddress.
 process.env.CHALKLINE_CLIENT_ADDRESS = "stamped";
+// Review pages kept per state (lib/kept-pages.ts): the key of the app's own renders, the stand-in
+// nonce they carry, and where this process answers. Made fresh per process, never sent out.
+Object.assign(process.env, {
+  CHALKLINE_RENDER_KEY: randomBytes(24).toString("base64url"),
+  CHALKLINE_NONCE_STAND_IN: randomBytes(16).toString("base64"),
+  CHALKLINE_SELF_URL: `http://${hostname === "0.0.0.0" ? "127.0.0.1" : hostname === "::" ? "[::1]" : hostname}:${port}`,
+});
 // As `next start` / `next dev` do, before React and Next.js are loaded.
 Object.assign(process.env, { NODE_ENV: process.env.NODE_ENV ?? (dev ? "development" : "production") });
 const { default: next } = await import("next");

@@ -1,7 +1,7 @@
 import "server-only";
 import type { ReviewViewProps } from "@/components/review/ReviewView";
 import { findBlank } from "@/db/queries/blanks";
-import { listRevisions, markSeen, proofContext } from "@/db/queries/review";
+import { listRevisions, markSeen, proofContext, seenWriteDue } from "@/db/queries/review";
 import { describeRevisionChanges } from "@/lib/review/diff";
 import { loadReview, reviewState, type Reviewer } from "./review";
 
@@ -22,8 +22,7 @@ export async function buildReviewProps(reviewer: Reviewer, key: string): Promise
     placements: document.placements,
   };
   // Independent reads (and the seen-marker write) go out together: one round trip instead of four.
-  const stale = reviewer.kind === "link" && (!reviewer.link.lastSeenAt || Date.now() - reviewer.link.lastSeenAt.getTime() > 60_000);
-  const seenWrite = reviewer.kind === "link" && latest && (reviewer.link.lastSeenLetter !== latest.letter || stale) ? markSeen({ linkId: reviewer.link.id, letter: latest.letter }) : null;
+  const seenWrite = reviewer.kind === "link" && latest && seenWriteDue(reviewer.link, latest.letter) ? markSeen({ linkId: reviewer.link.id, letter: latest.letter }) : null;
   const [foundBlank, context, initial] = await Promise.all([findBlank({ shopId: reviewer.shopId, blankId: snapshot.blankId }), proofContext({ proofId: document.proof.id }), reviewState(document.proof.id), seenWrite]);
   const blank = foundBlank ?? document.blank;
   const colourHex = blank.colours.find((c) => c.name === snapshot.colourName)?.hex ?? document.proof.colourHex;

@@ -1,6 +1,6 @@
 import "server-only";
 import { createHash, randomBytes } from "node:crypto";
-import { and, asc, desc, eq, inArray, isNull } from "drizzle-orm";
+import { and, asc, desc, eq, inArray, isNull, sql } from "drizzle-orm";
 import type { RevisionSnapshot } from "@/lib/review/diff";
 import { db } from "../client";
 import { approvals, auditLog, clients, jobs, memberships, proofComments, proofRevisions, proofs, shareLinks, shops, users, type ShareLink } from "../schema";
@@ -99,6 +99,42 @@ export async function lookupShareToken(token: string): Promise<TokenLookup> {
   if (link.revokedAt) return { state: "revoked", link };
   if (link.expiresAt && link.expiresAt.getTime() <= Date.now()) return { state: "expired", link };
   return { state: "ok", link };
+}
+
+/**
+ * A share link's lookup and, in the same round trip, a stamp of everything its review page shows:
+ * the link's own settings, the proof and job names, the shop's name and clock, the blanks drawn,
+ * every revision and its state, the notes and whether each is resolved, the decisions, and the
+ * job's quotes and payments. Any change to any of them changes the stamp, whichever process made
+ * it, so a page kept under the stamp is never older than the database.
+ */
+export async function reviewPageStamp(token: string): Promise<{ lookup: TokenLookup; stamp: string | null; latestLetter: string | null }> {
+  if (!/^[A-Za-z0-9_-]{20,100}$/.test(token)) return { lookup: { state: "missing" }, stamp: null, latestLetter: null };
+  const proofId = sql`${shareLinks.proofId}`;
+  const stamp = sql<string>`md5(concat_ws('|',
+    ${shareLinks.permission}, ${shareLinks.recipientName}, ${shareLinks.lastSeenLetter},
+    (select concat_ws(':', p.name, p.updated_at, j.title, j.updated_at, s.name, s.locale, s.time_zone, s.price_matrix_updated_at, b.updated_at)
+       from proofs p join jobs j on j.id = p.job_id join shops s on s.id = p.shop_id left join blanks b on b.id = p.blank_id where p.id = ${proofId}),
+    (select concat_ws(':', string_agg(r.id || r.state, ',' order by r.sent_at, r.id), max(b.updated_at))
+       from proof_revisions r left join blanks b on b.id = r.snapshot->>'blankId' where r.proof_id = ${proofId}),
+    (select md5(string_agg(c.id || coalesce(c.resolved_at::text, ''), ',' order by c.id)) from proof_comments c where c.proof_id = ${proofId}),
+    (select string_agg(a.id, ',' order by a.id) from approvals a where a.proof_id = ${proofId}),
+    (select string_agg(q.id || q.state || coalesce(q.accepted_at::text, ''), ',' order by q.id)
+       from quotes q join proofs p on p.job_id = q.job_id where p.id = ${proofId}),
+    (select string_agg(m.id || m.state, ',' order by m.id) from payments m join proofs p on p.job_id = m.job_id where p.id = ${proofId})
+  ))`;
+  const latestLetter = sql<string | null>`(select r.letter from proof_revisions r where r.proof_id = ${proofId} order by r.sent_at desc limit 1)`;
+  const [row] = await db.select({ link: shareLinks, stamp, latestLetter }).from(shareLinks).where(eq(shareLinks.tokenHash, hashShareToken(token))).limit(1);
+  if (!row) return { lookup: { state: "missing" }, stamp: null, latestLetter: null };
+  const { link } = row;
+  if (link.revokedAt) return { lookup: { state: "revoked", link }, stamp: null, latestLetter: null };
+  if (link.expiresAt && link.expiresAt.getTime() <= Date.now()) return { lookup: { state: "expired", link }, stamp: null, latestLetter: null };
+  return { lookup: { state: "ok", link }, stamp: row.stamp, latestLetter: row.latestLetter };
+}
+
+/** A link's view is written down on a new revision, or at most once a minute on the same one. */
+export function seenWriteDue(link: Pick<ShareLink, "lastSeenLetter" | "lastSeenAt">, latestLetter: string, now = Date.now()): boolean {
+  return link.lastSeenLetter !== latestLetter || !link.lastSeenAt || now - link.lastSeenAt.getTime() > 60_000;
 }
 
 export async function markSeen({ linkId, letter }: { linkId: string; letter: string }) {
