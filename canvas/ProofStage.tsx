@@ -2,7 +2,13 @@
 
 import type Konva from "konva";
 import { memo, useEffect, useMemo, useRef, useState } from "react";
-import { Group, Image as KonvaImage, Layer, Line, Rect, Stage, Text, Transformer } from "react-konva";
+// Konva's core and the five shapes drawn here, not the whole library (its filters and other shapes).
+import "konva/lib/shapes/Image";
+import "konva/lib/shapes/Line";
+import "konva/lib/shapes/Rect";
+import "konva/lib/shapes/Text";
+import "konva/lib/shapes/Transformer";
+import { Group, Image as KonvaImage, Layer, Line, Rect, Stage, Text, Transformer } from "react-konva/lib/ReactKonvaCore";
 import type { LocationSpec } from "@/lib/garments/locations";
 import type { Point } from "@/lib/garments/types";
 import type { Silhouette } from "@/lib/garments/silhouette";

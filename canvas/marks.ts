@@ -4,7 +4,7 @@
  * draws these and never runs the checks itself.
  */
 import { toStage, type View } from "@/lib/editor/view";
-import { fitProblems, shortLabels, type WarningFlag } from "@/lib/placement/checks";
+import { fitProblems, shortLabels, type WarningFlag } from "@/lib/placement/flags";
 import type { Placement } from "@/lib/placement/model";
 import { degToRad } from "@/lib/units";
 

@@ -4,6 +4,7 @@
  * Pure: no React, no database. Amounts are integer cents (see lib/pricing.ts).
  */
 import { z } from "zod";
+import { PAYMENT_KIND_LABELS, type MoneyState, type PaymentKind } from "./money-states";
 import { LOCATION_LABELS, PRINT_LOCATIONS, type PrintLocation } from "./garments/locations";
 import type { DecorationMethod as JobMethod } from "./jobs";
 import {
@@ -172,25 +173,7 @@ export function quoteJob(job: JobForQuote, matrix: PriceMatrix, opts: { taxExemp
 // Payments
 // ---------------------------------------------------------------------------
 
-export type PaymentKind = "deposit" | "full" | "balance";
-
-/** Our own names for where a job stands with money. */
-export const MONEY_STATES = ["not-quoted", "quote-sent", "awaiting-payment", "deposit-paid", "paid-in-full"] as const;
-export type MoneyState = (typeof MONEY_STATES)[number];
-
-export const MONEY_STATE_LABELS: Readonly<Record<MoneyState, string>> = {
-  "not-quoted": "Not quoted",
-  "quote-sent": "Quote out",
-  "awaiting-payment": "Accepted, nothing paid",
-  "deposit-paid": "Deposit paid",
-  "paid-in-full": "Paid in full",
-};
-
-export const PAYMENT_KIND_LABELS: Readonly<Record<PaymentKind, string>> = {
-  deposit: "Deposit",
-  full: "Full amount",
-  balance: "Balance",
-};
+export { MONEY_STATES, MONEY_STATE_LABELS, PAYMENT_KIND_LABELS, type MoneyState, type PaymentKind } from "./money-states";
 
 export interface MoneyInput {
   /** The newest quote that is sent or accepted (replaced quotes do not count). */

@@ -56,7 +56,7 @@ try {
       if (wants("scripts")) rows.push(...measureFirstLoadJs(log));
       const browser = await launchChromium();
       try {
-        if (wants("scripts")) rows.push(...(await measurePageScripts({ browser, baseUrl, fixture: f, password: DEMO_PASSWORD })));
+        if (wants("scripts")) rows.push(...(await measurePageScripts({ browser, baseUrl, fixture: f, password: DEMO_PASSWORD, log })));
         if (wants("drag")) rows.push(...(await measureEditorDrag({ browser, baseUrl, fixture: f, password: DEMO_PASSWORD, log })));
         if (wants("phone")) rows.push(...(await measurePhoneLoad({ browser, baseUrl, token: f.reviewToken, log })));
       } finally {

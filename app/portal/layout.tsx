@@ -1,5 +1,6 @@
 import type { ReactNode } from "react";
 import { requireActorPage } from "@/app/_server/access";
+import { QueryProvider } from "@/app/providers";
 import { AppShell } from "@/components/shell/AppShell";
 
 export default async function PortalLayout({ children }: { children: ReactNode }) {
@@ -13,7 +14,7 @@ export default async function PortalLayout({ children }: { children: ReactNode }
       user={{ name: actor.name, email: actor.email }}
       roleLabel={actor.contacts.length ? `Client · ${actor.contacts[0]!.shopName}` : "Client"}
     >
-      {children}
+      <QueryProvider>{children}</QueryProvider>
     </AppShell>
   );
 }

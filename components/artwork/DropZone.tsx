@@ -1,7 +1,6 @@
 "use client";
 
 import { useCallback, useRef, useState, type DragEvent } from "react";
-import { uploadFiles } from "./upload-helpers";
 
 const ACCEPT = ["image/png", "image/jpeg", "image/webp", "image/svg+xml", "application/pdf"];
 const ACCEPT_EXT = /\.(png|jpe?g|webp|svg|pdf)$/i;
@@ -55,6 +54,8 @@ export function DropZone({ shopSlug, clientId, multiple = true, label, onUploade
     async (row: UploadRow, file: File) => {
       update(row.id, { state: "uploading", progress: 0 });
       try {
+        // The upload client loads with the first file, not with every page that offers a drop zone.
+        const { uploadFiles } = await import("./upload-helpers");
         const [result] = await uploadFiles("artwork", {
           files: [file],
           input: { shopSlug, clientId },

@@ -1,10 +1,6 @@
 import { z } from "zod";
-import {
-  sizeRowSchemaFor,
-  type GarmentCategory,
-  type GarmentMeasurements,
-  type SizeGroup,
-} from "@/lib/garments/types";
+import { type GarmentCategory, type GarmentMeasurements, type SizeGroup } from "@/lib/garments/types";
+import { sizeRowSchemaFor } from "@/lib/garments/schemas";
 
 /**
  * The blank editor's form, shared by the browser (react-hook-form) and the server action,

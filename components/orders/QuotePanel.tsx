@@ -6,7 +6,7 @@ import { useState } from "react";
 import type { QuotePanelData } from "@/app/_server/orders";
 import { formatShopDate, formatShopDateTime } from "@/lib/dates";
 import { formatMoney } from "@/lib/money";
-import { MONEY_STATE_LABELS, PAYMENT_KIND_LABELS, type PaymentKind } from "@/lib/quotes";
+import { MONEY_STATE_LABELS, PAYMENT_KIND_LABELS, type PaymentKind } from "@/lib/money-states";
 import { Notice } from "./Notice";
 import { useHydrated } from "./useHydrated";
 import { QuoteLines } from "./QuoteLines";

@@ -1,6 +1,6 @@
 "use client";
 
-import { signOut } from "next-auth/react";
+import { signOut } from "@/components/forms/auth-client";
 import { useEffect, useRef, useState } from "react";
 
 export function AccountMenu({ name, email, roleLabel }: { name: string | null; email: string; roleLabel: string }) {

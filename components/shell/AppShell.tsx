@@ -1,5 +1,6 @@
 "use client";
 
+import "@/components/forms/zod-jitless";
 import Link from "next/link";
 import { useState, type ReactNode } from "react";
 import type { NavItem } from "@/lib/access";

@@ -3,7 +3,8 @@
  * document, or the same object when nothing changed, so stores and memoised views can skip work.
  */
 import { z } from "zod";
-import { placementSchema, type Placement } from "@/lib/placement/model";
+import { type Placement } from "@/lib/placement/model";
+import { placementSchema } from "@/lib/placement/schema";
 import { EIGHTH_IN, snapToStep } from "@/lib/units";
 
 export type ProofDoc = {

@@ -34,7 +34,9 @@ import {
   shownSteps,
   type LengthUnit,
 } from "@/lib/units";
-import { placementBounds, placementCorners, placementSchema, type Placement } from "./model";
+import { placementBounds, placementCorners, type Placement } from "./model";
+import { fitProblems, type PlacementWarning, type PlacementWarningCode, type WarningSeverity } from "./flags";
+import { placementSchema } from "./schema";
 
 export { SIDE_SEAM_CLEARANCE_IN } from "@/lib/garments/locations";
 export { pastLimit, shortOf, shownSteps } from "@/lib/units";
@@ -44,82 +46,7 @@ export const SLIGHT_TILT_DEG = 2;
 /** Below this offset, centered art looks accidentally nudged (Chalkline default: one eighth of an inch). */
 export const SLIGHT_OFFSET_IN = EIGHTH_IN;
 
-export type WarningSeverity = "error" | "warning" | "info";
-
-export type PlacementWarningCode =
-  | "invalid-placement"
-  | "location-not-offered"
-  | "too-wide"
-  | "too-tall"
-  | "seam-clearance"
-  | "off-garment"
-  | "collar-clearance"
-  | "hem-clearance"
-  | "pocket-clearance"
-  | "outside-print-area"
-  | "top-too-high"
-  | "top-too-low"
-  | "slightly-off-center"
-  | "slight-tilt"
-  | "size-switch";
-
-export interface PlacementWarning {
-  code: PlacementWarningCode;
-  message: string;
-  severity: WarningSeverity;
-  details?: Record<string, number | string | boolean | string[]>;
-}
-
-/** Codes meaning "the art does not fit this size", as opposed to style hints. */
-export const FIT_CODES: ReadonlySet<PlacementWarningCode> = new Set<PlacementWarningCode>([
-  "too-wide",
-  "too-tall",
-  "seam-clearance",
-  "off-garment",
-  "collar-clearance",
-  "hem-clearance",
-  "pocket-clearance",
-  "outside-print-area",
-]);
-
-/** A warning's code and weight, all the canvas needs to mark a print. */
-export type WarningFlag = Pick<PlacementWarning, "code" | "severity">;
-
-/** Short words for each warning, for tags on the canvas and the list of prints (our own wording). */
-const SHORT_LABELS: Readonly<Record<PlacementWarningCode, string | { error: string; other: string }>> = {
-  "invalid-placement": "Not valid",
-  "location-not-offered": "No such location",
-  "too-wide": "Too wide",
-  "too-tall": "Too tall",
-  "seam-clearance": { error: "Over seam", other: "Near seam" },
-  "off-garment": "Off garment",
-  "collar-clearance": { error: "Into collar", other: "Near collar" },
-  "hem-clearance": { error: "Past hem", other: "Near hem" },
-  "pocket-clearance": { error: "On pocket", other: "Near pocket" },
-  "outside-print-area": "Outside area",
-  "top-too-high": "Sits high",
-  "top-too-low": "Sits low",
-  "slightly-off-center": "Off center",
-  "slight-tilt": "Slight tilt",
-  "size-switch": "Size change",
-};
-
-export function shortLabel(flag: WarningFlag): string {
-  const label = SHORT_LABELS[flag.code];
-  return typeof label === "string" ? label : flag.severity === "error" ? label.error : label.other;
-}
-
-/** The short labels of a list of warnings, in its order, each once. */
-export function shortLabels(flags: readonly WarningFlag[]): string[] {
-  return [...new Set(flags.map(shortLabel))];
-}
-
-/** The warnings that say the art does not fit (errors and warnings about fit, no hints). */
-export function fitProblems(warnings: readonly PlacementWarning[]): PlacementWarning[];
-export function fitProblems(warnings: readonly WarningFlag[]): WarningFlag[];
-export function fitProblems(warnings: readonly WarningFlag[]): WarningFlag[] {
-  return warnings.filter((w) => FIT_CODES.has(w.code) && w.severity !== "info");
-}
+export * from "./flags";
 
 /** Short reason phrases for the size-switch summary. */
 const FIT_REASONS: Readonly<Partial<Record<PlacementWarningCode, string>>> = {

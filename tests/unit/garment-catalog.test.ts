@@ -1,14 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { CATALOG, blanksFor, findBlank, findSizeRow } from "@/lib/garments/catalog";
-import {
-  GARMENT_CATEGORIES,
-  apparelMeasurementsSchema,
-  apparelMeasurementsSchemaFor,
-  isApparelMeasurements,
-  sizeRowSchemaFor,
-  toteMeasurementsSchema,
-  type ApparelMeasurements,
-} from "@/lib/garments/types";
+import { GARMENT_CATEGORIES, isApparelMeasurements, type ApparelMeasurements } from "@/lib/garments/types";
+import { apparelMeasurementsSchema, apparelMeasurementsSchemaFor, sizeRowSchemaFor, toteMeasurementsSchema } from "@/lib/garments/schemas";
 
 const M_TEE: ApparelMeasurements = {
   chestWidth: 20,

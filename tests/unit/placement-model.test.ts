@@ -3,15 +3,8 @@ import { findBlank, findSizeRow } from "@/lib/garments/catalog";
 import { locationSpec, type PrintLocation } from "@/lib/garments/locations";
 import { signedArea } from "@/lib/garments/silhouette";
 import type { ApparelMeasurements } from "@/lib/garments/types";
-import {
-  defaultPlacement,
-  fitInBox,
-  placementBounds,
-  placementCenter,
-  placementCorners,
-  placementSchema,
-  type Placement,
-} from "@/lib/placement/model";
+import { defaultPlacement, fitInBox, placementBounds, placementCenter, placementCorners, type Placement } from "@/lib/placement/model";
+import { placementSchema } from "@/lib/placement/schema";
 
 const BASE: Placement = {
   id: "p1",

@@ -1,7 +1,7 @@
 "use client";
 
 import Link from "next/link";
-import { signIn } from "next-auth/react";
+import { signIn } from "@/components/forms/auth-client";
 import { useRouter } from "next/navigation";
 import { useState, type FormEvent } from "react";
 import { checkEmailPath } from "@/lib/sign-in-paths";

@@ -1,23 +1,17 @@
 "use client";
 
-import { zodResolver } from "@hookform/resolvers/zod";
 import Link from "next/link";
-import { signIn } from "next-auth/react";
 import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { useForm } from "react-hook-form";
-import { z } from "zod";
+import { signIn } from "@/components/forms/auth-client";
+import { lazyResolver } from "@/components/forms/lazy-resolver";
 import { checkEmailPath } from "@/lib/sign-in-paths";
 import { signUpAction } from "./actions";
 import { browserClock } from "@/lib/dates";
+import type { SignUpValues as Values } from "./schema";
 
-const schema = z.object({
-  shopName: z.string().trim().min(2, "Give your shop a name of at least 2 characters."),
-  name: z.string().trim().min(1, "Tell us your name."),
-  email: z.string().trim().email("Enter a valid e-mail address."),
-  password: z.string().min(10, "Use at least 10 characters."),
-});
-type Values = z.infer<typeof schema>;
+const resolver = lazyResolver<Values>(() => import("./schema").then((m) => m.signUpResolver));
 
 export function SignUpForm() {
   const router = useRouter();
@@ -27,7 +21,7 @@ export function SignUpForm() {
     handleSubmit,
     setError: setFieldError,
     formState: { errors, isSubmitting },
-  } = useForm<Values>({ resolver: zodResolver(schema) });
+  } = useForm<Values>({ resolver });
 
   const onSubmit = handleSubmit(async (values) => {
     setError(undefined);

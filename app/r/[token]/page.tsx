@@ -8,6 +8,7 @@ import { findProofShop } from "@/db/queries/proofs";
 import { resolveReview } from "@/app/_server/review";
 import { ReviewView } from "@/components/review/ReviewView";
 import { Logo } from "@/components/ui/Logo";
+import { QueryProvider } from "@/app/providers";
 
 export const dynamic = "force-dynamic";
 export const metadata = { title: "Proof review", robots: { index: false } };
@@ -34,12 +35,14 @@ export default async function ReviewByLinkPage({ params, searchParams }: { param
       <main className="px-3 py-4 sm:px-gutter sm:py-6">
         {/* Back from checkout: the outcome comes first, not under the mock-up and the notes. */}
         <CheckoutResult outcome={returned} quoteHref="#quote" className="mx-auto mb-4 max-w-6xl" />
-        <ReviewView {...props} />
-        {panel ? (
-          <div className="mx-auto mt-6 max-w-3xl">
-            <QuotePanel data={panel} linkToken={token} canAccept={reviewer.canApprove} />
-          </div>
-        ) : null}
+        <QueryProvider>
+          <ReviewView {...props} />
+          {panel ? (
+            <div className="mx-auto mt-6 max-w-3xl">
+              <QuotePanel data={panel} linkToken={token} canAccept={reviewer.canApprove} />
+            </div>
+          ) : null}
+        </QueryProvider>
       </main>
     </div>
   );

@@ -1,5 +1,6 @@
 import type { ReactNode } from "react";
 import { requireShopPage } from "@/app/_server/access";
+import { QueryProvider } from "@/app/providers";
 import { AppShell } from "@/components/shell/AppShell";
 import { ROLE_LABELS, shopNav } from "@/lib/access";
 
@@ -14,7 +15,7 @@ export default async function ShopLayout({ children, params }: { children: React
       user={{ name: access.actor.name, email: access.actor.email }}
       roleLabel={`${ROLE_LABELS[access.role]} · ${access.shop.name}`}
     >
-      {children}
+      <QueryProvider>{children}</QueryProvider>
     </AppShell>
   );
 }

@@ -6,17 +6,8 @@
 import fc from "fast-check";
 import { CATALOG } from "@/lib/garments/catalog";
 import { PRINT_LOCATIONS, locationsFor, type PrintLocation } from "@/lib/garments/locations";
-import {
-  CATEGORY_INFO,
-  GARMENT_CATEGORIES,
-  SIZE_GROUPS,
-  sizeRowSchemaFor,
-  type ApparelMeasurements,
-  type GarmentCategory,
-  type GarmentMeasurements,
-  type SizeGroup,
-  type ToteMeasurements,
-} from "@/lib/garments/types";
+import { CATEGORY_INFO, GARMENT_CATEGORIES, SIZE_GROUPS, type ApparelMeasurements, type GarmentCategory, type GarmentMeasurements, type SizeGroup, type ToteMeasurements } from "@/lib/garments/types";
+import { sizeRowSchemaFor } from "@/lib/garments/schemas";
 import type { Placement } from "@/lib/placement/model";
 
 /** A number in the open interval (lo, hi), never touching either end. */

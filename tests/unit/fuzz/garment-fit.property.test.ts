@@ -4,13 +4,8 @@ import { locationSpec, locationsFor } from "@/lib/garments/locations";
 import { buildSilhouette, pointInPolygon, polygonSpanAtY } from "@/lib/garments/silhouette";
 import { GARMENT_SIDES } from "@/lib/garments/types";
 import { FIT_CODES, checkAcrossSizes, checkPlacement } from "@/lib/placement/checks";
-import {
-  defaultPlacement,
-  fitInBox,
-  placementBounds,
-  placementCorners,
-  placementSchema,
-} from "@/lib/placement/model";
+import { defaultPlacement, fitInBox, placementBounds, placementCorners } from "@/lib/placement/model";
+import { placementSchema } from "@/lib/placement/schema";
 import { EPSILON_IN } from "@/lib/units";
 import {
   finite,

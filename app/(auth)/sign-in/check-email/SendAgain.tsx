@@ -1,6 +1,6 @@
 "use client";
 
-import { signIn } from "next-auth/react";
+import { signIn } from "@/components/forms/auth-client";
 import { useState } from "react";
 import { useHydrated } from "@/components/orders/useHydrated";
 

@@ -25,13 +25,8 @@ import {
 import { columnsFor, middleSizeIndex, SIZE_GROUP_LABELS } from "@/components/blanks/chart-columns";
 import { PreviewPanel } from "@/components/blanks/PreviewPanel";
 import { UnitToggle } from "@/components/blanks/UnitToggle";
-import {
-  CATEGORY_INFO,
-  SIZE_GROUPS,
-  sizeRowSchemaFor,
-  type GarmentCategory,
-  type GarmentMeasurements,
-} from "@/lib/garments/types";
+import { CATEGORY_INFO, SIZE_GROUPS, type GarmentCategory, type GarmentMeasurements } from "@/lib/garments/types";
+import { sizeRowSchemaFor } from "@/lib/garments/schemas";
 import { CM_PER_INCH, parseLength, type LengthUnit } from "@/lib/units";
 import { updateBlankAction } from "../actions";
 import { formatShopTime, type ShopClock } from "@/lib/dates";
