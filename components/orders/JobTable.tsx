@@ -24,7 +24,6 @@ export type JobRow = {
   clientName: string;
   garment: string | null;
   quantity: number;
-  sizeRun: Array<{ size: string; quantity: number }>;
   /** Absent for roles that see no money. */
   money?: { state: MoneyState; totalCents: number; paidCents: number; balanceCents: number; totalText: string; balanceText: string };
 };
@@ -47,14 +46,24 @@ export function JobTable({ shopSlug, rows, total, all, query, clients }: { shopS
   const router = useRouter();
   const [pending, startTransition] = useTransition();
   const [search, setSearch] = useState(query.q ?? "");
+  // What was last asked for: the controls show it at once, before the server's page arrives.
+  const [asked, setAsked] = useState(query);
+  const [answered, setAnswered] = useState(query);
+  if (jobListSearch(answered) !== jobListSearch(query)) {
+    // A new page came (a link, the back button): the controls follow it.
+    setAnswered(query);
+    setAsked(query);
+  }
   const typing = useRef<ReturnType<typeof setTimeout> | undefined>(undefined);
   const base = `/shops/${shopSlug}/jobs`;
-  const hrefOf = (changes: Partial<JobListQuery>) => `${base}${jobListSearch({ ...query, ...changes })}`;
+  const hrefOf = (changes: Partial<JobListQuery>) => `${base}${jobListSearch({ ...asked, ...changes })}`;
 
   /** Asks for the list with these changes (and whatever is typed in the search box), from page 1. */
   const go = (changes: Partial<JobListQuery>, how: "push" | "replace" = "push") => {
     clearTimeout(typing.current);
-    const href = hrefOf({ q: search.trim() || null, page: 1, ...changes });
+    const next = { ...asked, q: search.trim() || null, page: 1, ...changes };
+    setAsked(next);
+    const href = `${base}${jobListSearch(next)}`;
     startTransition(() => (how === "push" ? router.push(href, { scroll: false }) : router.replace(href, { scroll: false })));
   };
   const onSearch = (value: string) => {
@@ -104,7 +113,7 @@ export function JobTable({ shopSlug, rows, total, all, query, clients }: { shopS
   /** The size runs of every job the filters (and the search box as typed) find, from the server. */
   const exportCsv = () => {
     const a = document.createElement("a");
-    a.href = `${base}/size-runs${jobListSearch({ ...query, q: search.trim() || null, page: 1 })}`;
+    a.href = `${base}/size-runs${jobListSearch({ ...asked, q: search.trim() || null, page: 1 })}`;
     a.download = "";
     a.click();
   };
@@ -124,13 +133,13 @@ export function JobTable({ shopSlug, rows, total, all, query, clients }: { shopS
           go({});
         }}
       >
-        {query.sort !== "due" || query.dir !== "asc" ? (
+        {asked.sort !== "due" || asked.dir !== "asc" ? (
           <>
-            <input type="hidden" name="sort" value={query.sort} />
-            <input type="hidden" name="dir" value={query.dir} />
+            <input type="hidden" name="sort" value={asked.sort} />
+            <input type="hidden" name="dir" value={asked.dir} />
           </>
         ) : null}
-        {query.pageSize !== DEFAULT_JOB_PAGE_SIZE ? <input type="hidden" name="size" value={query.pageSize} /> : null}
+        {asked.pageSize !== DEFAULT_JOB_PAGE_SIZE ? <input type="hidden" name="size" value={asked.pageSize} /> : null}
         <div className="min-w-48 flex-1">
           <label htmlFor="job-search" className="field-label">
             Search
@@ -141,7 +150,7 @@ export function JobTable({ shopSlug, rows, total, all, query, clients }: { shopS
           <label htmlFor="job-filter-status" className="field-label">
             Status
           </label>
-          <select id="job-filter-status" name="status" className="field-input" value={query.status ?? ""} onChange={(e) => go({ status: (e.target.value || null) as JobStatus | null })}>
+          <select id="job-filter-status" name="status" className="field-input" value={asked.status ?? ""} onChange={(e) => go({ status: (e.target.value || null) as JobStatus | null })}>
             <option value="">Any</option>
             {JOB_STATUSES.map((s) => (
               <option key={s} value={s}>
@@ -154,7 +163,7 @@ export function JobTable({ shopSlug, rows, total, all, query, clients }: { shopS
           <label htmlFor="job-filter-client" className="field-label">
             Client
           </label>
-          <select id="job-filter-client" name="client" className="field-input" value={query.clientId ?? ""} onChange={(e) => go({ clientId: e.target.value || null })}>
+          <select id="job-filter-client" name="client" className="field-input" value={asked.clientId ?? ""} onChange={(e) => go({ clientId: e.target.value || null })}>
             <option value="">Any</option>
             {clients.map((c) => (
               <option key={c.id} value={c.id}>
@@ -167,13 +176,13 @@ export function JobTable({ shopSlug, rows, total, all, query, clients }: { shopS
           <label htmlFor="job-filter-from" className="field-label">
             Due from
           </label>
-          <input id="job-filter-from" name="from" type="date" className="field-input" value={query.dueFrom ?? ""} onChange={(e) => go({ dueFrom: e.target.value || null })} />
+          <input id="job-filter-from" name="from" type="date" className="field-input" value={asked.dueFrom ?? ""} onChange={(e) => go({ dueFrom: e.target.value || null })} />
         </div>
         <div>
           <label htmlFor="job-filter-to" className="field-label">
             Due by
           </label>
-          <input id="job-filter-to" name="to" type="date" className="field-input" value={query.dueTo ?? ""} onChange={(e) => go({ dueTo: e.target.value || null })} />
+          <input id="job-filter-to" name="to" type="date" className="field-input" value={asked.dueTo ?? ""} onChange={(e) => go({ dueTo: e.target.value || null })} />
         </div>
         <button type="button" className="btn-quiet" onClick={exportCsv} disabled={total === 0 && search.trim() === (query.q ?? "")}>
           Size runs as CSV
@@ -187,7 +196,7 @@ export function JobTable({ shopSlug, rows, total, all, query, clients }: { shopS
               <tr key={group.id} className="border-b border-paper-300 text-left">
                 {group.headers.map((header) => {
                   const by = SORT_OF[header.column.id];
-                  const sorted = by && query.sort === by ? query.dir : false;
+                  const sorted = by && asked.sort === by ? asked.dir : false;
                   return (
                     <th key={header.id} scope="col" aria-sort={sorted ? (sorted === "asc" ? "ascending" : "descending") : undefined} className="px-3 py-2 text-xs font-medium uppercase tracking-wide text-ink-500">
                       {by ? (
@@ -242,12 +251,12 @@ export function JobTable({ shopSlug, rows, total, all, query, clients }: { shopS
           <label htmlFor="job-page-size" className="text-ink-600">
             Per page
           </label>
-          <select id="job-page-size" className="field-input w-20 py-1" value={query.pageSize} onChange={(e) => go({ pageSize: Number(e.target.value) })}>
+          <select id="job-page-size" className="field-input w-20 py-1" value={asked.pageSize} onChange={(e) => go({ pageSize: Number(e.target.value) })}>
             {JOB_PAGE_SIZES.map((n) => (
               <option key={n}>{n}</option>
             ))}
           </select>
-          <PageLinks page={query.page} pages={pages} hrefOf={(n) => hrefOf({ page: n })} />
+          <PageLinks page={query.page} pages={pages} hrefOf={(n) => `${base}${jobListSearch({ ...query, page: n })}`} />
         </div>
       </nav>
     </div>

@@ -167,10 +167,11 @@ function jobPageStatements(shopId: string, query: JobListQuery) {
  * With the shop's counts by status (`countJobsByStatus`) at hand, a list filtered by status alone, or
  * not at all, takes its total from them instead of counting again.
  */
-export async function listJobPage({ shopId, query, statusCounts }: { shopId: string; query: JobListQuery; statusCounts?: Record<JobStatus, number> }) {
+export async function listJobPage({ shopId, query, statusCounts }: { shopId: string; query: JobListQuery; statusCounts?: Record<JobStatus, number> | Promise<Record<JobStatus, number>> }) {
   const statements = jobPageStatements(shopId, query);
-  const known = statusCounts && !query.q && !query.clientId && !query.dueFrom && !query.dueTo ? (query.status ? statusCounts[query.status] : JOB_STATUSES.reduce((n, s) => n + statusCounts[s], 0)) : undefined;
-  const [total, found] = await Promise.all([known ?? statements.count.then(([r]) => r?.n ?? 0), statements.rows]);
+  const fromCounts = statusCounts && !query.q && !query.clientId && !query.dueFrom && !query.dueTo;
+  const totalOf = (counts: Record<JobStatus, number>) => (query.status ? counts[query.status] : JOB_STATUSES.reduce((n, s) => n + counts[s], 0));
+  const [total, found] = await Promise.all([fromCounts ? Promise.resolve(statusCounts).then(totalOf) : statements.count.then(([r]) => r?.n ?? 0), statements.rows]);
   const rows = await withSizesAndMoney(found);
   return { rows, total };
 }

@@ -29,7 +29,7 @@ export default async function JobsPage({ params, searchParams }: { params: Promi
   const counting = countJobsByStatus({ shopId });
   const [counts, listed, clients, prices] = await Promise.all([
     counting,
-    board ? listBoardColumns({ shopId, perColumn: BOARD_COLUMN_SIZE }).then((rows) => ({ rows, total: 0 })) : counting.then((statusCounts) => listJobPage({ shopId, query, statusCounts })),
+    board ? listBoardColumns({ shopId, perColumn: BOARD_COLUMN_SIZE }).then((rows) => ({ rows, total: 0 })) : listJobPage({ shopId, query, statusCounts: counting }),
     board ? [] : listClientNames({ shopId }),
     seesMoney ? loadPriceMatrix(shopId) : null,
   ]);
@@ -50,7 +50,6 @@ export default async function JobsPage({ params, searchParams }: { params: Promi
       clientName: j.clientName,
       garment: j.garmentName,
       quantity: j.sizeRun.reduce((s, r) => s + r.quantity, 0),
-      sizeRun: j.sizeRun,
       ...(seesMoney ? { money: { state: summary.state, totalCents: summary.totalCents, paidCents: summary.paidCents, balanceCents: summary.balanceCents, totalText: cash(summary.totalCents), balanceText: cash(summary.balanceCents) } } : {}),
     };
   });
