@@ -20,7 +20,7 @@ import { ensureLibraryBlanks, libraryBlankId } from "./library";
 import { findShopBySlug } from "./queries/access";
 import { analyzeLargeTables, insertBulkJobs, insertBulkNotes, insertBulkProofs, insertBulkRevisions } from "./queries/bulk";
 import { createClient } from "./queries/clients";
-import { createJob } from "./queries/jobs";
+import { blankUsableByShop, createJob } from "./queries/jobs";
 import { getProofDocument } from "./queries/proofs";
 import { sendRevision } from "./queries/review";
 import { createShopWithOwner } from "./queries/shops";
@@ -54,7 +54,6 @@ export async function seedLargeShop(counts: LargeShopCounts, options: { tag?: st
   const tag = options.tag ?? randomBytes(3).toString("hex");
   const password = `large-${tag}-password`;
   const passwordHash = await bcrypt.hash(password, 10);
-  await ensureLibraryBlanks(db);
 
   // Sign-up: the owner makes the shop and proves the e-mail address.
   const shopName = `Foundry Lane Print Works ${tag}`;
@@ -82,7 +81,10 @@ export async function seedLargeShop(counts: LargeShopCounts, options: { tag?: st
   log(`large shop ${made.shopSlug}: owner, contact and ${clientCount} clients made`);
 
   // One job, art and proof the way the product makes them, sent as revision A: the pattern for the bulk rows.
+  // The library blanks are written only into a database that lacks them (rewriting them would touch every shop's library).
   const blankIds = [libraryBlankId("everyday-crew-tee"), libraryBlankId("campfire-pullover-hoodie"), libraryBlankId("market-canvas-tote")];
+  const present = await Promise.all(blankIds.map((blankId) => blankUsableByShop({ shopId, blankId })));
+  if (present.some((b) => !b)) await ensureLibraryBlanks(db);
   const job = await createJob({
     shopId,
     actorUserId: made.userId,

@@ -1,8 +1,8 @@
 import Link from "next/link";
 
 /**
- * Previous and next links around "page n / m" for a list the server pages. A link that leads
- * nowhere is shown greyed and is no link at all. Renders nothing when everything fits on one page.
+ * Previous and next links around "page n / m" for a list the server pages. Where a link would lead
+ * nowhere, a disabled button stands in its place. Renders nothing when everything fits on one page.
  */
 export function PageLinks({ page, pages, hrefOf, className = "" }: { page: number; pages: number; hrefOf: (page: number) => string; className?: string }) {
   if (pages <= 1 && page <= 1) return null;
@@ -12,9 +12,9 @@ export function PageLinks({ page, pages, hrefOf, className = "" }: { page: numbe
         {label}
       </Link>
     ) : (
-      <span className="btn-quiet cursor-default px-3 py-1 opacity-50" aria-disabled="true">
+      <button type="button" className="btn-quiet px-3 py-1" disabled>
         {label}
-      </span>
+      </button>
     );
   return (
     <span className={`inline-flex items-center gap-2 ${className}`}>

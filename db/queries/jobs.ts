@@ -100,7 +100,8 @@ function jobOrder(c: OrderColumns, sort: JobSort, dir: SortDir, clientName: AnyC
     case "method":
       return [d(c.method), d(c.id)];
     case "updated":
-      return [back(c.updatedAt), d(c.id)];
+      // Newest first is "desc"; ties by id the other way, as the index holds them.
+      return [d(c.updatedAt), back(c.id)];
   }
 }
 
