@@ -19,6 +19,7 @@ import { createBenchFixture, type BenchFixture } from "./bench/fixtures";
 import { measureFirstLoadJs } from "./bench/first-load-js";
 import { measureGangFiles } from "./bench/gang-files";
 import { measureGangSheets } from "./bench/gang-sheet";
+import { measureLargeShop, prepareLargeShop } from "./bench/large-shop";
 import { measurePageScripts } from "./bench/page-scripts";
 import { measurePhoneLoad } from "./bench/phone-load";
 import { measureReviewLoad } from "./bench/review-load";
@@ -30,7 +31,7 @@ const began = performance.now();
 const loadAtStart = os.loadavg()[0]!;
 const rows: Row[] = [];
 
-// `npm run bench -- --only=phone` (or drag, load, scripts) measures one part against the app, for work on it.
+// `npm run bench -- --only=phone` (or drag, load, scripts, large) measures one part against the app, for work on it.
 const only = process.argv.find((a) => a.startsWith("--only="))?.slice("--only=".length) ?? null;
 const wants = (part: string) => only === null || only === part;
 
@@ -42,6 +43,7 @@ if (only === null) {
 }
 
 let fixture: BenchFixture | undefined;
+let large: Awaited<ReturnType<typeof prepareLargeShop>> | undefined;
 let failure: unknown;
 let appMs = 0;
 try {
@@ -49,6 +51,7 @@ try {
     log,
     async () => {
       fixture = await createBenchFixture(log);
+      if (wants("large")) large = await prepareLargeShop(log);
     },
     async ({ baseUrl }) => {
       const t0 = performance.now();
@@ -63,6 +66,7 @@ try {
         await browser.close();
       }
       if (wants("load")) rows.push(...(await measureReviewLoad({ baseUrl, token: f.reviewToken, proofName: "Team tee", log })));
+      if (wants("large")) rows.push(...(await measureLargeShop({ baseUrl, shop: large!, log })));
       appMs = performance.now() - t0;
     },
   );

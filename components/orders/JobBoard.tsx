@@ -6,12 +6,17 @@ import { useOptimistic, useState, useTransition } from "react";
 import { setJobStatusAction } from "@/app/shops/[shop]/jobs/actions";
 import { DECORATION_LABELS, JOB_STATUS_LABELS, JOB_STATUSES, type JobStatus } from "@/lib/jobs";
 import { MONEY_STATE_LABELS } from "@/lib/quotes";
+import { jobListSearch } from "@/lib/job-list";
 import { Notice } from "./Notice";
 import { useHydrated } from "@/components/orders/useHydrated";
 import type { JobRow } from "./JobTable";
 
-/** Jobs in columns by status. Each card moves with its own menu, so the board works by keyboard too. */
-export function JobBoard({ shopSlug, rows, movable }: { shopSlug: string; rows: JobRow[]; movable: readonly JobStatus[] }) {
+/**
+ * Jobs in columns by status: the most recently changed few of each, with the column's full count
+ * and a link to the rest in the list. Each card moves with its own menu, so the board works by
+ * keyboard too.
+ */
+export function JobBoard({ shopSlug, rows, counts, movable }: { shopSlug: string; rows: JobRow[]; counts: Record<JobStatus, number>; movable: readonly JobStatus[] }) {
   const router = useRouter();
   const hydrated = useHydrated();
   const [error, setError] = useState<string>();
@@ -43,10 +48,13 @@ export function JobBoard({ shopSlug, rows, movable }: { shopSlug: string; rows: 
       <div className="grid gap-3 pb-2 sm:grid-cols-2 lg:grid-cols-3 2xl:grid-cols-6" data-testid="job-board">
         {JOB_STATUSES.map((status) => {
           const cards = optimistic.filter((r) => r.status === status);
+          // The server's count, moved by the cards moved here and not yet confirmed.
+          const inColumn = counts[status] + cards.length - rows.filter((r) => r.status === status).length;
+          const rest = inColumn - cards.length;
           return (
             <section key={status} aria-label={JOB_STATUS_LABELS[status]} className="min-w-0 rounded-card bg-paper-100 p-2">
               <h2 className="mb-2 flex items-center justify-between px-1 text-sm font-semibold">
-                {JOB_STATUS_LABELS[status]} <span className="measure font-normal text-ink-500">{cards.length}</span>
+                {JOB_STATUS_LABELS[status]} <span className="measure font-normal text-ink-500">{inColumn}</span>
               </h2>
               <ul className="space-y-2">
                 {cards.map((job) => (
@@ -76,6 +84,13 @@ export function JobBoard({ shopSlug, rows, movable }: { shopSlug: string; rows: 
                   </li>
                 ))}
               </ul>
+              {rest > 0 ? (
+                <p className="mt-2 px-1 text-sm">
+                  <Link href={`/shops/${shopSlug}/jobs${jobListSearch({ status, sort: "updated", dir: "desc" })}`} className="font-medium text-patina-700 hover:underline">
+                    {rest} more in the list →
+                  </Link>
+                </p>
+              ) : null}
             </section>
           );
         })}

@@ -1,25 +1,15 @@
 "use client";
 
-import {
-  createColumnHelper,
-  flexRender,
-  getCoreRowModel,
-  getFilteredRowModel,
-  getPaginationRowModel,
-  getSortedRowModel,
-  useReactTable,
-  type ColumnFiltersState,
-  type FilterFn,
-  type SortingState,
-} from "@tanstack/react-table";
-import Papa from "papaparse";
+import { createColumnHelper, flexRender, getCoreRowModel, useReactTable } from "@tanstack/react-table";
 import Link from "next/link";
-import { useMemo, useState } from "react";
+import { useRouter } from "next/navigation";
+import { useMemo, useRef, useState, useTransition } from "react";
 import { StatusBadge } from "@/components/ui/StatusBadge";
+import { PageLinks } from "@/components/ui/PageLinks";
 import { useHydrated } from "@/components/orders/useHydrated";
 import { DECORATION_LABELS, JOB_STATUS_LABELS, JOB_STATUSES, type DecorationMethod, type JobStatus } from "@/lib/jobs";
-import { MONEY_STATE_LABELS, sizeRunTable, type MoneyState } from "@/lib/quotes";
-import { fileDateStamp, type ShopClock } from "@/lib/dates";
+import { MONEY_STATE_LABELS, type MoneyState } from "@/lib/quotes";
+import { DEFAULT_JOB_PAGE_SIZE, JOB_PAGE_SIZES, jobListSearch, pageCount, type JobListQuery, type JobSort } from "@/lib/job-list";
 
 export type JobRow = {
   id: string;
@@ -34,29 +24,53 @@ export type JobRow = {
   clientName: string;
   garment: string | null;
   quantity: number;
-  sizeRun: Array<{ size: string; quantity: number }>;
   /** Absent for roles that see no money. */
   money?: { state: MoneyState; totalCents: number; paidCents: number; balanceCents: number; totalText: string; balanceText: string };
 };
 
 const col = createColumnHelper<JobRow>();
 
-const dueBetween: FilterFn<JobRow> = (row, _id, value: { from?: string; to?: string }) => {
-  const due = row.original.dueDate;
-  if (!value.from && !value.to) return true;
-  if (!due) return false;
-  return (!value.from || due >= value.from) && (!value.to || due <= value.to);
-};
+/** The column a header sorts by on the server; columns without one do not sort. */
+const SORT_OF: Record<string, JobSort> = { title: "title", clientName: "client", status: "status", method: "method", dueDate: "due" };
 
-const PAGE_SIZES = [10, 25, 50];
+/** Typing waits this long for a pause before the list is asked again. */
+const SEARCH_PAUSE_MS = 300;
 
-export function JobTable({ shopSlug, rows, clock = {} }: { shopSlug: string; rows: JobRow[]; clock?: ShopClock }) {
+/**
+ * One page of the shop's jobs. Filters, search, order and page live in the address and the server
+ * answers with the page; changing one asks for page 1 of the new question.
+ */
+export function JobTable({ shopSlug, rows, total, all, query, clients }: { shopSlug: string; rows: JobRow[]; total: number; all: number; query: JobListQuery; clients: Array<{ id: string; name: string }> }) {
   const showMoney = rows.some((r) => r.money);
   const hydrated = useHydrated();
-  const [sorting, setSorting] = useState<SortingState>([{ id: "dueDate", desc: false }]);
-  const [filters, setFilters] = useState<ColumnFiltersState>([]);
-  const [search, setSearch] = useState("");
-  const clients = useMemo(() => [...new Map(rows.map((r) => [r.clientId, r.clientName])).entries()].sort((a, b) => a[1].localeCompare(b[1])), [rows]);
+  const router = useRouter();
+  const [pending, startTransition] = useTransition();
+  const [search, setSearch] = useState(query.q ?? "");
+  // What was last asked for: the controls show it at once, before the server's page arrives.
+  const [asked, setAsked] = useState(query);
+  const [answered, setAnswered] = useState(query);
+  if (jobListSearch(answered) !== jobListSearch(query)) {
+    // A new page came (a link, the back button): the controls follow it.
+    setAnswered(query);
+    setAsked(query);
+  }
+  const typing = useRef<ReturnType<typeof setTimeout> | undefined>(undefined);
+  const base = `/shops/${shopSlug}/jobs`;
+  const hrefOf = (changes: Partial<JobListQuery>) => `${base}${jobListSearch({ ...asked, ...changes })}`;
+
+  /** Asks for the list with these changes (and whatever is typed in the search box), from page 1. */
+  const go = (changes: Partial<JobListQuery>, how: "push" | "replace" = "push") => {
+    clearTimeout(typing.current);
+    const next = { ...asked, q: search.trim() || null, page: 1, ...changes };
+    setAsked(next);
+    const href = `${base}${jobListSearch(next)}`;
+    startTransition(() => (how === "push" ? router.push(href, { scroll: false }) : router.replace(href, { scroll: false })));
+  };
+  const onSearch = (value: string) => {
+    setSearch(value);
+    clearTimeout(typing.current);
+    typing.current = setTimeout(() => go({ q: value.trim() || null }, "replace"), SEARCH_PAUSE_MS);
+  };
 
   const columns = useMemo(
     () => [
@@ -70,16 +84,10 @@ export function JobTable({ shopSlug, rows, clock = {} }: { shopSlug: string; row
         ),
       }),
       col.accessor("clientName", { header: "Client" }),
-      col.accessor("clientId", { header: "Client id", enableSorting: false, filterFn: "equals" }),
-      col.accessor("status", {
-        header: "Status",
-        cell: (c) => <StatusBadge status={c.getValue()} />,
-        sortingFn: (a, b) => JOB_STATUSES.indexOf(a.original.status) - JOB_STATUSES.indexOf(b.original.status),
-        filterFn: "equals",
-      }),
+      col.accessor("status", { header: "Status", cell: (c) => <StatusBadge status={c.getValue()} /> }),
       col.accessor("method", { header: "Method", cell: (c) => DECORATION_LABELS[c.getValue()] }),
       col.accessor("quantity", { header: "Pieces", cell: (c) => <span className="measure">{c.getValue()}</span> }),
-      col.accessor((r) => r.dueDate ?? "", { id: "dueDate", header: "Due", cell: (c) => <span className="measure">{c.row.original.dueLabel ?? "—"}</span>, filterFn: dueBetween, sortUndefined: "last" }),
+      col.accessor((r) => r.dueDate ?? "", { id: "dueDate", header: "Due", cell: (c) => <span className="measure">{c.row.original.dueLabel ?? "—"}</span> }),
       ...(showMoney
         ? [
             col.accessor((r) => r.money?.totalCents ?? 0, { id: "total", header: "Quoted", cell: (c) => <span className="measure">{c.getValue() ? c.row.original.money?.totalText : "—"}</span> }),
@@ -100,58 +108,49 @@ export function JobTable({ shopSlug, rows, clock = {} }: { shopSlug: string; row
   );
 
   // eslint-disable-next-line react-hooks/incompatible-library
-  const table = useReactTable({
-    data: rows,
-    columns,
-    state: { sorting, columnFilters: filters, globalFilter: search, columnVisibility: { clientId: false } },
-    onSortingChange: setSorting,
-    onColumnFiltersChange: setFilters,
-    onGlobalFilterChange: setSearch,
-    globalFilterFn: (row, _id, value: string) => {
-      const q = value.trim().toLowerCase();
-      return !q || row.original.title.toLowerCase().includes(q) || row.original.clientName.toLowerCase().includes(q) || (row.original.garment ?? "").toLowerCase().includes(q);
-    },
-    getCoreRowModel: getCoreRowModel(),
-    getSortedRowModel: getSortedRowModel(),
-    getFilteredRowModel: getFilteredRowModel(),
-    getPaginationRowModel: getPaginationRowModel(),
-    initialState: { pagination: { pageSize: 10 } },
-  });
+  const table = useReactTable({ data: rows, columns, getCoreRowModel: getCoreRowModel(), manualSorting: true, manualFiltering: true, manualPagination: true });
 
-  const filterValue = (id: string) => filters.find((f) => f.id === id)?.value;
-  const setFilter = (id: string, value: unknown) => {
-    setFilters((prev) => [...prev.filter((f) => f.id !== id), ...(value === undefined || value === "" ? [] : [{ id, value }])]);
-    table.setPageIndex(0);
-  };
-  const due = (filterValue("dueDate") as { from?: string; to?: string } | undefined) ?? {};
-  const filtered = table.getFilteredRowModel().rows.map((r) => r.original);
-
+  /** The size runs of every job the filters (and the search box as typed) find, from the server. */
   const exportCsv = () => {
-    const { fields, data } = sizeRunTable(filtered.map((j) => ({ title: j.title, client: j.clientName, status: JOB_STATUS_LABELS[j.status], dueDate: j.dueDate, sizeRun: j.sizeRun })));
-    const csv = Papa.unparse({ fields, data }, { newline: "\r\n" });
-    const url = URL.createObjectURL(new Blob([csv], { type: "text/csv;charset=utf-8" }));
     const a = document.createElement("a");
-    a.href = url;
-    a.download = `size-runs-${fileDateStamp(new Date(), clock)}.csv`;
+    a.href = `${base}/size-runs${jobListSearch({ ...asked, q: search.trim() || null, page: 1 })}`;
+    a.download = "";
     a.click();
-    setTimeout(() => URL.revokeObjectURL(url), 1000);
   };
 
-  const { pageIndex, pageSize } = table.getState().pagination;
+  const pages = pageCount(total, query.pageSize);
+  const first = (query.page - 1) * query.pageSize + 1;
   return (
     <div className="space-y-3" data-hydrated={hydrated}>
-      <div className="card flex flex-wrap items-end gap-3 p-3" role="search" aria-label="Find jobs">
+      <form
+        className="card flex flex-wrap items-end gap-3 p-3"
+        role="search"
+        aria-label="Find jobs"
+        action={base}
+        method="get"
+        onSubmit={(e) => {
+          e.preventDefault();
+          go({});
+        }}
+      >
+        {asked.sort !== "due" || asked.dir !== "asc" ? (
+          <>
+            <input type="hidden" name="sort" value={asked.sort} />
+            <input type="hidden" name="dir" value={asked.dir} />
+          </>
+        ) : null}
+        {asked.pageSize !== DEFAULT_JOB_PAGE_SIZE ? <input type="hidden" name="size" value={asked.pageSize} /> : null}
         <div className="min-w-48 flex-1">
           <label htmlFor="job-search" className="field-label">
             Search
           </label>
-          <input id="job-search" type="search" className="field-input" placeholder="Job, client or garment" value={search} onChange={(e) => (setSearch(e.target.value), table.setPageIndex(0))} />
+          <input id="job-search" name="q" type="search" className="field-input" placeholder="Job, client or garment" value={search} onChange={(e) => onSearch(e.target.value)} />
         </div>
         <div>
           <label htmlFor="job-filter-status" className="field-label">
             Status
           </label>
-          <select id="job-filter-status" className="field-input" value={(filterValue("status") as string) ?? ""} onChange={(e) => setFilter("status", e.target.value)}>
+          <select id="job-filter-status" name="status" className="field-input" value={asked.status ?? ""} onChange={(e) => go({ status: (e.target.value || null) as JobStatus | null })}>
             <option value="">Any</option>
             {JOB_STATUSES.map((s) => (
               <option key={s} value={s}>
@@ -164,11 +163,11 @@ export function JobTable({ shopSlug, rows, clock = {} }: { shopSlug: string; row
           <label htmlFor="job-filter-client" className="field-label">
             Client
           </label>
-          <select id="job-filter-client" className="field-input" value={(filterValue("clientId") as string) ?? ""} onChange={(e) => setFilter("clientId", e.target.value)}>
+          <select id="job-filter-client" name="client" className="field-input" value={asked.clientId ?? ""} onChange={(e) => go({ clientId: e.target.value || null })}>
             <option value="">Any</option>
-            {clients.map(([id, name]) => (
-              <option key={id} value={id}>
-                {name}
+            {clients.map((c) => (
+              <option key={c.id} value={c.id}>
+                {c.name}
               </option>
             ))}
           </select>
@@ -177,33 +176,42 @@ export function JobTable({ shopSlug, rows, clock = {} }: { shopSlug: string; row
           <label htmlFor="job-filter-from" className="field-label">
             Due from
           </label>
-          <input id="job-filter-from" type="date" className="field-input" value={due.from ?? ""} onChange={(e) => setFilter("dueDate", { ...due, from: e.target.value || undefined })} />
+          <input id="job-filter-from" name="from" type="date" className="field-input" value={asked.dueFrom ?? ""} onChange={(e) => go({ dueFrom: e.target.value || null })} />
         </div>
         <div>
           <label htmlFor="job-filter-to" className="field-label">
             Due by
           </label>
-          <input id="job-filter-to" type="date" className="field-input" value={due.to ?? ""} onChange={(e) => setFilter("dueDate", { ...due, to: e.target.value || undefined })} />
+          <input id="job-filter-to" name="to" type="date" className="field-input" value={asked.dueTo ?? ""} onChange={(e) => go({ dueTo: e.target.value || null })} />
         </div>
-        <button type="button" className="btn-quiet" onClick={exportCsv} disabled={filtered.length === 0}>
+        <button type="button" className="btn-quiet" onClick={exportCsv} disabled={total === 0 && search.trim() === (query.q ?? "")}>
           Size runs as CSV
         </button>
-      </div>
+      </form>
 
       <div className="card overflow-x-auto">
-        <table className="w-full text-sm" data-testid="job-table">
+        <table className="w-full text-sm" data-testid="job-table" aria-busy={pending}>
           <thead>
             {table.getHeaderGroups().map((group) => (
               <tr key={group.id} className="border-b border-paper-300 text-left">
                 {group.headers.map((header) => {
-                  const sorted = header.column.getIsSorted();
+                  const by = SORT_OF[header.column.id];
+                  const sorted = by && asked.sort === by ? asked.dir : false;
                   return (
                     <th key={header.id} scope="col" aria-sort={sorted ? (sorted === "asc" ? "ascending" : "descending") : undefined} className="px-3 py-2 text-xs font-medium uppercase tracking-wide text-ink-500">
-                      {header.column.getCanSort() ? (
-                        <button type="button" className="inline-flex items-center gap-1 uppercase hover:text-ink-800" onClick={header.column.getToggleSortingHandler()}>
+                      {by ? (
+                        <Link
+                          href={hrefOf({ sort: by, dir: sorted === "asc" ? "desc" : "asc", page: 1 })}
+                          scroll={false}
+                          className="inline-flex items-center gap-1 uppercase hover:text-ink-800"
+                          onClick={(e) => {
+                            e.preventDefault();
+                            go({ sort: by, dir: sorted === "asc" ? "desc" : "asc" });
+                          }}
+                        >
                           {flexRender(header.column.columnDef.header, header.getContext())}
                           <span aria-hidden>{sorted === "asc" ? "▲" : sorted === "desc" ? "▼" : "↕"}</span>
-                        </button>
+                        </Link>
                       ) : (
                         flexRender(header.column.columnDef.header, header.getContext())
                       )}
@@ -223,10 +231,10 @@ export function JobTable({ shopSlug, rows, clock = {} }: { shopSlug: string; row
                 ))}
               </tr>
             ))}
-            {table.getRowModel().rows.length === 0 ? (
+            {rows.length === 0 ? (
               <tr>
                 <td colSpan={columns.length} className="px-3 py-6 text-center text-ink-600">
-                  No job matches these filters.
+                  {total > 0 ? "No jobs on this page." : "No job matches these filters."}
                 </td>
               </tr>
             ) : null}
@@ -236,27 +244,19 @@ export function JobTable({ shopSlug, rows, clock = {} }: { shopSlug: string; row
 
       <nav className="flex flex-wrap items-center justify-between gap-3 text-sm" aria-label="Pages">
         <span className="text-ink-600">
-          {filtered.length} of {rows.length} jobs
-          {filtered.length > 0 ? ` · showing ${pageIndex * pageSize + 1}–${Math.min(filtered.length, (pageIndex + 1) * pageSize)}` : ""}
+          {total} of {all} jobs
+          {rows.length > 0 ? ` · showing ${first}–${first + rows.length - 1}` : ""}
         </span>
         <div className="flex items-center gap-2">
           <label htmlFor="job-page-size" className="text-ink-600">
             Per page
           </label>
-          <select id="job-page-size" className="field-input w-20 py-1" value={pageSize} onChange={(e) => table.setPageSize(Number(e.target.value))}>
-            {PAGE_SIZES.map((n) => (
+          <select id="job-page-size" className="field-input w-20 py-1" value={asked.pageSize} onChange={(e) => go({ pageSize: Number(e.target.value) })}>
+            {JOB_PAGE_SIZES.map((n) => (
               <option key={n}>{n}</option>
             ))}
           </select>
-          <button type="button" className="btn-quiet px-3 py-1" onClick={() => table.previousPage()} disabled={!table.getCanPreviousPage()}>
-            Previous
-          </button>
-          <span className="measure">
-            {pageIndex + 1} / {Math.max(1, table.getPageCount())}
-          </span>
-          <button type="button" className="btn-quiet px-3 py-1" onClick={() => table.nextPage()} disabled={!table.getCanNextPage()}>
-            Next
-          </button>
+          <PageLinks page={query.page} pages={pages} hrefOf={(n) => `${base}${jobListSearch({ ...query, page: n })}`} />
         </div>
       </nav>
     </div>

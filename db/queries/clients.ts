@@ -28,6 +28,11 @@ export async function listClients({ shopId, includeArchived = false }: { shopId:
   }));
 }
 
+/** The shop's clients by name, id and name only (the job list's client filter). */
+export async function listClientNames({ shopId }: { shopId: string }) {
+  return db.select({ id: clients.id, name: clients.name }).from(clients).where(eq(clients.shopId, shopId)).orderBy(asc(clients.name), asc(clients.id));
+}
+
 export type ClientListRow = Awaited<ReturnType<typeof listClients>>[number];
 
 export async function findClient({ shopId, clientId }: { shopId: string; clientId: string }) {

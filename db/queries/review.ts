@@ -239,15 +239,15 @@ export async function proofContext({ proofId }: { proofId: string }) {
   return row;
 }
 
-/** Proofs a client may open: those with at least one revision sent. */
-export async function listSharedProofsForClients({ clientIds }: { clientIds: string[] }) {
-  if (clientIds.length === 0) return [];
+/** Proofs a client may open: those with at least one revision sent, of these jobs if they are these clients' (a portal page asks for its own rows only). */
+export async function listSharedProofsForClients({ clientIds, jobIds }: { clientIds: string[]; jobIds: string[] }) {
+  if (clientIds.length === 0 || jobIds.length === 0) return [];
   const rows = await db
     .selectDistinct({ proofId: proofs.id, jobId: proofs.jobId, name: proofs.name })
     .from(proofs)
     .innerJoin(jobs, eq(jobs.id, proofs.jobId))
     .innerJoin(proofRevisions, eq(proofRevisions.proofId, proofs.id))
-    .where(inArray(jobs.clientId, clientIds));
+    .where(and(inArray(jobs.clientId, clientIds), inArray(proofs.jobId, jobIds)));
   return rows;
 }
 

@@ -19,7 +19,7 @@ export const clients = pgTable(
     taxExempt: boolean("tax_exempt").notNull().default(false),
     createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
   },
-  (t) => [index("clients_shop").on(t.shopId)],
+  (t) => [index("clients_shop_name").on(t.shopId, t.name)],
 );
 
 export type Client = typeof clients.$inferSelect;

@@ -1,3 +1,4 @@
+import { sql } from "drizzle-orm";
 import { boolean, date, doublePrecision, index, jsonb, pgEnum, pgTable, text, timestamp } from "drizzle-orm/pg-core";
 import { blanks } from "./blanks";
 import { users } from "./auth";
@@ -42,7 +43,19 @@ export const jobs = pgTable(
     createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
     updatedAt: timestamp("updated_at", { withTimezone: true }).notNull().defaultNow(),
   },
-  (t) => [index("jobs_shop_status").on(t.shopId, t.status), index("jobs_client").on(t.clientId)],
+  // The job list, board and portal read one page at a time: each order they page by has an index
+  // that starts with the shop (or client) and ends with the id that breaks ties.
+  (t) => [
+    index("jobs_shop_status_updated").on(t.shopId, t.status, t.updatedAt.desc().nullsFirst(), t.id),
+    index("jobs_shop_updated").on(t.shopId, t.updatedAt.desc().nullsFirst(), t.id),
+    index("jobs_shop_due").on(t.shopId, t.dueDate, t.id),
+    index("jobs_shop_title").on(t.shopId, t.title, t.id),
+    index("jobs_shop_method").on(t.shopId, t.method, t.id),
+    index("jobs_client_updated").on(t.clientId, t.updatedAt.desc().nullsFirst(), t.id),
+    index("jobs_blank").on(t.blankId),
+    // Substring search on the title (pg_trgm, shipped with PostgreSQL's contrib modules).
+    index("jobs_title_trgm").using("gin", sql`${t.title} gin_trgm_ops`),
+  ],
 );
 
 export type Job = typeof jobs.$inferSelect;

@@ -45,7 +45,8 @@ export async function createBenchFixture(log: (line: string) => void): Promise<B
   const { insertUploadedArtwork } = await import("../../db/queries/artworks");
   const { findShopBySlug } = await import("../../db/queries/access");
   const { findUserByEmail } = await import("../../db/queries/users");
-  const { listJobs } = await import("../../db/queries/jobs");
+  const { listJobPage } = await import("../../db/queries/jobs");
+  const { DEFAULT_JOB_LIST } = await import("../../lib/job-list");
   const { getProofDocument, listProofsForJob, saveProof } = await import("../../db/queries/proofs");
   const { createShareLink, sendRevision } = await import("../../db/queries/review");
 
@@ -54,7 +55,7 @@ export async function createBenchFixture(log: (line: string) => void): Promise<B
   const shop = await findShopBySlug({ slug: DEMO_SHOP.slug });
   const designer = await findUserByEmail({ email: designerEmail });
   if (!shop || !designer) throw new Error("the demo shop or its designer is missing from the test database");
-  const job = (await listJobs({ shopId: shop.id })).find((j) => j.title === "Spring season team tees");
+  const job = (await listJobPage({ shopId: shop.id, query: { ...DEFAULT_JOB_LIST, q: "Spring season team tees" } })).rows.find((j) => j.title === "Spring season team tees");
   const proofRow = job && (await listProofsForJob({ shopId: shop.id, jobId: job.id })).find((p) => p.name === "Team tee");
   if (!job || !proofRow) throw new Error("the demo team tee proof is missing from the test database");
 

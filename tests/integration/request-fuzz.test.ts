@@ -359,6 +359,12 @@ function getRoutes(): Array<{ label: string; file: string; build: (s: string) =>
     { label: "GET /api/exports/[id]", file: "app/api/exports/[id]/route.ts", build: (s) => ({ url: `${ORIGIN}/api/exports/${e(s)}`, params: { id: s } }) },
     { label: "GET /api/exports/[id]/file", file: "app/api/exports/[id]/file/route.ts", build: (s) => ({ url: `${ORIGIN}/api/exports/${e(s)}/file`, params: { id: s } }) },
     { label: "GET /api/proofs/[id]", file: "app/api/proofs/[id]/route.ts", build: (s) => ({ url: `${ORIGIN}/api/proofs/${e(s)}`, params: { id: s } }) },
+    { label: "GET /shops/[shop]/jobs/size-runs", file: "app/shops/[shop]/jobs/size-runs/route.ts", build: (s) => ({ url: `${ORIGIN}/shops/${e(s)}/jobs/size-runs`, params: { shop: s } }) },
+    {
+      label: "GET /shops/[shop]/jobs/size-runs (filters)",
+      file: "app/shops/[shop]/jobs/size-runs/route.ts",
+      build: (s) => ({ url: `${ORIGIN}/shops/${f.other.slug}/jobs/size-runs?q=${e(s)}&status=${e(s)}&client=${e(s)}&from=${e(s)}&sort=${e(s)}&page=${e(s)}`, params: { shop: f.other.slug } }),
+    },
     { label: "GET /api/me/calibration", file: "app/api/me/calibration/route.ts", build: (s) => ({ url: `${ORIGIN}/api/me/calibration?device=${e(s)}`, params: {} }) },
     { label: "GET /api/review/[kind]/[key]/comments", file: "app/api/review/[kind]/[key]/comments/route.ts", build: (s) => ({ url: `${ORIGIN}/api/review/link/${e(s)}/comments`, params: { kind: "link", key: s } }) },
     { label: "GET /api/review/[kind]/[key]/comments (kind)", file: "app/api/review/[kind]/[key]/comments/route.ts", build: (s) => ({ url: `${ORIGIN}/api/review/${e(s)}/${state.proofId}/comments`, params: { kind: s, key: state.proofId } }) },

@@ -22,7 +22,7 @@ export default async function PortalJobPage({ params, searchParams }: { params: 
   const contact = job ? actor.contacts.find((c) => c.shopId === job.shopId && c.clientId === job.clientId) : undefined;
   if (!job || !contact) notFound();
   const returned = await checkoutReturn((await searchParams).checkout);
-  const [panel, shared] = await Promise.all([quotePanelData(job.id), listSharedProofsForClients({ clientIds: [job.clientId] })]);
+  const [panel, shared] = await Promise.all([quotePanelData(job.id), listSharedProofsForClients({ clientIds: [job.clientId], jobIds: [job.id] })]);
   const proofs = shared.filter((p) => p.jobId === job.id);
   return (
     <>

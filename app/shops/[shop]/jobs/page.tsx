@@ -4,9 +4,11 @@ import { JobBoard } from "@/components/orders/JobBoard";
 import { JobTable, type JobRow } from "@/components/orders/JobTable";
 import { EmptyState } from "@/components/ui/EmptyState";
 import { PageHeader } from "@/components/ui/PageHeader";
-import { listJobs } from "@/db/queries/jobs";
+import { listClientNames } from "@/db/queries/clients";
+import { countJobsByStatus, listBoardColumns, listJobPage, type JobListRow } from "@/db/queries/jobs";
 import { can } from "@/lib/access";
 import { JOB_STATUSES, type JobStatus } from "@/lib/jobs";
+import { BOARD_COLUMN_SIZE, readJobListParams } from "@/lib/job-list";
 import { moneySummary } from "@/lib/quotes";
 import { loadPriceMatrix } from "@/app/_server/orders";
 import { formatShopDate } from "@/lib/dates";
@@ -15,15 +17,26 @@ import { formatMoney } from "@/lib/money";
 export const dynamic = "force-dynamic";
 export const metadata = { title: "Jobs" };
 
-export default async function JobsPage({ params, searchParams }: { params: Promise<{ shop: string }>; searchParams: Promise<{ view?: string }> }) {
+export default async function JobsPage({ params, searchParams }: { params: Promise<{ shop: string }>; searchParams: Promise<Record<string, string | string[] | undefined>> }) {
   const { shop } = await params;
-  const board = (await searchParams).view === "board";
+  const asked = await searchParams;
+  const board = asked.view === "board";
+  const query = readJobListParams(asked);
   const access = await requireShopPage(shop, "jobs.view", `/shops/${shop}/jobs`);
   const seesMoney = can(access.role, "prices.view");
-  const [jobs, prices] = await Promise.all([listJobs({ shopId: access.shop.id }), seesMoney ? loadPriceMatrix(access.shop.id) : null]);
+  const shopId = access.shop.id;
+  // The board asks for the newest few of each status; the list for one page. Either way only those rows get their sizes and money.
+  const counting = countJobsByStatus({ shopId });
+  const [counts, listed, clients, prices] = await Promise.all([
+    counting,
+    board ? listBoardColumns({ shopId, perColumn: BOARD_COLUMN_SIZE }).then((rows) => ({ rows, total: 0 })) : listJobPage({ shopId, query, statusCounts: counting }),
+    board ? [] : listClientNames({ shopId }),
+    seesMoney ? loadPriceMatrix(shopId) : null,
+  ]);
+  const all = JOB_STATUSES.reduce((n, s) => n + counts[s], 0);
   const clock = access.shop.clock;
   const cash = (cents: number) => formatMoney(cents, { currency: prices?.matrix.currency, locale: clock.locale });
-  const rows: JobRow[] = jobs.map((j) => {
+  const rows: JobRow[] = listed.rows.map((j: JobListRow) => {
     const summary = moneySummary({ quote: j.money.quote, payments: j.money.paid ? [{ state: "paid", amountCents: j.money.paid }] : [] });
     return {
       id: j.id,
@@ -37,7 +50,6 @@ export default async function JobsPage({ params, searchParams }: { params: Promi
       clientName: j.clientName,
       garment: j.garmentName,
       quantity: j.sizeRun.reduce((s, r) => s + r.quantity, 0),
-      sizeRun: j.sizeRun,
       ...(seesMoney ? { money: { state: summary.state, totalCents: summary.totalCents, paidCents: summary.paidCents, balanceCents: summary.balanceCents, totalText: cash(summary.totalCents), balanceText: cash(summary.balanceCents) } } : {}),
     };
   });
@@ -65,12 +77,12 @@ export default async function JobsPage({ params, searchParams }: { params: Promi
           </>
         }
       />
-      {jobs.length === 0 ? (
+      {all === 0 ? (
         <EmptyState title="No jobs yet">A job holds a client&apos;s garments, sizes and proofs.</EmptyState>
       ) : board ? (
-        <JobBoard shopSlug={shop} rows={rows} movable={movable} />
+        <JobBoard shopSlug={shop} rows={rows} counts={counts} movable={movable} />
       ) : (
-        <JobTable shopSlug={shop} rows={rows} clock={clock} />
+        <JobTable shopSlug={shop} rows={rows} total={listed.total} all={all} query={query} clients={clients} />
       )}
     </>
   );

@@ -7,8 +7,9 @@ import { PageHeader } from "@/components/ui/PageHeader";
 import { ArrivalNote } from "@/components/ui/ArrivalNote";
 import { StatusBadge } from "@/components/ui/StatusBadge";
 import { findClient } from "@/db/queries/clients";
-import { listJobs } from "@/db/queries/jobs";
+import { listJobPage } from "@/db/queries/jobs";
 import { can } from "@/lib/access";
+import { DEFAULT_JOB_LIST, JOB_PAGE_SIZES, jobListSearch } from "@/lib/job-list";
 
 export const dynamic = "force-dynamic";
 export const metadata = { title: "Client" };
@@ -18,7 +19,9 @@ export default async function ClientPage({ params }: { params: Promise<{ shop: s
   const access = await requireShopPage(shop, "clients.view", `/shops/${shop}/clients/${clientId}`);
   const client = await findClient({ shopId: access.shop.id, clientId });
   if (!client) notFound();
-  const jobs = (await listJobs({ shopId: access.shop.id })).filter((j) => j.clientId === client.id);
+  // The most recently changed jobs; a client with more has the rest in the job list, filtered to them.
+  const shown = { ...DEFAULT_JOB_LIST, clientId: client.id, sort: "updated" as const, dir: "desc" as const, pageSize: JOB_PAGE_SIZES.at(-1)! };
+  const { rows: jobs, total: jobTotal } = await listJobPage({ shopId: access.shop.id, query: shown });
   const canEdit = can(access.role, "clients.edit");
   return (
     <>
@@ -67,6 +70,13 @@ export default async function ClientPage({ params }: { params: Promise<{ shop: s
               ))}
             </ul>
           )}
+          {jobTotal > jobs.length ? (
+            <p className="mt-3 text-sm">
+              <Link href={`/shops/${shop}/jobs${jobListSearch(shown)}`} className="font-medium text-patina-700 hover:underline">
+                All {jobTotal} jobs for this client →
+              </Link>
+            </p>
+          ) : null}
         </section>
       </div>
     </>
