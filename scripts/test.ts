@@ -8,7 +8,8 @@ import { randomInt } from "node:crypto";
 import { existsSync, mkdirSync, readFileSync, rmSync } from "node:fs";
 import path from "node:path";
 import { buildApp, startNext, startWorker, stopChild, waitForHealth } from "./lib/next";
-import { isRoot, repoRoot, run } from "./lib/proc";
+import { ensureDebianProgram } from "./lib/debian";
+import { repoRoot, run } from "./lib/proc";
 import { changedSeededRows, recordSeededRows, type SeededRows } from "./lib/seeded-rows";
 import { bringUpStack, testPortOffset } from "./lib/stack";
 import { componentTestFiles } from "./lib/test-files";
@@ -24,16 +25,7 @@ type Totals = { passed: number; failed: number; skipped: number };
 const totals: Totals = { passed: 0, failed: 0, skipped: 0 };
 
 async function ensureChromium(): Promise<void> {
-  if (existsSync(CHROMIUM)) return;
-  if (!isRoot()) {
-    throw new Error(`Chromium is missing at ${CHROMIUM}. Install it with: sudo apt-get install -y chromium`);
-  }
-  log("installing Debian's chromium for the end-to-end tests…");
-  await run("apt-get", ["update"], { onLine: () => {} });
-  await run("apt-get", ["install", "-y", "--no-install-recommends", "chromium", "fonts-liberation"], {
-    env: { ...process.env, DEBIAN_FRONTEND: "noninteractive" },
-    onLine: () => {},
-  });
+  await ensureDebianProgram({ path: CHROMIUM, packages: ["chromium", "fonts-liberation"], what: "Chromium for the end-to-end tests", log });
 }
 
 /** The shuffle seed: TEST_SHUFFLE_SEED repeats an order, else a new one per run. */

@@ -20,7 +20,9 @@ export function queue(): Promise<PgBoss> {
   return globalForBoss.chalklineBoss;
 }
 
-export async function enqueueExport(exportId: string): Promise<void> {
-  const boss = await queue();
-  await boss.send(EXPORT_QUEUE, { exportId }, { retryLimit: 0, expireInSeconds: 15 * 60 });
+/** Each export is one queue job, never retried by the queue itself (a failed export says why and the person retries it). */
+export const EXPORT_JOB_OPTIONS = { retryLimit: 0, expireInSeconds: 15 * 60 } as const;
+
+export async function enqueueExport(exportId: string, boss?: PgBoss): Promise<void> {
+  await (boss ?? (await queue())).send(EXPORT_QUEUE, { exportId }, EXPORT_JOB_OPTIONS);
 }

@@ -128,6 +128,19 @@ export async function finishExport(exportId: string, files: Array<{ fileName: st
   });
 }
 
+/**
+ * Puts an export a stopping worker could not finish back in the queue: only while it is still
+ * running (one that finished in the meantime stays done). True when it was put back.
+ */
+export async function requeueExport({ exportId }: { exportId: string }): Promise<boolean> {
+  const rows = await db
+    .update(exportJobs)
+    .set({ state: "queued", progress: 0, message: null })
+    .where(and(eq(exportJobs.id, exportId), eq(exportJobs.state, "running")))
+    .returning({ id: exportJobs.id });
+  return rows.length > 0;
+}
+
 export async function loadExportForWork({ exportId }: { exportId: string }) {
   const [row] = await db.select(exportColumns).from(exportJobs).where(eq(exportJobs.id, exportId)).limit(1);
   return row;

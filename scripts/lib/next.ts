@@ -1,4 +1,4 @@
-import { spawn, type ChildProcess } from "node:child_process";
+import { spawn, type ChildProcess, type SpawnOptions } from "node:child_process";
 import { existsSync, readdirSync, statSync } from "node:fs";
 import path from "node:path";
 import { repoRoot, run, sleep } from "./proc";
@@ -35,7 +35,11 @@ export async function buildApp(env: Record<string, string>, log: (line: string) 
 }
 
 /** The app: Next.js behind scripts/serve.ts, which works out each request's client address. */
-export function startNext(opts: { dev: boolean; port: number; env: Record<string, string>; quiet?: boolean }): ChildProcess {
+/** Where a child's output goes: this terminal, nowhere (errors still shown), or pipes the caller reads. */
+export type ChildOutput = "inherit" | "quiet" | "pipe";
+const stdioFor = (output: ChildOutput): SpawnOptions["stdio"] => (output === "pipe" ? ["ignore", "pipe", "pipe"] : output === "quiet" ? ["ignore", "ignore", "inherit"] : "inherit");
+
+export function startNext(opts: { dev: boolean; port: number; env: Record<string, string>; quiet?: boolean; output?: ChildOutput }): ChildProcess {
   // CHALKLINE_SERVER_NODE_ARGS="--cpu-prof --cpu-prof-dir=…" profiles the server (Node refuses --cpu-prof in NODE_OPTIONS).
   const nodeArgs = (process.env.CHALKLINE_SERVER_NODE_ARGS ?? "").split(/\s+/).filter(Boolean);
   // With node flags the server runs in this node process's child directly (tsx as a loader), so the flags reach it.
@@ -43,7 +47,7 @@ export function startNext(opts: { dev: boolean; port: number; env: Record<string
   return spawn(process.execPath, args, {
     cwd: repoRoot,
     env: { ...process.env, ...opts.env, NEXT_TELEMETRY_DISABLED: "1" },
-    stdio: opts.quiet ? ["ignore", "ignore", "inherit"] : "inherit",
+    stdio: stdioFor(opts.output ?? (opts.quiet ? "quiet" : "inherit")),
   });
 }
 
@@ -62,12 +66,13 @@ export async function waitForHealth(url: string, timeoutMs: number, child?: Chil
   throw new Error(`the app did not answer ${url}/api/health within ${Math.round(timeoutMs / 1000)} s`);
 }
 
-export async function stopChild(child: ChildProcess): Promise<void> {
+/** SIGTERM (the app and the worker finish what they have in flight), SIGKILL after `graceMs`. */
+export async function stopChild(child: ChildProcess, graceMs = 8_000): Promise<void> {
   if (child.exitCode !== null || child.signalCode !== null) return;
   await new Promise<void>((resolve) => {
     const timer = setTimeout(() => {
       child.kill("SIGKILL");
-    }, 8_000);
+    }, graceMs);
     child.once("exit", () => {
       clearTimeout(timer);
       resolve();
@@ -77,10 +82,10 @@ export async function stopChild(child: ChildProcess): Promise<void> {
 }
 
 /** The export worker, a separate process reading jobs from PostgreSQL. */
-export function startWorker(env: Record<string, string>, quiet = false): ChildProcess {
+export function startWorker(env: Record<string, string>, quiet: boolean | ChildOutput = false): ChildProcess {
   return spawn(process.execPath, [TSX_CLI, "--conditions=react-server", path.join(repoRoot, "scripts", "worker.ts")], {
     cwd: repoRoot,
     env: { ...process.env, ...env },
-    stdio: quiet ? ["ignore", "ignore", "inherit"] : "inherit",
+    stdio: stdioFor(typeof quiet === "string" ? quiet : quiet ? "quiet" : "inherit"),
   });
 }
