@@ -10,7 +10,7 @@
  */
 import PgBoss from "pg-boss";
 import { runExport } from "../app/_server/production/run-export";
-import { enqueueExport, EXPORT_QUEUE } from "../app/_server/queue";
+import { enqueueExport, EXPORT_QUEUE, queueSchema } from "../app/_server/queue";
 import { requeueExport } from "../db/queries/production";
 
 const url = process.env.DATABASE_URL;
@@ -24,7 +24,7 @@ if (!Number.isFinite(drainSeconds) || drainSeconds < 0) {
   process.exit(1);
 }
 
-const boss = new PgBoss({ connectionString: url, max: 3, schema: "pgboss" });
+const boss = new PgBoss({ connectionString: url, max: 3, schema: queueSchema() });
 boss.on("error", (error) => console.error("[worker]", error.message));
 await boss.start();
 await boss.createQueue(EXPORT_QUEUE).catch(() => undefined);

@@ -28,7 +28,9 @@ pid ${at("nginx.pid")};
 error_log ${at("error.log")} notice;
 events { worker_connections 512; }
 http {
-  access_log ${at("access.log")} combined;
+  # Which app process answered each request, beside what was asked.
+  log_format upstreams '$remote_addr [$time_local] "$request" $status upstream=$upstream_addr';
+  access_log ${at("access.log")} upstreams;
   client_body_temp_path ${at("body")};
   proxy_temp_path ${at("proxy")};
   fastcgi_temp_path ${at("fastcgi")};
