@@ -66,7 +66,6 @@ server.listen(port, hostname, () => {
 function drain(signal: NodeJS.Signals) {
   if (draining) return;
   draining = true;
-  console.log(`[serve] ${signal}: no new connections; finishing ${inFlight.size} request(s) in flight (at most ${drainSeconds} s)`);
   for (const response of inFlight) if (!response.headersSent) response.setHeader("Connection", "close");
   let closed = false;
   server.close(() => {
@@ -75,6 +74,8 @@ function drain(signal: NodeJS.Signals) {
     void app.close().finally(() => process.exit(0));
   });
   server.closeIdleConnections();
+  // Said once the listener is closed: whoever reads this line finds the port refusing connections.
+  console.log(`[serve] ${signal}: no new connections; finishing ${inFlight.size} request(s) in flight (at most ${drainSeconds} s)`);
   setTimeout(() => {
     if (closed) process.exit(0);
     console.error(`[serve] ${inFlight.size} request(s) still open after ${drainSeconds} s; cutting them`);
