@@ -4,7 +4,12 @@ import path from "node:path";
 import { repoRoot, run, sleep } from "./proc";
 
 const NEXT_BIN = path.join(repoRoot, "node_modules", "next", "dist", "bin", "next");
-const TSX_CLI = path.join(repoRoot, "node_modules", "tsx", "dist", "cli.mjs");
+/**
+ * The app and the worker run in node itself with tsx as a loader, never under the tsx command: on
+ * SIGTERM that wrapper gives its child 60 ms to say it caught the signal and kills it otherwise, so
+ * a worker busy drawing a gang sheet would die mid-export instead of finishing it.
+ */
+const TSX_LOADER = ["--import", "tsx"];
 const SOURCES = ["app", "components", "canvas", "db", "lib", "public", "fonts", "next.config.ts", "proxy.ts", "tailwind.config.ts", "postcss.config.mjs", "package-lock.json", "tsconfig.json"];
 
 function newestMtime(entry: string): number {
@@ -42,8 +47,7 @@ const stdioFor = (output: ChildOutput): SpawnOptions["stdio"] => (output === "pi
 export function startNext(opts: { dev: boolean; port: number; env: Record<string, string>; quiet?: boolean; output?: ChildOutput }): ChildProcess {
   // CHALKLINE_SERVER_NODE_ARGS="--cpu-prof --cpu-prof-dir=…" profiles the server (Node refuses --cpu-prof in NODE_OPTIONS).
   const nodeArgs = (process.env.CHALKLINE_SERVER_NODE_ARGS ?? "").split(/\s+/).filter(Boolean);
-  // With node flags the server runs in this node process's child directly (tsx as a loader), so the flags reach it.
-  const args = [...(nodeArgs.length ? [...nodeArgs, "--import", "tsx"] : [TSX_CLI]), path.join(repoRoot, "scripts", "serve.ts"), ...(opts.dev ? ["--dev"] : []), "-p", String(opts.port), "-H", process.env.HOST ?? "127.0.0.1"];
+  const args = [...nodeArgs, ...TSX_LOADER, path.join(repoRoot, "scripts", "serve.ts"), ...(opts.dev ? ["--dev"] : []), "-p", String(opts.port), "-H", process.env.HOST ?? "127.0.0.1"];
   return spawn(process.execPath, args, {
     cwd: repoRoot,
     env: { ...process.env, ...opts.env, NEXT_TELEMETRY_DISABLED: "1" },
@@ -83,7 +87,7 @@ export async function stopChild(child: ChildProcess, graceMs = 8_000): Promise<v
 
 /** The export worker, a separate process reading jobs from PostgreSQL. */
 export function startWorker(env: Record<string, string>, quiet: boolean | ChildOutput = false): ChildProcess {
-  return spawn(process.execPath, [TSX_CLI, "--conditions=react-server", path.join(repoRoot, "scripts", "worker.ts")], {
+  return spawn(process.execPath, [...TSX_LOADER, "--conditions=react-server", path.join(repoRoot, "scripts", "worker.ts")], {
     cwd: repoRoot,
     env: { ...process.env, ...env },
     stdio: stdioFor(typeof quiet === "string" ? quiet : quiet ? "quiet" : "inherit"),

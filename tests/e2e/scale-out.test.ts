@@ -14,6 +14,7 @@ import { randomBytes } from "node:crypto";
 import { readFileSync } from "node:fs";
 import { request as httpRequest } from "node:http";
 import { inArray, sql } from "drizzle-orm";
+import { Pool } from "pg";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { db, getPool } from "@/db/client";
 import { exportJobs } from "@/db/schema";
@@ -103,6 +104,9 @@ async function settled(ids: string[]) {
 
 const startedLine = (id: string) => new RegExp(`export ${id}: started`);
 const finishedLine = (id: string) => new RegExp(`export ${id}: finished`);
+/** The first line of `m` matching `pattern`; fails at once if `m` exits without writing one. */
+const lineOf = (m: Managed, pattern: RegExp) =>
+  Promise.race([m.log.next(pattern), m.exited.then((code) => Promise.reject(new Error(`${m.name} exited (${code}) before writing ${pattern}:\n${m.log.lines.slice(-15).join("\n")}`)))]);
 const count = (w: Managed, pattern: RegExp) => w.log.lines.filter((l) => pattern.test(l)).length;
 
 /** A POST whose body arrives in two parts: the second only when `finish()` is called. */
@@ -163,6 +167,24 @@ describe("two app processes and two workers on one database, through nginx and p
     expect((await tryPasswordSignIn(nobody, "guess-other", "127.0.62.2", through())).status).toBe(401);
   });
 
+  it("counts limit points taken at once by many connections through pgbouncer, and the app processes see the count", async () => {
+    // The store's statements must not be named prepared statements: through a transaction pooler
+    // concurrent ones land on other server connections ("does not exist", "already exists").
+    const { LIMITS } = await import("@/app/_server/rate-limit");
+    const { consumeLimit } = await import("@/db/queries/limits");
+    const pooled = new Pool({ connectionString: up().env.DATABASE_URL, max: 8 });
+    try {
+      const subjects = ["127.0.63.1", "127.0.63.2", "127.0.63.3", "127.0.63.4"];
+      const answers = await Promise.all(Array.from({ length: 40 }, (_, i) => consumeLimit({ rule: LIMITS.signInAddress, subject: subjects[i % 4]!, pool: pooled })));
+      expect(answers.filter((a) => a.allowed)).toHaveLength(40);
+    } finally {
+      await pooled.end();
+    }
+    const nobody = `nobody-${tag}@scale-out.test`;
+    expect((await tryPasswordSignIn(nobody, "guess", "127.0.63.1", A().url)).status).toBe(429);
+    expect((await tryPasswordSignIn(nobody, "guess", "127.0.63.4", B().url)).status).toBe(429);
+  });
+
   it("runs each export exactly once across the two workers, queued through both app processes", async () => {
     const kinds = [
       { kind: "spec-sheet" },
@@ -197,7 +219,7 @@ describe("two app processes and two workers on one database, through nginx and p
     expect((await fetchFrom("127.0.0.1", `${A().url}/api/health`)).status).toBe(200);
 
     A().child.kill("SIGTERM");
-    const draining = await A().log.next(/SIGTERM: no new connections; finishing \d+ request/);
+    const draining = await lineOf(A(), /SIGTERM: no new connections; finishing \d+ request/);
     expect(draining).toMatch(/finishing 1 request\(s\) in flight/);
     expect(await portOpen(A().port)).toBe(false);
     for (let i = 0; i < 4; i += 1) expect((await fetch(`${through()}/api/health`)).status).toBe(200);
@@ -219,7 +241,7 @@ describe("two app processes and two workers on one database, through nginx and p
     const workers = up().workers;
     const runner = await Promise.race(workers.map((w) => w.log.next(startedLine(id)).then(() => w)));
     runner.child.kill("SIGTERM");
-    expect(await runner.log.next(/SIGTERM: taking no new exports/)).toMatch(/finishing 1 in flight/);
+    expect(await lineOf(runner, /SIGTERM: taking no new exports/)).toMatch(/finishing 1 in flight/);
     expect(await runner.exited).toBe(0);
     const order = [startedLine(id), /SIGTERM/, finishedLine(id), /\[worker\] stopped/].map((p) => runner.log.indexOf(p));
     expect(order.every((at, i) => at >= 0 && (i === 0 || at > order[i - 1]!)), runner.log.lines.slice(-12).join("\n")).toBe(true);
@@ -229,7 +251,7 @@ describe("two app processes and two workers on one database, through nginx and p
 
     const other = workers.find((w) => w !== runner)!;
     const next = await queueExport({ kind: "spec-sheet" });
-    await other.log.next(finishedLine(next));
+    await lineOf(other, finishedLine(next));
     expect((await settled([next]))[0]).toMatchObject({ state: "done", attempts: 1 });
   });
 });
