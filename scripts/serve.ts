@@ -5,7 +5,8 @@
  * the rightmost untrusted X-Forwarded-For hop), drops forwarded headers no trusted proxy sent, and
  * hands the address on in one header of its own.
  *
- * `tsx scripts/serve.ts [--dev] [-p port] [-H host]` (what `npm start`, `npm run dev` and `npm test` run).
+ * `node --import tsx scripts/serve.ts [--dev] [-p port] [-H host]` (what `npm start`, `npm run dev`, `npm test` and
+ * `npm run serve` run; not the `tsx` command, which kills a busy child 60 ms after SIGTERM).
  */
 import { createServer, type ServerResponse } from "node:http";
 import { parseTrustedProxies, stampClientAddress } from "./lib/client-address";

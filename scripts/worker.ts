@@ -2,7 +2,8 @@
  * The export worker: takes heavy exports (gang sheets, big PDFs) from the pg-boss queue in
  * PostgreSQL. Started beside the app by `npm start` and `npm test`; more can run on other machines,
  * and each export is taken by one of them.
- * Run with the react-server condition so server-only modules load: `tsx --conditions=react-server scripts/worker.ts`.
+ * Run with the react-server condition so server-only modules load, in node with tsx as a loader (the
+ * `tsx` command kills a busy child on SIGTERM): `node --import tsx --conditions=react-server scripts/worker.ts`.
  *
  * SIGTERM or SIGINT: takes no new exports and finishes the ones in flight. One still running after
  * CHALKLINE_WORKER_DRAIN_SECONDS (25 by default, under the usual 30 s before a supervisor kills) is
