@@ -24,7 +24,7 @@ export const PGBOUNCER = process.env.PGBOUNCER_PATH ?? "/usr/sbin/pgbouncer";
 export type PgbouncerOptions = { port: number; serverUrl: string; dir?: string; poolSize?: number; log: LogFn };
 export type Pgbouncer = { port: number; dir: string; child: ChildProcess; logFile: string; urlFor: (serverUrl: string) => string; stop: () => Promise<void> };
 
-export function pgbouncerConfig(opts: { port: number; serverHost: string; serverPort: number; dir: string; poolSize: number }): string {
+export function pgbouncerConfig(opts: { port: number; serverHost: string; serverPort: number; dir: string; poolSize: number; user: string }): string {
   const at = (name: string) => path.join(opts.dir, name);
   return `; Written by scripts/lib/pgbouncer.ts; pgbouncer runs in the foreground with everything in ${opts.dir}.
 [databases]
@@ -39,6 +39,8 @@ logfile = ${at("pgbouncer.log")}
 auth_type = trust
 auth_file = ${at("userlist.txt")}
 pool_mode = transaction
+; The admin console (database "pgbouncer": SHOW STATS, SHOW CLIENTS) for the same user.
+admin_users = ${opts.user}
 default_pool_size = ${opts.poolSize}
 max_client_conn = 400
 ; node-postgres sends none of these, other clients (psql, JDBC) may.
@@ -64,7 +66,7 @@ export async function startPgbouncer(opts: PgbouncerOptions): Promise<Pgbouncer>
   const dir = opts.dir ?? mkdtempSync(path.join(os.tmpdir(), "chalkline-pgbouncer-"));
   mkdirSync(dir, { recursive: true });
   const conf = path.join(dir, "pgbouncer.ini");
-  writeFileSync(conf, pgbouncerConfig({ port: opts.port, serverHost: server.hostname, serverPort: Number(server.port || 5432), dir, poolSize: opts.poolSize ?? 20 }));
+  writeFileSync(conf, pgbouncerConfig({ port: opts.port, serverHost: server.hostname, serverPort: Number(server.port || 5432), dir, poolSize: opts.poolSize ?? 20, user }));
   // auth_type = trust still needs each user named in the auth file; the password field is unused.
   writeFileSync(path.join(dir, "userlist.txt"), `"${user.replace(/"/g, '""')}" ""\n`);
   const args = [conf];

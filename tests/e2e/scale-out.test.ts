@@ -14,7 +14,7 @@ import { randomBytes } from "node:crypto";
 import { readFileSync } from "node:fs";
 import { request as httpRequest } from "node:http";
 import { inArray, sql } from "drizzle-orm";
-import { Pool } from "pg";
+import { Client, Pool } from "pg";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { db, getPool } from "@/db/client";
 import { exportJobs } from "@/db/schema";
@@ -253,5 +253,23 @@ describe("two app processes and two workers on one database, through nginx and p
     const next = await queueExport({ kind: "spec-sheet" });
     await lineOf(other, finishedLine(next));
     expect((await settled([next]))[0]).toMatchObject({ state: "done", attempts: 1 });
+  });
+
+  it("every process reached the database through pgbouncer", async () => {
+    // pgbouncer's admin console: its own counts of what went through it.
+    const admin = new Client({ connectionString: `postgres://${new URL(up().env.DATABASE_URL!).username}@127.0.0.1:${up().bouncer.port}/pgbouncer` });
+    await admin.connect();
+    try {
+      const stats = (await admin.query("SHOW STATS")).rows as Array<{ database: string; total_xact_count: string }>;
+      const database = new URL(up().env.DATABASE_URL!).pathname.slice(1);
+      const xacts = Number(stats.find((r) => r.database === database)?.total_xact_count ?? 0);
+      console.log(`[scale-out] pgbouncer counted ${xacts} transactions on ${database}`);
+      expect(xacts).toBeGreaterThan(100);
+      // The queue's clients (pg-boss names its connections) of the worker left and app B are among its clients.
+      const clients = (await admin.query("SHOW CLIENTS")).rows as Array<{ database: string; application_name: string }>;
+      expect(clients.filter((c) => c.database === database && c.application_name === "pgboss").length).toBeGreaterThan(0);
+    } finally {
+      await admin.end();
+    }
   });
 });
