@@ -73,7 +73,7 @@ export type ScaleOut = {
   stop: () => Promise<void>;
 };
 
-function manage(name: string, child: ChildProcess, echo?: LogFn): Managed {
+export function manage(name: string, child: ChildProcess, echo?: LogFn): Managed {
   const log = new ProcessLog(name, child, echo);
   const exited = new Promise<number | null>((resolve) => child.once("exit", (code) => resolve(code)));
   return { name, child, log, exited };

@@ -19,7 +19,8 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { db, getPool } from "@/db/client";
 import { exportJobs } from "@/db/schema";
 import { portOpen } from "@/scripts/lib/ports";
-import { startScaleOut, type Managed, type ScaleOut } from "@/scripts/lib/scale-out";
+import { startWorker, stopChild } from "@/scripts/lib/next";
+import { manage, startScaleOut, type Managed, type ScaleOut } from "@/scripts/lib/scale-out";
 import { shopFactory, type BuiltShop } from "@/tests/support/factory";
 import { callAction } from "./actions-http";
 import { fetchFrom, signInOverHttp, tryPasswordSignIn } from "./support";
@@ -31,7 +32,9 @@ let scale: ScaleOut | undefined;
 
 // Registered before the factory's, so it runs after the factory has deleted its shops (after-hooks
 // run last-registered first): the processes stop, their queue schema goes, the pool closes.
+const extraWorkers: Managed[] = [];
 afterAll(async () => {
+  for (const w of extraWorkers) await stopChild(w.child, 40_000);
   await scale?.stop();
   await db.execute(sql.raw(`drop schema if exists "${queueSchema}" cascade`));
   await getPool().end();
@@ -253,6 +256,29 @@ describe("two app processes and two workers on one database, through nginx and p
     const next = await queueExport({ kind: "spec-sheet" });
     await lineOf(other, finishedLine(next));
     expect((await settled([next]))[0]).toMatchObject({ state: "done", attempts: 1 });
+  });
+
+  it("SIGTERM: a worker that cannot finish an export within its drain time puts it back, and another worker makes it", async () => {
+    // The last worker stops (it is idle), so the export waits for the worker started next.
+    for (const w of up().workers) if (w.child.exitCode === null) {
+      w.child.kill("SIGTERM");
+      expect(await w.exited).toBe(0);
+    }
+    const id = await queueExport({ kind: "gang-sheet-png", rollWidthIn: 22, gapIn: 0.25, allowRotation: true, maxSheetLengthIn: 60 });
+    const hasty = manage("worker 3", startWorker({ ...up().env, CHALKLINE_WORKER_DRAIN_SECONDS: "0" }, "pipe"), echo);
+    extraWorkers.push(hasty);
+    await lineOf(hasty, startedLine(id));
+    hasty.child.kill("SIGTERM");
+    await lineOf(hasty, new RegExp(`export ${id}: not finished after 0 s; put back in the queue`));
+    expect(await hasty.exited).toBe(1);
+    expect(hasty.log.indexOf(finishedLine(id))).toBe(-1);
+
+    const next = manage("worker 4", startWorker(up().env, "pipe"), echo);
+    extraWorkers.push(next);
+    await lineOf(next, finishedLine(id));
+    // Two runs: the first cut short and put back, the second to the end.
+    const [row] = await settled([id]);
+    expect(row, row!.message ?? "").toMatchObject({ state: "done", attempts: 2 });
   });
 
   it("every process reached the database through pgbouncer", async () => {
