@@ -74,8 +74,9 @@ async function stop(signal: NodeJS.Signals) {
     }
     code = 1;
   }
-  // The queue's own bookkeeping (the finished jobs marked complete) before the connections close.
-  await boss.stop({ graceful: true, timeout: 2_000 }).catch(() => undefined);
+  // Finished: the queue's own bookkeeping (the jobs marked complete) before the connections close.
+  // Cut short: at once, so the unfinished run writes nothing more once its export is back in the queue.
+  await boss.stop(finished ? { graceful: true, timeout: 2_000 } : { graceful: false }).catch(() => undefined);
   console.log("[worker] stopped");
   process.exit(code);
 }

@@ -1,5 +1,5 @@
 import "server-only";
-import { and, asc, desc, eq, sql } from "drizzle-orm";
+import { and, asc, desc, eq, inArray, sql } from "drizzle-orm";
 import { db } from "../client";
 import { exportFiles, exportJobs, jobGradings, jobSizes, jobs, type ExportJob, type ExportSummaryFacts, type ExportSubject } from "../schema";
 
@@ -129,14 +129,15 @@ export async function finishExport(exportId: string, files: Array<{ fileName: st
 }
 
 /**
- * Puts an export a stopping worker could not finish back in the queue: only while it is still
- * running (one that finished in the meantime stays done). True when it was put back.
+ * Puts an export a stopping worker took but could not finish back in the queue: only while it is
+ * still unfinished (running, or not yet marked so); one that finished in the meantime stays as it
+ * ended. True when it was put back.
  */
 export async function requeueExport({ exportId }: { exportId: string }): Promise<boolean> {
   const rows = await db
     .update(exportJobs)
     .set({ state: "queued", progress: 0, message: null })
-    .where(and(eq(exportJobs.id, exportId), eq(exportJobs.state, "running")))
+    .where(and(eq(exportJobs.id, exportId), inArray(exportJobs.state, ["queued", "running"])))
     .returning({ id: exportJobs.id });
   return rows.length > 0;
 }

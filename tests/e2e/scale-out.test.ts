@@ -268,6 +268,12 @@ describe("two app processes and two workers on one database, through nginx and p
     const hasty = manage("worker 3", startWorker({ ...up().env, CHALKLINE_WORKER_DRAIN_SECONDS: "0" }, "pipe"), echo);
     extraWorkers.push(hasty);
     await lineOf(hasty, startedLine(id));
+    // Running: the worker has marked it so.
+    for (;;) {
+      const [row] = await db.select({ state: exportJobs.state }).from(exportJobs).where(inArray(exportJobs.id, [id]));
+      if (row?.state === "running") break;
+      await new Promise((resolve) => setTimeout(resolve, 50));
+    }
     hasty.child.kill("SIGTERM");
     await lineOf(hasty, new RegExp(`export ${id}: not finished after 0 s; put back in the queue`));
     expect(await hasty.exited).toBe(1);
