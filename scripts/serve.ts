@@ -5,10 +5,11 @@
  * the rightmost untrusted X-Forwarded-For hop), drops forwarded headers no trusted proxy sent, and
  * hands the address on in one header of its own.
  *
- * `tsx scripts/serve.ts [--dev] [-p port] [-H host]` (what `npm start`, `npm run dev` and `npm test` run).
+ * `node --import tsx scripts/serve.ts [--dev] [-p port] [-H host]` (what `npm start`, `npm run dev`, `npm test` and
+ * `npm run serve` run; not the `tsx` command, which kills a busy child 60 ms after SIGTERM).
  */
 import { randomBytes } from "node:crypto";
-import { createServer } from "node:http";
+import { createServer, type ServerResponse } from "node:http";
 import { parseTrustedProxies, stampClientAddress } from "./lib/client-address";
 import { repoRoot } from "./lib/proc";
 
@@ -45,7 +46,25 @@ const app = next({ dev, dir: repoRoot, hostname, port });
 const handle = app.getRequestHandler();
 await app.prepare();
 
+// SIGTERM or SIGINT: stop taking connections, let the requests in flight finish (each answer says
+// `Connection: close`, idle keep-alive sockets are closed), then exit; after CHALKLINE_DRAIN_SECONDS
+// (30 by default) whatever is still open is cut and the exit code says so.
+const drainSeconds = Number(process.env.CHALKLINE_DRAIN_SECONDS ?? 30);
+if (!Number.isFinite(drainSeconds) || drainSeconds < 0) {
+  console.error(`[serve] CHALKLINE_DRAIN_SECONDS must be a number of seconds (got "${process.env.CHALKLINE_DRAIN_SECONDS}")`);
+  process.exit(1);
+}
+const inFlight = new Set<ServerResponse>();
+let draining = false;
+
 const server = createServer((request, response) => {
+  inFlight.add(response);
+  response.once("close", () => {
+    inFlight.delete(response);
+    // Its socket is idle now (or closing): close it rather than wait for the next request on it.
+    if (draining) server.closeIdleConnections();
+  });
+  if (draining) response.setHeader("Connection", "close");
   stampClientAddress(request, trusted);
   void handle(request, response);
 });
@@ -53,13 +72,25 @@ server.listen(port, hostname, () => {
   console.log(`[serve] listening on http://${hostname}:${port}${trusted.entries.length ? ` (trusted proxies: ${trusted.entries.join(", ")})` : ""}`);
 });
 
-let closing = false;
-function close() {
-  if (closing) return;
-  closing = true;
-  server.close(() => void app.close().finally(() => process.exit(0)));
-  server.closeAllConnections();
-  setTimeout(() => process.exit(0), 5_000).unref();
+function drain(signal: NodeJS.Signals) {
+  if (draining) return;
+  draining = true;
+  for (const response of inFlight) if (!response.headersSent) response.setHeader("Connection", "close");
+  let closed = false;
+  server.close(() => {
+    closed = true;
+    console.log("[serve] every request answered; stopping");
+    void app.close().finally(() => process.exit(0));
+  });
+  server.closeIdleConnections();
+  // Said once the listener is closed: whoever reads this line finds the port refusing connections.
+  console.log(`[serve] ${signal}: no new connections; finishing ${inFlight.size} request(s) in flight (at most ${drainSeconds} s)`);
+  setTimeout(() => {
+    if (closed) process.exit(0);
+    console.error(`[serve] ${inFlight.size} request(s) still open after ${drainSeconds} s; cutting them`);
+    server.closeAllConnections();
+    process.exit(1);
+  }, drainSeconds * 1000).unref();
 }
-process.on("SIGTERM", close);
-process.on("SIGINT", close);
+process.on("SIGTERM", drain);
+process.on("SIGINT", drain);

@@ -8,7 +8,9 @@ import { randomInt } from "node:crypto";
 import { existsSync, mkdirSync, readFileSync, rmSync } from "node:fs";
 import path from "node:path";
 import { buildApp, startNext, startWorker, stopChild, waitForHealth } from "./lib/next";
-import { isRoot, repoRoot, run } from "./lib/proc";
+import { ensureDebianProgram } from "./lib/debian";
+import { startPgbouncer, type Pgbouncer } from "./lib/pgbouncer";
+import { repoRoot, run } from "./lib/proc";
 import { changedSeededRows, recordSeededRows, type SeededRows } from "./lib/seeded-rows";
 import { bringUpStack, testPortOffset } from "./lib/stack";
 import { componentTestFiles } from "./lib/test-files";
@@ -19,21 +21,15 @@ const CHROMIUM = process.env.CHROMIUM_PATH ?? "/usr/bin/chromium";
 const reportDir = path.join(repoRoot, ".data", "test-reports");
 const only = process.argv.slice(2).filter((a) => !a.startsWith("-"));
 const skipE2e = process.argv.includes("--no-e2e");
+// `npm test -- --via-pgbouncer`: the tests, the app and the worker reach the database through
+// pgbouncer in transaction pooling mode (migrations, the seed and the seeded-row checks go direct).
+const viaPgbouncer = process.argv.includes("--via-pgbouncer");
 
 type Totals = { passed: number; failed: number; skipped: number };
 const totals: Totals = { passed: 0, failed: 0, skipped: 0 };
 
 async function ensureChromium(): Promise<void> {
-  if (existsSync(CHROMIUM)) return;
-  if (!isRoot()) {
-    throw new Error(`Chromium is missing at ${CHROMIUM}. Install it with: sudo apt-get install -y chromium`);
-  }
-  log("installing Debian's chromium for the end-to-end tests…");
-  await run("apt-get", ["update"], { onLine: () => {} });
-  await run("apt-get", ["install", "-y", "--no-install-recommends", "chromium", "fonts-liberation"], {
-    env: { ...process.env, DEBIAN_FRONTEND: "noninteractive" },
-    onLine: () => {},
-  });
+  await ensureDebianProgram({ path: CHROMIUM, packages: ["chromium", "fonts-liberation"], what: "Chromium for the end-to-end tests", log });
 }
 
 /** The shuffle seed: TEST_SHUFFLE_SEED repeats an order, else a new one per run. */
@@ -110,6 +106,7 @@ async function checkSeededRows(seeded: SeededRows, after: string, strict: boolea
 }
 
 const stack = await bringUpStack({ mode: "test", port: PORT });
+let bouncer: Pgbouncer | undefined;
 let app: ReturnType<typeof startNext> | undefined;
 let worker: ReturnType<typeof startWorker> | undefined;
 try {
@@ -122,7 +119,12 @@ try {
   // Unit, component and integration tests run in an order shuffled by this seed, files and tests alike.
   const shuffle = shuffleSeed();
   log(`shuffle seed ${shuffle} (repeat the order with TEST_SHUFFLE_SEED=${shuffle})`);
-  const testEnv = { ...stack.env, CHALKLINE_TEST: "1", FUZZ_SEED: fuzzSeed };
+  const testEnv: Record<string, string> = { ...stack.env, CHALKLINE_TEST: "1", FUZZ_SEED: fuzzSeed, CHALKLINE_DIRECT_DATABASE_URL: stack.databaseUrl };
+  if (viaPgbouncer) {
+    bouncer = await startPgbouncer({ port: 54337 + testPortOffset(), serverUrl: stack.databaseUrl, log });
+    testEnv.DATABASE_URL = bouncer.urlFor(stack.databaseUrl);
+    log(`every test, the app and the worker connect through pgbouncer: ${testEnv.DATABASE_URL}`);
+  }
   log("unit, component and integration tests");
   ok = (await vitest(["unit", "component", "integration"], testEnv, "vitest", ["--sequence.shuffle", `--sequence.seed=${shuffle}`])) && ok;
   ok = (await checkSeededRows(seeded, "unit, component and integration tests", true, reported)) && ok;
@@ -145,6 +147,7 @@ try {
 } finally {
   if (app) await stopChild(app);
   if (worker) await stopChild(worker);
+  if (bouncer) await bouncer.stop();
   await stack.shutdown();
 }
 

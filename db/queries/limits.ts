@@ -15,13 +15,23 @@ export type LimitAnswer = { allowed: true; remaining: number } | { allowed: fals
  */
 const limiters = new WeakMap<Pool, Map<string, RateLimiterPostgres>>();
 
+/**
+ * The pool as the store sees it, with its statements sent unnamed. The store names each statement
+ * (a prepared statement of the connection's session); behind a pooler in transaction mode the
+ * next statement may run on another server connection, where that name "does not exist" or
+ * "already exists". Unnamed, each statement is parsed where it runs.
+ */
+function unnamed(pool: Pool) {
+  return { query: (q: { text: string; values?: unknown[] }) => pool.query({ text: q.text, values: q.values }) };
+}
+
 function limiter(rule: LimitRule, pool: Pool): RateLimiterPostgres {
   let byRule = limiters.get(pool);
   if (!byRule) limiters.set(pool, (byRule = new Map()));
   let found = byRule.get(rule.name);
   if (!found) {
     found = new RateLimiterPostgres({
-      storeClient: pool,
+      storeClient: unnamed(pool),
       storeType: "pool",
       tableName: "rate_limits",
       tableCreated: true,

@@ -1,5 +1,5 @@
 import "server-only";
-import { and, asc, desc, eq, sql } from "drizzle-orm";
+import { and, asc, desc, eq, inArray, sql } from "drizzle-orm";
 import { db } from "../client";
 import { exportFiles, exportJobs, jobGradings, jobSizes, jobs, type ExportJob, type ExportSummaryFacts, type ExportSubject } from "../schema";
 
@@ -126,6 +126,20 @@ export async function finishExport(exportId: string, files: Array<{ fileName: st
       .set({ state: "done", progress: 1, fileName: first.fileName, mime: first.mime, result: first.bytes, fileCount: files.length, summary, subject, finishedAt: new Date(), message: null })
       .where(eq(exportJobs.id, exportId));
   });
+}
+
+/**
+ * Puts an export a stopping worker took but could not finish back in the queue: only while it is
+ * still unfinished (running, or not yet marked so); one that finished in the meantime stays as it
+ * ended. True when it was put back.
+ */
+export async function requeueExport({ exportId }: { exportId: string }): Promise<boolean> {
+  const rows = await db
+    .update(exportJobs)
+    .set({ state: "queued", progress: 0, message: null })
+    .where(and(eq(exportJobs.id, exportId), inArray(exportJobs.state, ["queued", "running"])))
+    .returning({ id: exportJobs.id });
+  return rows.length > 0;
 }
 
 export async function loadExportForWork({ exportId }: { exportId: string }) {

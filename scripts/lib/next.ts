@@ -1,10 +1,15 @@
-import { spawn, type ChildProcess } from "node:child_process";
+import { spawn, type ChildProcess, type SpawnOptions } from "node:child_process";
 import { existsSync, readdirSync, statSync } from "node:fs";
 import path from "node:path";
 import { repoRoot, run, sleep } from "./proc";
 
 const NEXT_BIN = path.join(repoRoot, "node_modules", "next", "dist", "bin", "next");
-const TSX_CLI = path.join(repoRoot, "node_modules", "tsx", "dist", "cli.mjs");
+/**
+ * The app and the worker run in node itself with tsx as a loader, never under the tsx command: on
+ * SIGTERM that wrapper gives its child 60 ms to say it caught the signal and kills it otherwise, so
+ * a worker busy drawing a gang sheet would die mid-export instead of finishing it.
+ */
+const TSX_LOADER = ["--import", "tsx"];
 const SOURCES = ["app", "components", "canvas", "db", "lib", "public", "fonts", "next.config.ts", "proxy.ts", "tailwind.config.ts", "postcss.config.mjs", "package-lock.json", "tsconfig.json"];
 
 function newestMtime(entry: string): number {
@@ -35,15 +40,18 @@ export async function buildApp(env: Record<string, string>, log: (line: string) 
 }
 
 /** The app: Next.js behind scripts/serve.ts, which works out each request's client address. */
-export function startNext(opts: { dev: boolean; port: number; env: Record<string, string>; quiet?: boolean }): ChildProcess {
+/** Where a child's output goes: this terminal, nowhere (errors still shown), or pipes the caller reads. */
+export type ChildOutput = "inherit" | "quiet" | "pipe";
+const stdioFor = (output: ChildOutput): SpawnOptions["stdio"] => (output === "pipe" ? ["ignore", "pipe", "pipe"] : output === "quiet" ? ["ignore", "ignore", "inherit"] : "inherit");
+
+export function startNext(opts: { dev: boolean; port: number; env: Record<string, string>; quiet?: boolean; output?: ChildOutput }): ChildProcess {
   // CHALKLINE_SERVER_NODE_ARGS="--cpu-prof --cpu-prof-dir=…" profiles the server (Node refuses --cpu-prof in NODE_OPTIONS).
   const nodeArgs = (process.env.CHALKLINE_SERVER_NODE_ARGS ?? "").split(/\s+/).filter(Boolean);
-  // With node flags the server runs in this node process's child directly (tsx as a loader), so the flags reach it.
-  const args = [...(nodeArgs.length ? [...nodeArgs, "--import", "tsx"] : [TSX_CLI]), path.join(repoRoot, "scripts", "serve.ts"), ...(opts.dev ? ["--dev"] : []), "-p", String(opts.port), "-H", process.env.HOST ?? "127.0.0.1"];
+  const args = [...nodeArgs, ...TSX_LOADER, path.join(repoRoot, "scripts", "serve.ts"), ...(opts.dev ? ["--dev"] : []), "-p", String(opts.port), "-H", process.env.HOST ?? "127.0.0.1"];
   return spawn(process.execPath, args, {
     cwd: repoRoot,
     env: { ...process.env, ...opts.env, NEXT_TELEMETRY_DISABLED: "1" },
-    stdio: opts.quiet ? ["ignore", "ignore", "inherit"] : "inherit",
+    stdio: stdioFor(opts.output ?? (opts.quiet ? "quiet" : "inherit")),
   });
 }
 
@@ -62,12 +70,13 @@ export async function waitForHealth(url: string, timeoutMs: number, child?: Chil
   throw new Error(`the app did not answer ${url}/api/health within ${Math.round(timeoutMs / 1000)} s`);
 }
 
-export async function stopChild(child: ChildProcess): Promise<void> {
+/** SIGTERM (the app and the worker finish what they have in flight), SIGKILL after `graceMs`. */
+export async function stopChild(child: ChildProcess, graceMs = 8_000): Promise<void> {
   if (child.exitCode !== null || child.signalCode !== null) return;
   await new Promise<void>((resolve) => {
     const timer = setTimeout(() => {
       child.kill("SIGKILL");
-    }, 8_000);
+    }, graceMs);
     child.once("exit", () => {
       clearTimeout(timer);
       resolve();
@@ -77,10 +86,10 @@ export async function stopChild(child: ChildProcess): Promise<void> {
 }
 
 /** The export worker, a separate process reading jobs from PostgreSQL. */
-export function startWorker(env: Record<string, string>, quiet = false): ChildProcess {
-  return spawn(process.execPath, [TSX_CLI, "--conditions=react-server", path.join(repoRoot, "scripts", "worker.ts")], {
+export function startWorker(env: Record<string, string>, quiet: boolean | ChildOutput = false): ChildProcess {
+  return spawn(process.execPath, [...TSX_LOADER, "--conditions=react-server", path.join(repoRoot, "scripts", "worker.ts")], {
     cwd: repoRoot,
     env: { ...process.env, ...env },
-    stdio: quiet ? ["ignore", "ignore", "inherit"] : "inherit",
+    stdio: stdioFor(typeof quiet === "string" ? quiet : quiet ? "quiet" : "inherit"),
   });
 }

@@ -21,10 +21,11 @@ export function actionId(file: string, exportName: string): string {
  * Posts one action call to a page path and returns the action's result object, read from the
  * flight response (the line whose JSON carries "ok").
  */
-export async function callAction<T = { ok: boolean; [key: string]: unknown }>(opts: { file: string; name: string; pagePath: string; args: unknown[]; cookie?: string }): Promise<{ status: number; result: T | null; text: string }> {
-  const headers: Record<string, string> = { "next-action": actionId(opts.file, opts.name), "content-type": "text/plain;charset=UTF-8", accept: "text/x-component", origin: BASE_URL };
+export async function callAction<T = { ok: boolean; [key: string]: unknown }>(opts: { file: string; name: string; pagePath: string; args: unknown[]; cookie?: string; baseUrl?: string }): Promise<{ status: number; result: T | null; text: string }> {
+  const base = opts.baseUrl ?? BASE_URL;
+  const headers: Record<string, string> = { "next-action": actionId(opts.file, opts.name), "content-type": "text/plain;charset=UTF-8", accept: "text/x-component", origin: base };
   if (opts.cookie) headers.cookie = opts.cookie;
-  const response = await fetch(`${BASE_URL}${opts.pagePath}`, { method: "POST", headers, body: JSON.stringify(opts.args) });
+  const response = await fetch(`${base}${opts.pagePath}`, { method: "POST", headers, body: JSON.stringify(opts.args) });
   const text = await response.text();
   let result: T | null = null;
   for (const line of text.split("\n")) {

@@ -11,7 +11,8 @@ export function testCluster(): DbTarget | null {
   const offset = testPortOffset();
   const target: DbTarget = { ...TEST_DB, port: TEST_DB.port + offset, dataDir: TEST_DB.dataDir + (offset ? `-${offset}` : "") };
   if (process.env.TEST_DATABASE_URL) return null;
-  const url = process.env.DATABASE_URL;
+  // The server itself, also in a run whose tests reach it through pgbouncer (`npm test -- --via-pgbouncer`).
+  const url = process.env.CHALKLINE_DIRECT_DATABASE_URL ?? process.env.DATABASE_URL;
   if (!url) return null;
   const { port, hostname } = new URL(url);
   return Number(port) === target.port && (hostname === "127.0.0.1" || hostname === "localhost") ? target : null;

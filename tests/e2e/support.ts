@@ -92,27 +92,27 @@ export async function fetchFrom(source: string, url: string, init: { method?: st
  * address. Says what came of it: the cookies, next-auth's `error` (as its client reads it from the url
  * it answers), and whose session the cookies now carry, if anyone's.
  */
-export async function tryPasswordSignIn(email: string, password: string, from = "127.0.0.1"): Promise<PasswordAttempt> {
+export async function tryPasswordSignIn(email: string, password: string, from = "127.0.0.1", base = BASE_URL): Promise<PasswordAttempt> {
   const jar = new Map<string, string>();
-  const csrf = await fetchFrom(from, `${BASE_URL}/api/auth/csrf`);
+  const csrf = await fetchFrom(from, `${base}/api/auth/csrf`);
   absorb(jar, csrf);
   const { csrfToken } = (await csrf.json()) as { csrfToken: string };
-  const callback = await fetchFrom(from, `${BASE_URL}/api/auth/callback/credentials`, {
+  const callback = await fetchFrom(from, `${base}/api/auth/callback/credentials`, {
     method: "POST",
     headers: { "content-type": "application/x-www-form-urlencoded", cookie: header(jar) },
-    body: new URLSearchParams({ csrfToken, email, password, callbackUrl: `${BASE_URL}/home`, json: "true" }).toString(),
+    body: new URLSearchParams({ csrfToken, email, password, callbackUrl: `${base}/home`, json: "true" }).toString(),
   });
   absorb(jar, callback);
   const answer = (await callback.json().catch(() => null)) as { url?: string } | null;
-  const error = answer?.url ? new URL(answer.url, BASE_URL).searchParams.get("error") : null;
+  const error = answer?.url ? new URL(answer.url, base).searchParams.get("error") : null;
   const cookie = header(jar);
-  const session = (await (await fetchFrom(from, `${BASE_URL}/api/auth/session`, { headers: { cookie } })).json()) as { user?: { email?: string } };
+  const session = (await (await fetchFrom(from, `${base}/api/auth/session`, { headers: { cookie } })).json()) as { user?: { email?: string } };
   return { cookie, status: callback.status, error, sessionEmail: session.user?.email ?? null };
 }
 
 /** The credentials sign-in a browser form makes; returns the session cookies, or throws when no session came of it. */
-export async function signInOverHttp(email: string, password: string, from = "127.0.0.1"): Promise<string> {
-  const attempt = await tryPasswordSignIn(email, password, from);
+export async function signInOverHttp(email: string, password: string, from = "127.0.0.1", base = BASE_URL): Promise<string> {
+  const attempt = await tryPasswordSignIn(email, password, from, base);
   if (attempt.sessionEmail !== email) throw new Error(`signing in ${email} did not make a session (callback answered ${attempt.status}, error ${attempt.error})`);
   return attempt.cookie;
 }
