@@ -59,6 +59,8 @@ let draining = false;
 
 const server = createServer((request, response) => {
   inFlight.add(response);
+  // Next.js puts up to ten close listeners of its own on a response; this one is ours, beyond those.
+  response.setMaxListeners(response.getMaxListeners() + 1);
   response.once("close", () => {
     inFlight.delete(response);
     // Its socket is idle now (or closing): close it rather than wait for the next request on it.
