@@ -4,7 +4,7 @@ import { containsPattern, type JobListFilter, type JobListQuery, type JobSort, t
 import { JOB_STATUSES, type JobStatus } from "@/lib/jobs";
 import type { SizeRunEntry } from "@/lib/pricing";
 import { db } from "../client";
-import { blanks, clients, jobs, jobSizes, payments, proofs, quotes, shops, type JobPrintLocation } from "../schema";
+import { blanks, clients, jobs, jobSizes, payments, proofs, quotes, shopJobCounts, shops, type JobPrintLocation } from "../schema";
 import { recordAudit } from "./audit";
 
 /** Per job: the newest quote still in force and what has been paid. */
@@ -202,13 +202,11 @@ export async function listJobSizeRuns({ shopId, query }: { shopId: string; query
 
 export type JobListRow = Awaited<ReturnType<typeof listJobPage>>["rows"][number];
 
-/** How many jobs the shop has in each status: one index-only count per status. */
+/** How many jobs the shop has in each status, from the counts the database keeps (`shop_job_counts`). */
 export async function countJobsByStatus({ shopId }: { shopId: string }): Promise<Record<JobStatus, number>> {
-  const result = await db.execute<{ status: JobStatus; n: number }>(sql`
-    select s.status, (select count(*)::int from ${jobs} where ${jobs.shopId} = ${shopId} and ${jobs.status} = s.status) as n
-      from unnest(enum_range(null::job_status)) as s(status)`);
+  const rows = await db.select({ status: shopJobCounts.status, n: shopJobCounts.n }).from(shopJobCounts).where(eq(shopJobCounts.shopId, shopId));
   const out = Object.fromEntries(JOB_STATUSES.map((s) => [s, 0])) as Record<JobStatus, number>;
-  for (const r of result.rows) out[r.status] = Number(r.n);
+  for (const r of rows) out[r.status] = r.n;
   return out;
 }
 

@@ -1,5 +1,5 @@
 import { sql } from "drizzle-orm";
-import { boolean, date, doublePrecision, index, jsonb, pgEnum, pgTable, text, timestamp } from "drizzle-orm/pg-core";
+import { boolean, date, doublePrecision, index, integer, jsonb, pgEnum, pgTable, primaryKey, text, timestamp } from "drizzle-orm/pg-core";
 import { blanks } from "./blanks";
 import { users } from "./auth";
 import { clients } from "./clients";
@@ -59,5 +59,21 @@ export const jobs = pgTable(
 );
 
 export type Job = typeof jobs.$inferSelect;
+
+/**
+ * How many jobs each shop has in each status, kept by triggers on `jobs` (migration 0013): the list
+ * and the board show every column's count on every view, and counting a large shop's jobs each time
+ * read tens of thousands of index entries. No foreign key: a shop's deletion removes its jobs, and
+ * the triggers bring its counts to 0 in the same statement.
+ */
+export const shopJobCounts = pgTable(
+  "shop_job_counts",
+  {
+    shopId: text("shop_id").notNull(),
+    status: jobStatus("status").notNull(),
+    n: integer("n").notNull().default(0),
+  },
+  (t) => [primaryKey({ columns: [t.shopId, t.status] })],
+);
 
 export type JobPrintLocation = { location: string; colours: number };

@@ -5,7 +5,10 @@
  */
 import { beforeAll, describe, expect, it } from "vitest";
 import { seedLargeShop, type LargeShop } from "@/db/large-shop";
-import { countJobsByStatus, listBoardColumns, listJobPage, listJobsForClients, listJobSizeRuns } from "@/db/queries/jobs";
+import { and, count, eq, inArray } from "drizzle-orm";
+import { db } from "@/db/client";
+import { countJobsByStatus, listBoardColumns, listJobPage, listJobsForClients, listJobSizeRuns, setJobStatus } from "@/db/queries/jobs";
+import { jobs } from "@/db/schema";
 import { listSharedProofsForClients } from "@/db/queries/review";
 import { DEFAULT_JOB_LIST, JOB_SORTS, type JobListQuery } from "@/lib/job-list";
 import { JOB_STATUSES } from "@/lib/jobs";
@@ -155,5 +158,28 @@ describe("a client's portal", () => {
     // Another client's job ids do not open its proofs.
     expect(await listSharedProofsForClients({ clientIds, jobIds: [other.job.id] })).toEqual([]);
     expect((await listJobsForClients({ clientIds: [other.client.id], page: 1, pageSize: 25 })).rows.map((r) => r.id)).toEqual([other.job.id]);
+  });
+});
+
+describe("the counts per status the database keeps", () => {
+  async function counted(shopId: string) {
+    const rows = await db.select({ status: jobs.status, n: count() }).from(jobs).where(eq(jobs.shopId, shopId)).groupBy(jobs.status);
+    return Object.fromEntries(JOB_STATUSES.map((s) => [s, rows.find((r) => r.status === s)?.n ?? 0]));
+  }
+
+  it("match a count of the jobs after a bulk insert, moves between statuses and deletions", async () => {
+    // A shop of its own: this test moves and deletes jobs, which the paging tests must not see.
+    const mine = await seedLargeShop({ jobs: 40, proofs: 40, notes: 40, clients: 3 }, { tag: `${shops.tag}c` });
+    shops.adopt({ shopIds: [mine.shop.id], userIds: mine.userIds });
+    const shopId = mine.shop.id;
+    expect(await countJobsByStatus({ shopId })).toEqual(await counted(shopId));
+    const [first, second] = (await listJobPage({ shopId, query: list({ page: 1 }) })).rows;
+    const next = JOB_STATUSES.find((s) => s !== first!.status)!;
+    await setJobStatus({ shopId, jobId: first!.id, status: next, actorUserId: mine.owner.id });
+    expect(await countJobsByStatus({ shopId })).toEqual(await counted(shopId));
+    await db.delete(jobs).where(and(eq(jobs.shopId, shopId), inArray(jobs.id, [second!.id])));
+    expect(await countJobsByStatus({ shopId })).toEqual(await counted(shopId));
+    // Another shop's counts never move with this one's.
+    expect(await countJobsByStatus({ shopId: other.shop.id })).toEqual(await counted(other.shop.id));
   });
 });
