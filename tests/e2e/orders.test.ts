@@ -161,9 +161,14 @@ describe("orders, quotes and payments", () => {
     // Other test files add jobs to the same shop, so look for ours by search before filtering.
     await page.getByLabel("Search").fill("autumn league");
     await page.getByLabel("Status").selectOption("drafting");
-    await expect.poll(async () => (await rowTexts()).join("|")).toContain("Autumn league tees");
+    // The list answers from the server: wait for the page of both filters, not a page between them.
+    const allDrafting = async () => {
+      const rows = await rowTexts();
+      return rows.length > 0 && rows.every((row) => row.includes("Drafting"));
+    };
+    await expect.poll(async () => (await allDrafting()) && (await rowTexts()).join("|").includes("Autumn league tees")).toBe(true);
     await page.getByLabel("Search").fill("");
-    expect((await rowTexts()).every((row) => row.includes("Drafting"))).toBe(true);
+    await expect.poll(allDrafting).toBe(true);
     await page.getByLabel("Status").selectOption("");
     await page.getByLabel("Client").selectOption({ label: "Northgate Robotics Club" });
     await expect.poll(async () => (await rowTexts()).every((row) => row.includes("Northgate Robotics Club"))).toBe(true);
