@@ -32,7 +32,13 @@ export type JobListQuery = JobListFilter & { sort: JobSort; dir: SortDir; page: 
 
 export const DEFAULT_JOB_LIST: JobListQuery = { q: null, status: null, clientId: null, dueFrom: null, dueTo: null, sort: "due", dir: "asc", page: 1, pageSize: DEFAULT_JOB_PAGE_SIZE };
 
-const isoDate = z.string().regex(/^\d{4}-\d{2}-\d{2}$/).refine((s) => !Number.isNaN(Date.parse(`${s}T00:00:00Z`)));
+/** A calendar day as YYYY-MM-DD that exists (no 30 February: PostgreSQL refuses those). */
+function isCalendarDay(s: string): boolean {
+  const [y, m, d] = s.split("-").map(Number) as [number, number, number];
+  // Day 0 of the next month is the last day of this one (Gregorian calendar, as Date.UTC counts).
+  return y >= 1 && m >= 1 && m <= 12 && d >= 1 && d <= new Date(Date.UTC(y, m, 0)).getUTCDate();
+}
+const isoDate = z.string().regex(/^\d{4}-\d{2}-\d{2}$/).refine(isCalendarDay);
 const one = (v: unknown) => (Array.isArray(v) ? v[0] : v);
 const text = z.preprocess(one, z.string().optional()).catch(undefined);
 

@@ -84,10 +84,19 @@ describe("gang sheets with several sheets", () => {
 
   it("makes one PNG per sheet, each readable by its number, at 300 ppi on the 22 in roll", async () => {
     const id = await createExport({ shopId: s.shop.id, jobId: s.job.id, kind: "gang-sheet-png", params: SETTINGS, requestedBy: s.owner.id });
+    // One read at a time: reads in flight together can answer out of order and look like progress going back.
     const seen: number[] = [];
-    const watching = setInterval(() => void findExport({ shopId: s.shop.id, exportId: id }).then((r) => r && seen.push(r.progress)), 50);
+    let watching = true;
+    const watcher = (async () => {
+      while (watching) {
+        const row = await findExport({ shopId: s.shop.id, exportId: id });
+        if (row) seen.push(row.progress);
+        await new Promise((resolve) => setTimeout(resolve, 50));
+      }
+    })();
     await runExport(id);
-    clearInterval(watching);
+    watching = false;
+    await watcher;
     const files = await listExportFiles({ shopId: s.shop.id, exportId: id });
     const count = expected.lengthsIn.length;
     expect(files.map((f) => f.n)).toEqual(Array.from({ length: count }, (_, i) => i + 1));

@@ -20,6 +20,9 @@ describe("the job list's question in the address", () => {
     ["an unknown status", { status: "lost" }, { status: null }],
     ["a client that is no id", { client: "'; drop table jobs" }, { clientId: null }],
     ["a date that is no date", { from: "2027-02-31x", to: "soon" }, { dueFrom: null, dueTo: null }],
+    // Gregorian calendar: February has 28 days, 29 in a leap year (2028 is one, 2027 is not); no month has a day 0 or a 13th month.
+    ["a day the calendar does not have", { from: "2027-02-30", to: "2027-02-29" }, { dueFrom: null, dueTo: null }],
+    ["a month the calendar does not have", { from: "2027-13-01", to: "2027-00-10" }, { dueFrom: null, dueTo: null }],
     ["an unknown order", { sort: "price", dir: "sideways" }, { sort: "due", dir: "asc" }],
     ["a page below one", { page: "0" }, { page: 1 }],
     ["a page that is no number", { page: "two" }, { page: 1 }],
@@ -58,5 +61,13 @@ describe("paging helpers", () => {
     ["1.5", 1],
   ])("reads the portal page %j as %i", (value, page) => {
     expect(readPage(value as string | string[] | undefined)).toBe(page);
+  });
+});
+
+describe("due dates in the address", () => {
+  it("keeps a leap day in a leap year and the last day of each month", () => {
+    // Gregorian calendar: 2028 is a leap year; April has 30 days, December 31.
+    expect(readJobListParams({ from: "2028-02-29", to: "2027-04-30" })).toMatchObject({ dueFrom: "2028-02-29", dueTo: "2027-04-30" });
+    expect(readJobListParams({ from: "2027-12-31" })).toMatchObject({ dueFrom: "2027-12-31" });
   });
 });
