@@ -8,6 +8,7 @@
 import { performance } from "node:perf_hooks";
 import autocannon, { type Result } from "autocannon";
 import type { LargeShop } from "../../db/large-shop";
+import { signInOverHttp } from "../lib/http-sign-in";
 import type { Row } from "./table";
 
 export const LARGE_LOAD = { connections: 10, durationS: 10, warmupS: 3, goalP99Ms: 100 } as const;
@@ -18,33 +19,6 @@ export async function prepareLargeShop(log: (line: string) => void): Promise<Lar
   const made = await seedLargeShop(LARGE_SHOP_SIZE, { log: (line) => log(`large: ${line}`) });
   log(`large: seeded in ${(made.ms / 1000).toFixed(1)} s`);
   return made;
-}
-
-function cookiesOf(response: Response, jar: Map<string, string>): void {
-  for (const line of response.headers.getSetCookie()) {
-    const [pair] = line.split(";");
-    const at = pair!.indexOf("=");
-    if (at > 0) jar.set(pair!.slice(0, at).trim(), pair!.slice(at + 1).trim());
-  }
-}
-
-/** The credentials sign-in the form makes (CSRF token, then the callback); returns the session cookies. */
-async function signInOverHttp(baseUrl: string, email: string, password: string): Promise<string> {
-  const jar = new Map<string, string>();
-  const header = () => [...jar].map(([k, v]) => `${k}=${v}`).join("; ");
-  const csrf = await fetch(`${baseUrl}/api/auth/csrf`);
-  cookiesOf(csrf, jar);
-  const { csrfToken } = (await csrf.json()) as { csrfToken: string };
-  const callback = await fetch(`${baseUrl}/api/auth/callback/credentials`, {
-    method: "POST",
-    redirect: "manual",
-    headers: { "content-type": "application/x-www-form-urlencoded", cookie: header() },
-    body: new URLSearchParams({ csrfToken, email, password, callbackUrl: `${baseUrl}/home`, json: "true" }).toString(),
-  });
-  cookiesOf(callback, jar);
-  const session = (await (await fetch(`${baseUrl}/api/auth/session`, { headers: { cookie: header() } })).json()) as { user?: { email?: string } };
-  if (session.user?.email !== email) throw new Error(`signing in ${email} made no session (the callback answered ${callback.status})`);
-  return header();
 }
 
 async function probe(url: string, cookie: string, mustShow: string): Promise<number> {
@@ -105,8 +79,8 @@ async function measureQueriesAlone(shop: LargeShop): Promise<Map<string, { p99: 
 }
 
 export async function measureLargeShop({ baseUrl, shop, log }: { baseUrl: string; shop: LargeShop; log: (line: string) => void }): Promise<Row[]> {
-  const owner = await signInOverHttp(baseUrl, shop.owner.email, shop.password);
-  const contact = await signInOverHttp(baseUrl, shop.contact.email, shop.password);
+  const owner = await signInOverHttp(shop.owner.email, shop.password, "127.0.0.1", baseUrl);
+  const contact = await signInOverHttp(shop.contact.email, shop.password, "127.0.0.1", baseUrl);
   const base = `${baseUrl}/shops/${shop.shop.slug}/jobs`;
   // Job 12345 is far down every order of the list; the search must find it among 20,000.
   const pages: Array<{ subject: string; url: string; cookie: string; mustShow: string }> = [

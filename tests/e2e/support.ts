@@ -1,6 +1,8 @@
-import { request as httpRequest } from "node:http";
 import { chromium, type Browser, type BrowserContext, type Page } from "playwright-core";
 import { expect } from "vitest";
+import { fetchFrom as fetchFromAt, signInOverHttp as signInOverHttpAt, tryPasswordSignIn as tryPasswordSignInAt, type FetchInit, type PasswordAttempt } from "../../scripts/lib/http-sign-in";
+
+export type { PasswordAttempt };
 
 export const BASE_URL = process.env.E2E_BASE_URL ?? "http://localhost:3100";
 export const MAIL_API = process.env.MAIL_FAKE_API ?? "http://127.0.0.1:2590";
@@ -40,82 +42,21 @@ export async function signIn(page: Page, email: string, password = DEMO_PASSWORD
   await page.waitForURL((url) => !url.pathname.startsWith("/sign-in"));
 }
 
-/** Cookie jar: name=value pairs from Set-Cookie headers. */
-function absorb(jar: Map<string, string>, response: Response) {
-  for (const line of response.headers.getSetCookie()) {
-    const [pair] = line.split(";");
-    const at = pair!.indexOf("=");
-    jar.set(pair!.slice(0, at), pair!.slice(at + 1));
-  }
-}
-const header = (jar: Map<string, string>) => [...jar].map(([k, v]) => `${k}=${v}`).join("; ");
-
-export type PasswordAttempt = { cookie: string; status: number; error: string | null; sessionEmail: string | null };
-
-/**
- * An HTTP request from a chosen loopback address (127.0.0.0/8 is all loopback on Linux), so the app
- * sees a different client at the socket: how these tests stand in for people on other networks.
- * The app trusts no proxy in tests, so X-Forwarded-For cannot do that.
- */
-export async function fetchFrom(source: string, url: string, init: { method?: string; headers?: Record<string, string>; body?: string } = {}): Promise<Response> {
-  const target = new URL(url, BASE_URL);
-  const body = init.body === undefined ? undefined : Buffer.from(init.body);
-  return new Promise<Response>((resolve, reject) => {
-    const request = httpRequest(
-      {
-        host: target.hostname === "localhost" ? "127.0.0.1" : target.hostname,
-        port: target.port,
-        path: `${target.pathname}${target.search}`,
-        method: init.method ?? "GET",
-        headers: { host: target.host, ...(body ? { "content-length": String(body.length) } : {}), ...init.headers },
-        localAddress: source,
-      },
-      (response) => {
-        const chunks: Buffer[] = [];
-        response.on("data", (chunk: Buffer) => chunks.push(chunk));
-        response.on("error", reject);
-        response.on("end", () => {
-          const headers = new Headers();
-          for (let i = 0; i + 1 < response.rawHeaders.length; i += 2) headers.append(response.rawHeaders[i]!, response.rawHeaders[i + 1]!);
-          const status = response.statusCode ?? 500;
-          resolve(new Response([101, 204, 205, 304].includes(status) ? null : Buffer.concat(chunks), { status, headers }));
-        });
-      },
-    );
-    request.on("error", reject);
-    request.end(body);
-  });
+/** An HTTP request from a chosen loopback address (scripts/lib/http-sign-in.ts); a path is taken on BASE_URL. */
+export function fetchFrom(source: string, url: string, init: FetchInit = {}): Promise<Response> {
+  return fetchFromAt(source, new URL(url, BASE_URL).toString(), init);
 }
 
-/**
- * The credentials sign-in a browser form makes: CSRF token, then the callback, from a chosen loopback
- * address. Says what came of it: the cookies, next-auth's `error` (as its client reads it from the url
- * it answers), and whose session the cookies now carry, if anyone's.
- */
-export async function tryPasswordSignIn(email: string, password: string, from = "127.0.0.1", base = BASE_URL): Promise<PasswordAttempt> {
-  const jar = new Map<string, string>();
-  const csrf = await fetchFrom(from, `${base}/api/auth/csrf`);
-  absorb(jar, csrf);
-  const { csrfToken } = (await csrf.json()) as { csrfToken: string };
-  const callback = await fetchFrom(from, `${base}/api/auth/callback/credentials`, {
-    method: "POST",
-    headers: { "content-type": "application/x-www-form-urlencoded", cookie: header(jar) },
-    body: new URLSearchParams({ csrfToken, email, password, callbackUrl: `${base}/home`, json: "true" }).toString(),
-  });
-  absorb(jar, callback);
-  const answer = (await callback.json().catch(() => null)) as { url?: string } | null;
-  const error = answer?.url ? new URL(answer.url, base).searchParams.get("error") : null;
-  const cookie = header(jar);
-  const session = (await (await fetchFrom(from, `${base}/api/auth/session`, { headers: { cookie } })).json()) as { user?: { email?: string } };
-  return { cookie, status: callback.status, error, sessionEmail: session.user?.email ?? null };
+/** The credentials sign-in a browser form makes, from a chosen loopback address, on BASE_URL unless told. */
+export function tryPasswordSignIn(email: string, password: string, from = "127.0.0.1", base = BASE_URL): Promise<PasswordAttempt> {
+  return tryPasswordSignInAt(email, password, from, base);
 }
 
-/** The credentials sign-in a browser form makes; returns the session cookies, or throws when no session came of it. */
-export async function signInOverHttp(email: string, password: string, from = "127.0.0.1", base = BASE_URL): Promise<string> {
-  const attempt = await tryPasswordSignIn(email, password, from, base);
-  if (attempt.sessionEmail !== email) throw new Error(`signing in ${email} did not make a session (callback answered ${attempt.status}, error ${attempt.error})`);
-  return attempt.cookie;
+/** The same; returns the session cookies, or throws when no session came of it. */
+export function signInOverHttp(email: string, password: string, from = "127.0.0.1", base = BASE_URL): Promise<string> {
+  return signInOverHttpAt(email, password, from, base);
 }
+
 /**
  * After the sign-up form: the "check your e-mail" page, then the link e-mailed to the new address,
  * opened in the same browser. Resolves once the link has signed in and opened the new shop.
